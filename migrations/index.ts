@@ -1,0 +1,18 @@
+import type { Knex } from 'knex';
+import * as init from './20261201000000_init';
+
+/**
+ * Migrations are imported statically so that the app bundle, the tests and
+ * the knex CLI all run the same list (knex's own loader cannot import .ts
+ * inside vitest). A new migration is added to this list, in order; names are
+ * recorded without an extension.
+ */
+const migrations: Record<string, Knex.Migration> = {
+  '20261201000000_init': init,
+};
+
+export const migrationSource: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(migrations).sort(),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => migrations[name],
+};

@@ -1,0 +1,82 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import express, { type Express } from 'express';
+import helmet from 'helmet';
+import { rateLimit } from 'express-rate-limit';
+import type { Db } from './db/knex';
+import { systemClock, type Clock } from './lib/clock';
+import type { Mailer } from './mail/mailer';
+import { createPassport, passportMiddleware } from './middleware/auth';
+import { csrfProtection } from './middleware/csrf';
+import { errorHandler, notFoundHandler } from './middleware/error-handler';
+import { sessionMiddleware } from './middleware/session';
+import { apiRoutes, mountRoutes } from './routes';
+import { createServices } from './services';
+import { AppError } from './lib/errors';
+
+export interface AppOptions {
+  db: Db;
+  mailer?: Mailer;
+  clock?: Clock;
+  sessionSecret: string;
+  secureCookies?: boolean;
+  /** Built client to serve (dist/); omitted in API tests. */
+  clientDir?: string;
+  loginAttemptsPerWindow?: number;
+  sessionCleanupIntervalMs?: number;
+}
+
+export function createApp(options: AppOptions): Express {
+  const { db } = options;
+  const clock = options.clock ?? systemClock;
+  const services = createServices(db, clock);
+  const passport = createPassport(services.users);
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          // Served over plain HTTP on an observatory's LAN as often as over
+          // HTTPS; upgrading would break the former.
+          upgradeInsecureRequests: null,
+        },
+      },
+    }),
+  );
+
+  const loginLimiter = rateLimit({
+    windowMs: 15 * 60 * 1000,
+    limit: options.loginAttemptsPerWindow ?? 20,
+    skipSuccessfulRequests: true,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, _res, next) => next(new AppError(429, 'rate_limited')),
+  });
+
+  const api = express.Router();
+  api.use(express.json({ limit: '1mb' }));
+  api.use(
+    sessionMiddleware(db, {
+      secret: options.sessionSecret,
+      secureCookies: options.secureCookies ?? false,
+      cleanupIntervalMs: options.sessionCleanupIntervalMs ?? 60 * 60 * 1000,
+    }),
+  );
+  api.use(...passportMiddleware(passport));
+  api.use(csrfProtection);
+  api.use(mountRoutes(db, apiRoutes(services, passport, loginLimiter)));
+  api.use(notFoundHandler);
+  api.use(errorHandler);
+  app.use('/api', api);
+
+  if (options.clientDir && fs.existsSync(path.join(options.clientDir, 'index.html'))) {
+    const clientDir = options.clientDir;
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+  }
+  app.use(errorHandler);
+  return app;
+}

@@ -1,0 +1,27 @@
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+
+/** Configuration from the environment, with the defaults `npm start` runs on. README lists them. */
+export const config = {
+  port: Number(process.env.PORT ?? 3000),
+  host: process.env.HOST ?? '127.0.0.1',
+  databaseUrl: process.env.DATABASE_URL,
+  smtpUrl: process.env.SMTP_URL,
+  mailFrom: process.env.MAIL_FROM ?? 'Starledger <starledger@localhost>',
+  secureCookies: process.env.COOKIE_SECURE === 'true',
+  seedDemo: process.env.SEED_DEMO !== 'false',
+  dataDir: path.resolve(process.env.DATA_DIR ?? 'data'),
+  clientDir: path.resolve(process.env.CLIENT_DIR ?? 'dist'),
+};
+
+/** SESSION_SECRET, or one made once and kept under data/ so sessions survive a restart. */
+export function sessionSecret(): string {
+  if (process.env.SESSION_SECRET) return process.env.SESSION_SECRET;
+  const file = path.join(config.dataDir, 'session-secret');
+  if (!fs.existsSync(file)) {
+    fs.mkdirSync(config.dataDir, { recursive: true });
+    fs.writeFileSync(file, crypto.randomBytes(32).toString('hex'), { mode: 0o600 });
+  }
+  return fs.readFileSync(file, 'utf8').trim();
+}

@@ -1,0 +1,42 @@
+import type { NextFunction, Request, Response } from 'express';
+import { roleCan, type Permission } from '../../shared/schemas/roles';
+import type { Db } from '../db/knex';
+import { forbidden, notFound, unauthenticated } from '../lib/errors';
+import { roleInProject } from '../modules/projects/projects.repository';
+import type { ProjectAccess } from '../types';
+
+/** Who may call a route: anyone, any signed-in person, a site admin, or a project member holding a permission. */
+export type Access = { kind: 'public' } | { kind: 'user' } | { kind: 'siteAdmin' } | { kind: 'project'; permission: Permission };
+
+export const anyone: Access = { kind: 'public' };
+export const signedIn: Access = { kind: 'user' };
+export const siteAdmin: Access = { kind: 'siteAdmin' };
+export const inProject = (permission: Permission): Access => ({ kind: 'project', permission });
+
+/**
+ * The one gate every route passes. Inside a project a non-member gets 404 —
+ * the project's existence is not revealed — and a member without the
+ * permission gets 403.
+ */
+export function requireAccess(db: Db, access: Access) {
+  return async (req: Request, res: Response, next: NextFunction) => {
+    if (access.kind === 'public') return next();
+    if (!req.user) throw unauthenticated();
+    if (access.kind === 'user') return next();
+    if (access.kind === 'siteAdmin') {
+      if (!req.user.isSiteAdmin) throw forbidden('Only a site admin can do that.');
+      return next();
+    }
+    const projectId = Number(req.params.projectId);
+    if (!Number.isSafeInteger(projectId) || projectId <= 0) throw notFound('No such project.');
+    const role = await roleInProject(db, projectId, req.user.id);
+    if (!role) throw notFound('No such project.');
+    if (!roleCan(role, access.permission)) throw forbidden();
+    res.locals.access = { projectId, role } satisfies ProjectAccess;
+    next();
+  };
+}
+
+export function projectAccessOf(res: Response): ProjectAccess {
+  return res.locals.access as ProjectAccess;
+}

@@ -1,0 +1,49 @@
+import type { NextFunction, Request, Response } from 'express';
+import { messageFor } from '../../shared/errors';
+import { AppError } from '../lib/errors';
+
+interface HttpishError {
+  status?: number;
+  statusCode?: number;
+  type?: string;
+  code?: string;
+  expose?: boolean;
+}
+
+/**
+ * The one place that answers with `{ error: { code, message, details } }`.
+ * Known failures keep their status; body-parser and multer errors are
+ * translated; anything else is logged with its cause and answered as a
+ * plain 500 without a trace.
+ */
+export function errorHandler(err: unknown, req: Request, res: Response, next: NextFunction): void {
+  if (res.headersSent) return next(err);
+  if (err instanceof AppError) {
+    res.status(err.status).json({ error: { code: err.code, message: err.message, details: err.details } });
+    return;
+  }
+  const e = (err ?? {}) as HttpishError;
+  if (e.type === 'entity.parse.failed') {
+    res.status(400).json({ error: { code: 'malformed_json', message: messageFor('malformed_json') } });
+    return;
+  }
+  if (e.type === 'entity.too.large' || e.code === 'LIMIT_FILE_SIZE') {
+    res.status(413).json({ error: { code: 'payload_too_large', message: messageFor('payload_too_large') } });
+    return;
+  }
+  if (e.code === 'EBADCSRFTOKEN') {
+    res.status(403).json({ error: { code: 'csrf_invalid', message: messageFor('csrf_invalid') } });
+    return;
+  }
+  const status = e.status ?? e.statusCode;
+  if (status && status >= 400 && status < 500) {
+    res.status(status).json({ error: { code: 'bad_request', message: e.expose ? String((err as Error).message) : 'The request could not be processed.' } });
+    return;
+  }
+  console.error(`[${req.method} ${req.originalUrl}]`, err);
+  res.status(500).json({ error: { code: 'internal', message: messageFor('internal') } });
+}
+
+export function notFoundHandler(_req: Request, res: Response): void {
+  res.status(404).json({ error: { code: 'not_found', message: 'No such API route.' } });
+}

@@ -1,0 +1,41 @@
+import type { NextFunction, Request, Response } from 'express';
+import type { User } from '../../../shared/schemas/auth';
+import { AppError } from '../../lib/errors';
+import { csrfToken } from '../../middleware/csrf';
+import type { StarledgerPassport } from '../../middleware/auth';
+import type { UsersService } from '../users/users.service';
+
+async function sessionBody(req: Request, users: UsersService) {
+  const user = req.user as User;
+  return { user, memberships: await users.memberships(user.id), csrfToken: csrfToken(req) };
+}
+
+export function authHandlers(passport: StarledgerPassport, users: UsersService) {
+  return {
+    login(req: Request, res: Response, next: NextFunction) {
+      passport.authenticate('local', (err: unknown, user: User | false) => {
+        if (err) return next(err);
+        // One message whether the e-mail is unknown or the password wrong.
+        if (!user) return next(new AppError(401, 'invalid_credentials'));
+        req.logIn(user, (loginErr) => {
+          if (loginErr) return next(loginErr);
+          sessionBody(req, users).then((body) => res.json(body), next);
+        });
+      })(req, res, next);
+    },
+
+    logout(req: Request, res: Response, next: NextFunction) {
+      req.logout((err) => {
+        if (err) return next(err);
+        req.session.destroy(() => {
+          res.clearCookie('starledger.sid');
+          res.status(204).end();
+        });
+      });
+    },
+
+    async me(req: Request, res: Response) {
+      res.json(await sessionBody(req, users));
+    },
+  };
+}

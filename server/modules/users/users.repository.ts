@@ -1,0 +1,53 @@
+import type { Db } from '../../db/knex';
+import type { User } from '../../../shared/schemas/auth';
+import type { ProjectRole } from '../../../shared/schemas/roles';
+
+interface UserRow {
+  id: number;
+  email: string;
+  name: string;
+  password_hash: string;
+  is_site_admin: number | boolean;
+}
+
+export function toUser(row: UserRow): User {
+  return { id: row.id, email: row.email, name: row.name, isSiteAdmin: Boolean(row.is_site_admin) };
+}
+
+export async function findUserByEmail(db: Db, email: string): Promise<(User & { passwordHash: string }) | undefined> {
+  const row = await db<UserRow>('users').where({ email: email.toLowerCase() }).first();
+  return row ? { ...toUser(row), passwordHash: row.password_hash } : undefined;
+}
+
+export async function findUserById(db: Db, id: number): Promise<User | undefined> {
+  const row = await db<UserRow>('users').where({ id }).first();
+  return row ? toUser(row) : undefined;
+}
+
+export async function listUsers(db: Db): Promise<User[]> {
+  const rows = await db<UserRow>('users').orderBy('name');
+  return rows.map(toUser);
+}
+
+export async function insertUser(
+  db: Db,
+  user: { email: string; name: string; passwordHash: string; isSiteAdmin: boolean },
+  at: Date,
+): Promise<User> {
+  const [row] = await db<UserRow>('users')
+    .insert({
+      email: user.email.toLowerCase(),
+      name: user.name,
+      password_hash: user.passwordHash,
+      is_site_admin: user.isSiteAdmin,
+      created_at: at.toISOString(),
+      updated_at: at.toISOString(),
+    } as never)
+    .returning('*');
+  return toUser(row as UserRow);
+}
+
+export async function membershipsOf(db: Db, userId: number): Promise<{ projectId: number; role: ProjectRole }[]> {
+  const rows = await db('project_members').where({ user_id: userId }).select('project_id', 'role');
+  return rows.map((r: { project_id: number; role: ProjectRole }) => ({ projectId: r.project_id, role: r.role }));
+}

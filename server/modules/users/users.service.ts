@@ -1,0 +1,46 @@
+import type { Db } from '../../db/knex';
+import type { Clock } from '../../lib/clock';
+import type { CreateUserBody, User } from '../../../shared/schemas/auth';
+import { conflict } from '../../lib/errors';
+import { decoyHash, hashPassword, verifyPassword } from '../../lib/passwords';
+import { appendTrail } from '../trail/trail.repository';
+import { findUserByEmail, findUserById, insertUser, listUsers, membershipsOf } from './users.repository';
+
+export function createUsersService(db: Db, clock: Clock) {
+  return {
+    /** Returns the user when the password matches; undefined otherwise, taking the same time whether or not the e-mail exists. */
+    async authenticate(email: string, password: string): Promise<User | undefined> {
+      const found = await findUserByEmail(db, email);
+      if (!found) {
+        await verifyPassword(password, await decoyHash);
+        return undefined;
+      }
+      const ok = await verifyPassword(password, found.passwordHash);
+      if (!ok) return undefined;
+      const { passwordHash: _omit, ...user } = found;
+      return user;
+    },
+
+    findById: (id: number) => findUserById(db, id),
+    memberships: (userId: number) => membershipsOf(db, userId),
+    list: () => listUsers(db),
+
+    async create(input: CreateUserBody, actorUserId: number | null): Promise<User> {
+      if (await findUserByEmail(db, input.email)) {
+        throw conflict('An account with that e-mail already exists.', [{ path: 'email', message: 'Already in use.' }]);
+      }
+      const passwordHash = await hashPassword(input.password);
+      return db.transaction(async (trx) => {
+        const user = await insertUser(trx, { ...input, passwordHash }, clock.now());
+        await appendTrail(
+          trx,
+          { projectId: null, actorUserId, action: 'user.created', entityType: 'user', entityId: user.id, after: user },
+          clock.now(),
+        );
+        return user;
+      });
+    },
+  };
+}
+
+export type UsersService = ReturnType<typeof createUsersService>;

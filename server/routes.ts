@@ -1,0 +1,86 @@
+import { Router, type RequestHandler } from 'express';
+import type { z } from 'zod';
+import { loginBody, createUserBody } from '../shared/schemas/auth';
+import { addMemberBody, createProjectBody, updateMemberBody, updateProjectBody } from '../shared/schemas/projects';
+import { memberParams, projectParams, targetParams } from '../shared/schemas/params';
+import { createTargetBody, listTargetsQuery, updateTargetBody } from '../shared/schemas/targets';
+import type { Db } from './db/knex';
+import { anyone, inProject, requireAccess, signedIn, siteAdmin, type Access } from './middleware/access';
+import { validate } from './middleware/validate';
+import type { StarledgerPassport } from './middleware/auth';
+import type { Services } from './services';
+import { authHandlers } from './modules/auth/auth.routes';
+import { usersHandlers } from './modules/users/users.routes';
+import { projectsHandlers } from './modules/projects/projects.routes';
+import { membersHandlers } from './modules/members/members.routes';
+import { targetsHandlers } from './modules/targets/targets.routes';
+
+type Method = 'get' | 'post' | 'patch' | 'delete';
+
+export interface RouteDef {
+  method: Method;
+  path: string;
+  access: Access;
+  body?: z.ZodType;
+  query?: z.ZodType;
+  params?: z.ZodType;
+  /** Extra middleware that runs before validation (rate limits, file parsing). */
+  before?: RequestHandler[];
+  handler: RequestHandler;
+}
+
+/**
+ * Every API route, in sections; literal paths before `:id` paths. The access
+ * test walks this list, so a new route cannot be added without saying who
+ * may call it.
+ */
+export function apiRoutes(services: Services, passport: StarledgerPassport, loginLimiter: RequestHandler): RouteDef[] {
+  const auth = authHandlers(passport, services.users);
+  const users = usersHandlers(services.users);
+  const projects = projectsHandlers(services.projects);
+  const members = membersHandlers(services.members);
+  const targets = targetsHandlers(services.targets);
+  const P = '/projects/:projectId';
+
+  return [
+    // Sign-in
+    { method: 'post', path: '/auth/login', access: anyone, before: [loginLimiter], body: loginBody, handler: auth.login },
+    { method: 'post', path: '/auth/logout', access: signedIn, handler: auth.logout },
+    { method: 'get', path: '/auth/me', access: signedIn, handler: auth.me },
+
+    // Accounts (site admin)
+    { method: 'get', path: '/users', access: siteAdmin, handler: users.list },
+    { method: 'post', path: '/users', access: siteAdmin, body: createUserBody, handler: users.create },
+
+    // Projects
+    { method: 'get', path: '/projects', access: signedIn, handler: projects.list },
+    { method: 'post', path: '/projects', access: siteAdmin, body: createProjectBody, handler: projects.create },
+    { method: 'get', path: P, access: inProject('read'), params: projectParams, handler: projects.get },
+    { method: 'patch', path: P, access: inProject('manageSettings'), params: projectParams, body: updateProjectBody, handler: projects.update },
+
+    // Members
+    { method: 'get', path: `${P}/members`, access: inProject('read'), params: projectParams, handler: members.list },
+    { method: 'post', path: `${P}/members`, access: inProject('manageMembers'), params: projectParams, body: addMemberBody, handler: members.add },
+    { method: 'patch', path: `${P}/members/:userId`, access: inProject('manageMembers'), params: memberParams, body: updateMemberBody, handler: members.changeRole },
+    { method: 'delete', path: `${P}/members/:userId`, access: inProject('manageMembers'), params: memberParams, handler: members.remove },
+
+    // Targets
+    { method: 'get', path: `${P}/targets`, access: inProject('read'), params: projectParams, query: listTargetsQuery, handler: targets.list },
+    { method: 'post', path: `${P}/targets`, access: inProject('editTargets'), params: projectParams, body: createTargetBody, handler: targets.create },
+    { method: 'get', path: `${P}/targets/:targetId`, access: inProject('read'), params: targetParams, handler: targets.get },
+    { method: 'patch', path: `${P}/targets/:targetId`, access: inProject('editTargets'), params: targetParams, body: updateTargetBody, handler: targets.update },
+    { method: 'delete', path: `${P}/targets/:targetId`, access: inProject('editTargets'), params: targetParams, handler: targets.remove },
+  ];
+}
+
+export function mountRoutes(db: Db, routes: RouteDef[]): Router {
+  const router = Router();
+  for (const r of routes) {
+    const chain: RequestHandler[] = [...(r.before ?? []), requireAccess(db, r.access)];
+    if (r.params) chain.push(validate('params', r.params));
+    if (r.query) chain.push(validate('query', r.query));
+    if (r.body) chain.push(validate('body', r.body));
+    router[r.method](r.path, ...chain, r.handler);
+  }
+  return router;
+}

@@ -1,0 +1,18 @@
+import type { Db } from './db/knex';
+import type { Clock } from './lib/clock';
+import { createUsersService } from './modules/users/users.service';
+import { createProjectsService } from './modules/projects/projects.service';
+import { createMembersService } from './modules/members/members.service';
+import { createTargetsService } from './modules/targets/targets.service';
+
+/** Services are built once per app, with the app's database and clock. */
+export function createServices(db: Db, clock: Clock) {
+  return {
+    users: createUsersService(db, clock),
+    projects: createProjectsService(db, clock),
+    members: createMembersService(db, clock),
+    targets: createTargetsService(db, clock),
+  };
+}
+
+export type Services = ReturnType<typeof createServices>;

@@ -1,0 +1,38 @@
+/**
+ * Error codes are the contract between server and clients (browser and
+ * pipelines); messages are for people and may change. The one table of
+ * default wording lives here so both sides say the same thing.
+ */
+export const errorCodes = {
+  validation_failed: 'Some fields are not valid.',
+  malformed_json: 'The request body is not valid JSON.',
+  unauthenticated: 'Sign in first.',
+  invalid_credentials: 'That e-mail and password do not match an account.',
+  forbidden: 'Your role in this project does not allow that.',
+  not_found: 'Not found.',
+  conflict: 'That conflicts with existing data.',
+  csrf_invalid: 'The form was stale or came from another site. Reload the page and try again.',
+  rate_limited: 'Too many attempts. Wait a few minutes and try again.',
+  payload_too_large: 'The request is too large.',
+  internal: 'Something went wrong on the server. The error was logged.',
+} as const;
+
+export type ErrorCode = keyof typeof errorCodes;
+
+/** A problem with one field: `path` is the field name (dotted for nested fields). */
+export interface FieldIssue {
+  path: string;
+  message: string;
+}
+
+export interface ApiErrorBody {
+  error: {
+    code: ErrorCode | (string & {});
+    message: string;
+    details?: unknown;
+  };
+}
+
+export function messageFor(code: string): string {
+  return (errorCodes as Record<string, string>)[code] ?? errorCodes.internal;
+}

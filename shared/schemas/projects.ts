@@ -1,0 +1,70 @@
+import { z } from 'zod';
+import { projectRole } from './roles';
+
+const timeZone = z.string().trim().min(1).refine(
+  (tz) => {
+    try {
+      new Intl.DateTimeFormat('en', { timeZone: tz });
+      return true;
+    } catch {
+      return false;
+    }
+  },
+  { message: 'Use an IANA time zone such as Etc/UTC or America/Santiago.' },
+);
+
+export const siteSchema = z.object({
+  name: z.string().trim().min(1, 'Enter the site name.').max(120),
+  latitudeDeg: z.number().min(-90, 'Latitude must be ≥ −90°.').max(90, 'Latitude must be ≤ +90°.'),
+  longitudeDeg: z.number().min(-180, 'Longitude must be ≥ −180°.').max(180, 'Longitude must be ≤ +180°.'),
+  elevationM: z.number().min(-500, 'Elevation must be ≥ −500 m.').max(9000, 'Elevation must be ≤ 9000 m.'),
+  timeZone,
+});
+export type Site = z.infer<typeof siteSchema>;
+
+export const projectCode = z
+  .string()
+  .trim()
+  .regex(/^[A-Z0-9][A-Z0-9-]{1,15}$/, 'Use 2–16 capital letters, digits or hyphens.');
+
+export const createProjectBody = z.object({
+  name: z.string().trim().min(1, 'Enter a name.').max(120),
+  code: projectCode,
+  description: z.string().trim().max(4000).default(''),
+  site: siteSchema,
+  leadEmail: z.string().trim().toLowerCase().email('Enter the lead astronomer’s e-mail.').optional(),
+});
+export type CreateProjectBody = z.infer<typeof createProjectBody>;
+
+export const updateProjectBody = createProjectBody.omit({ leadEmail: true, code: true }).partial();
+export type UpdateProjectBody = z.infer<typeof updateProjectBody>;
+
+export const projectSchema = z.object({
+  id: z.number(),
+  code: z.string(),
+  name: z.string(),
+  description: z.string(),
+  site: siteSchema,
+  myRole: projectRole.nullable(),
+  targetCount: z.number(),
+  createdAt: z.string(),
+});
+export type Project = z.infer<typeof projectSchema>;
+
+export const addMemberBody = z.object({
+  email: z.string().trim().toLowerCase().email('Enter an e-mail address.'),
+  role: projectRole,
+});
+export type AddMemberBody = z.infer<typeof addMemberBody>;
+
+export const updateMemberBody = z.object({ role: projectRole });
+export type UpdateMemberBody = z.infer<typeof updateMemberBody>;
+
+export const memberSchema = z.object({
+  userId: z.number(),
+  email: z.string(),
+  name: z.string(),
+  role: projectRole,
+  addedAt: z.string(),
+});
+export type Member = z.infer<typeof memberSchema>;
