@@ -1,0 +1,122 @@
+import type { ReactNode } from 'react';
+import { Link, NavLink, useMatch, useNavigation } from 'react-router-dom';
+import { paths } from '@/config/paths';
+import { cn } from '@/lib/cn';
+import { Wordmark } from './wordmark';
+import { ThemeToggle } from './theme-toggle';
+
+export interface ShellProject {
+  id: number;
+  code: string;
+  name: string;
+}
+
+const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
+  cn(
+    'border-b-2 px-1 py-1 text-sm',
+    isActive ? 'border-brass font-semibold text-ink' : 'border-transparent text-ink-soft hover:border-rule hover:text-ink',
+  );
+
+/**
+ * The frame around every signed-in page: the wordmark, the main places, the
+ * current project's own pages when one is open, the night theme switch and
+ * the person's name with Sign out.
+ */
+export function AppShell({
+  userName,
+  isSiteAdmin,
+  project,
+  onSignOut,
+  signingOut,
+  signOutError,
+  children,
+}: {
+  userName: string;
+  isSiteAdmin: boolean;
+  project?: ShellProject | null;
+  onSignOut: () => void;
+  signingOut: boolean;
+  signOutError?: string | null;
+  children: ReactNode;
+}) {
+  const navigation = useNavigation();
+  const busy = navigation.state !== 'idle';
+  // Targets stays marked while a target's own pages are open; only Members is a separate place.
+  const onMembersPage = useMatch(paths.project.members.path) !== null;
+
+  return (
+    <div className="flex min-h-screen flex-col bg-paper text-ink">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-10 focus:bg-paper focus:px-3 focus:py-2"
+      >
+        Skip to content
+      </a>
+      <header className="border-b border-rule bg-paper-deep" data-print="hide">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-8 gap-y-2 px-6 py-3">
+          <Link to={paths.home.getHref()} aria-label="Starledger, home">
+            <Wordmark />
+          </Link>
+          <nav aria-label="Main" className="flex flex-wrap items-center gap-5">
+            <NavLink to={paths.home.getHref()} end className={navLinkClasses}>
+              Home
+            </NavLink>
+            <NavLink to={paths.calculator.getHref()} className={navLinkClasses}>
+              Calculator
+            </NavLink>
+            {isSiteAdmin ? (
+              <NavLink to={paths.admin.users.getHref()} className={navLinkClasses}>
+                Users
+              </NavLink>
+            ) : null}
+          </nav>
+          <div className="ml-auto flex flex-wrap items-center gap-3">
+            <ThemeToggle />
+            <span className="text-sm text-ink" data-testid="signed-in-user">
+              {userName}
+            </span>
+            <button
+              type="button"
+              onClick={onSignOut}
+              disabled={signingOut}
+              className="rounded-sm px-2 py-1 text-sm text-brass underline-offset-4 hover:underline disabled:opacity-60"
+            >
+              {signingOut ? 'Signing out…' : 'Sign out'}
+            </button>
+          </div>
+        </div>
+        {project ? (
+          <div className="border-t border-rule">
+            <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-1 px-6 py-2">
+              <p className="text-sm">
+                <span className="text-xs font-semibold tracking-[0.18em] text-brass-deep uppercase">{project.code}</span>{' '}
+                <span className="font-serif font-semibold">{project.name}</span>
+              </p>
+              <nav aria-label="Project" className="flex items-center gap-5">
+                <Link
+                  to={paths.project.root.getHref(project.id)}
+                  className={navLinkClasses({ isActive: !onMembersPage })}
+                  aria-current={onMembersPage ? undefined : 'page'}
+                >
+                  Targets
+                </Link>
+                <NavLink to={paths.project.members.getHref(project.id)} className={navLinkClasses}>
+                  Members
+                </NavLink>
+              </nav>
+            </div>
+          </div>
+        ) : null}
+        <div className={cn('h-0.5', busy ? 'animate-pulse bg-brass' : 'bg-transparent')} aria-hidden="true" />
+      </header>
+      {signOutError ? (
+        <div role="alert" className="mx-auto w-full max-w-6xl px-6 pt-4 text-sm">
+          <span className="font-semibold text-alert">Error:</span> Sign-out failed. {signOutError}
+        </div>
+      ) : null}
+      <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-6 py-8">
+        {children}
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,57 @@
+/**
+ * Every page's URL in one table. Screens build links with getHref so a route
+ * can move without hunting for string literals.
+ */
+type Id = number | string;
+
+/** Only same-site paths are honoured after sign-in, so a crafted link cannot send someone elsewhere. */
+export function safeRedirect(target: string | null | undefined): string {
+  if (!target || !target.startsWith('/') || target.startsWith('//') || target.startsWith('/\\')) return '/';
+  return target;
+}
+
+export const paths = {
+  home: {
+    path: '/',
+    getHref: () => '/',
+  },
+  auth: {
+    signIn: {
+      path: '/sign-in',
+      getHref: (redirectTo?: string | null) =>
+        redirectTo && redirectTo !== '/' ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : '/sign-in',
+    },
+  },
+  project: {
+    root: {
+      path: '/projects/:projectId',
+      getHref: (projectId: Id) => `/projects/${projectId}`,
+    },
+    members: {
+      path: '/projects/:projectId/members',
+      getHref: (projectId: Id) => `/projects/${projectId}/members`,
+    },
+    newTarget: {
+      path: '/projects/:projectId/targets/new',
+      getHref: (projectId: Id) => `/projects/${projectId}/targets/new`,
+    },
+    target: {
+      path: '/projects/:projectId/targets/:targetId',
+      getHref: (projectId: Id, targetId: Id) => `/projects/${projectId}/targets/${targetId}`,
+    },
+    editTarget: {
+      path: '/projects/:projectId/targets/:targetId/edit',
+      getHref: (projectId: Id, targetId: Id) => `/projects/${projectId}/targets/${targetId}/edit`,
+    },
+  },
+  admin: {
+    users: {
+      path: '/admin/users',
+      getHref: () => '/admin/users',
+    },
+  },
+  calculator: {
+    path: '/calculator',
+    getHref: () => '/calculator',
+  },
+} as const;

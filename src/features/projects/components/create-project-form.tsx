@@ -1,0 +1,130 @@
+import { useState } from 'react';
+import { Link } from 'react-router-dom';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { createProjectBody, type CreateProjectBody, type Project } from '@shared/schemas/projects';
+import { paths } from '@/config/paths';
+import { Button, linkClasses } from '@/components/ui/button';
+import { FieldGroup, TextAreaField, TextField } from '@/components/ui/field';
+import { Alert } from '@/components/ui/alert';
+import { formParseOptions, serverErrorMessage, toOptionalNumber, toOptionalText } from '@/lib/form-errors';
+import { useCreateProject } from '../api/create-project';
+
+type FormInput = z.input<typeof createProjectBody>;
+
+const FIELDS = [
+  'name',
+  'code',
+  'description',
+  'site',
+  'site.name',
+  'site.latitudeDeg',
+  'site.longitudeDeg',
+  'site.elevationM',
+  'site.timeZone',
+  'leadEmail',
+] as const;
+
+/** A site administrator opens a new observing programme and, optionally, names its lead astronomer. */
+export function CreateProjectForm() {
+  const createProject = useCreateProject();
+  const [created, setCreated] = useState<Project | null>(null);
+  const [formError, setFormError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    setError,
+    reset,
+    formState: { errors, isSubmitting },
+  } = useForm<FormInput, unknown, CreateProjectBody>({
+    resolver: zodResolver(createProjectBody, formParseOptions),
+    defaultValues: { name: '', code: '', description: '', site: { name: '', timeZone: '' } },
+  });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError(null);
+    setCreated(null);
+    try {
+      const project = await createProject.mutateAsync(values);
+      setCreated(project);
+      reset();
+    } catch (error) {
+      setFormError(serverErrorMessage(error, setError, FIELDS));
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="New project" className="space-y-4">
+      {created ? (
+        <Alert kind="done" title={`Project ${created.code} created.`}>
+          <Link to={paths.project.root.getHref(created.id)} className={linkClasses}>
+            Open {created.name}
+          </Link>
+        </Alert>
+      ) : null}
+      {formError ? <Alert title="The project was not created.">{formError}</Alert> : null}
+      <div className="grid gap-4 sm:grid-cols-[2fr_1fr]">
+        <TextField label="Name" autoComplete="off" error={errors.name?.message} {...register('name')} />
+        <TextField
+          label="Code"
+          autoComplete="off"
+          hint="2–16 capital letters, digits or hyphens, e.g. NGT-26."
+          error={errors.code?.message}
+          {...register('code', { setValueAs: (v: string) => v.toUpperCase() })}
+        />
+      </div>
+      <TextAreaField label="Description" rows={3} error={errors.description?.message} {...register('description')} />
+      <FieldGroup legend="Site">
+        <div className="grid gap-4 sm:grid-cols-2">
+          <TextField label="Site name" autoComplete="off" error={errors.site?.name?.message} {...register('site.name')} />
+          <TextField
+            label="Time zone"
+            autoComplete="off"
+            hint="IANA name, such as America/Santiago or Etc/UTC."
+            error={errors.site?.timeZone?.message}
+            {...register('site.timeZone')}
+          />
+          <TextField
+            label="Latitude (°)"
+            type="number"
+            step="any"
+            inputMode="decimal"
+            hint="Decimal degrees, north positive."
+            error={errors.site?.latitudeDeg?.message}
+            {...register('site.latitudeDeg', { setValueAs: toOptionalNumber })}
+          />
+          <TextField
+            label="Longitude (°)"
+            type="number"
+            step="any"
+            inputMode="decimal"
+            hint="Decimal degrees, east positive."
+            error={errors.site?.longitudeDeg?.message}
+            {...register('site.longitudeDeg', { setValueAs: toOptionalNumber })}
+          />
+          <TextField
+            label="Elevation (m)"
+            type="number"
+            step="any"
+            inputMode="decimal"
+            hint="Metres above sea level."
+            error={errors.site?.elevationM?.message}
+            {...register('site.elevationM', { setValueAs: toOptionalNumber })}
+          />
+        </div>
+      </FieldGroup>
+      <TextField
+        label="Lead astronomer’s e-mail"
+        type="email"
+        autoComplete="off"
+        hint="Optional. The person with this account becomes the project’s lead astronomer."
+        error={errors.leadEmail?.message}
+        {...register('leadEmail', { setValueAs: toOptionalText })}
+      />
+      <Button type="submit" disabled={isSubmitting}>
+        {isSubmitting ? 'Creating…' : 'Create project'}
+      </Button>
+    </form>
+  );
+}
