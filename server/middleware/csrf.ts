@@ -19,6 +19,6 @@ const EXEMPT = new Set(['/api/auth/login']);
 export function csrfProtection(req: Request, res: Response, next: NextFunction) {
   // Without a signed-in user there is nothing to forge; the route's own
   // access check answers 401.
-  if (!req.user || EXEMPT.has(req.path) || req.headers.authorization?.startsWith('Bearer ')) return next();
+  if (!req.user || EXEMPT.has(req.baseUrl + req.path) || req.headers.authorization?.startsWith('Bearer ')) return next();
   return csrfSynchronisedProtection(req, res, next);
 }

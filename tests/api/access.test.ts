@@ -1,0 +1,113 @@
+import type { RequestHandler } from 'express';
+import request from 'supertest';
+import { afterAll, describe, expect, it } from 'vitest';
+import { apiRoutes } from '../../server/routes';
+import { createServices } from '../../server/services';
+import { createPassport } from '../../server/middleware/auth';
+import { createDb } from '../../server/db/knex';
+import { systemClock } from '../../server/lib/clock';
+import { emails, makeWorld, signIn, type Who, type World } from '../support/world';
+
+/**
+ * Walks every API route with every kind of caller and checks the status.
+ * The table of who may call what is written here independently of the
+ * route declarations (PRODUCT.md, "People and roles"); a route missing from
+ * it fails the first test, so new routes must join.
+ */
+type Caller = Who | 'anonymous';
+type Rule = 'public' | 'signed-in' | 'site-admin' | readonly ('lead' | 'observer' | 'reader' | 'pi')[];
+
+const everyone = ['lead', 'observer', 'reader', 'pi'] as const;
+const editors = ['lead', 'observer'] as const;
+const leads = ['lead'] as const;
+
+interface Case {
+  rule: Rule;
+  /** A request body a permitted caller would send. */
+  body?: (w: World) => object;
+  query?: string;
+}
+
+const cases: Record<string, Case> = {
+  'POST /auth/login': { rule: 'public' },
+  'POST /auth/logout': { rule: 'signed-in' },
+  'GET /auth/me': { rule: 'signed-in' },
+  'GET /users': { rule: 'site-admin' },
+  'POST /users': { rule: 'site-admin', body: () => ({ email: 'new@test.invalid', name: 'New Person', password: 'long-enough-password' }) },
+  'GET /projects': { rule: 'signed-in' },
+  'POST /projects': {
+    rule: 'site-admin',
+    body: () => ({ name: 'New', code: 'NEW', site: { name: 'S', latitudeDeg: 1, longitudeDeg: 2, elevationM: 3, timeZone: 'Etc/UTC' } }),
+  },
+  'GET /projects/:projectId': { rule: everyone },
+  'PATCH /projects/:projectId': { rule: leads, body: () => ({ description: 'Updated.' }) },
+  'GET /projects/:projectId/members': { rule: everyone },
+  'POST /projects/:projectId/members': { rule: leads, body: () => ({ email: emails.admin, role: 'reader' }) },
+  'PATCH /projects/:projectId/members/:userId': { rule: leads, body: () => ({ role: 'observer' }) },
+  'DELETE /projects/:projectId/members/:userId': { rule: leads },
+  'GET /projects/:projectId/targets': { rule: everyone, query: '?page=1&pageSize=10' },
+  'POST /projects/:projectId/targets': { rule: editors, body: () => ({ designation: 'New 1', ra: '01 02 03', dec: '-04 05 06' }) },
+  'GET /projects/:projectId/targets/:targetId': { rule: everyone },
+  'PATCH /projects/:projectId/targets/:targetId': { rule: editors, body: () => ({ notes: 'Seen again.' }) },
+  'DELETE /projects/:projectId/targets/:targetId': { rule: editors },
+};
+
+function declaredRoutes() {
+  const db = createDb('file::memory:');
+  const services = createServices(db, systemClock);
+  const noop: RequestHandler = (_q, _s, n) => n();
+  const routes = apiRoutes(services, createPassport(services.users), noop);
+  void db.destroy();
+  return routes.map((r) => `${r.method.toUpperCase()} ${r.path}`);
+}
+
+function expected(rule: Rule, caller: Caller): 'ok' | 401 | 403 | 404 {
+  if (rule === 'public') return 'ok';
+  if (caller === 'anonymous') return 401;
+  if (rule === 'signed-in') return 'ok';
+  if (rule === 'site-admin') return caller === 'admin' ? 'ok' : 403;
+  // Inside a project: not a member → 404 (existence not revealed), member without the right → 403.
+  if (caller === 'admin' || caller === 'outsider') return 404;
+  return (rule as readonly string[]).includes(caller) ? 'ok' : 403;
+}
+
+const callers: Caller[] = ['anonymous', 'outsider', 'admin', 'reader', 'pi', 'observer', 'lead'];
+const worlds: World[] = [];
+afterAll(async () => Promise.all(worlds.map((w) => w.db.destroy())));
+
+describe('access to every API route', () => {
+  it('has an access rule in this test for every declared route, and no stale ones', () => {
+    expect(declaredRoutes().sort()).toEqual(Object.keys(cases).sort());
+  });
+
+  for (const [key, c] of Object.entries(cases)) {
+    for (const caller of callers) {
+      const want = expected(c.rule, caller);
+      it(`${key} as ${caller} → ${want === 'ok' ? '2xx' : want}`, async () => {
+        const world = await makeWorld();
+        worlds.push(world);
+        const [method, pattern] = key.split(' ');
+        const path =
+          '/api' +
+          pattern
+            .replace(':projectId', String(world.projectId))
+            .replace(':targetId', String(world.targetId))
+            .replace(':userId', String(world.userIds.observer)) +
+          (c.query ?? '');
+        const session = caller === 'anonymous' ? undefined : await signIn(world.app, caller);
+        const agent = session?.agent ?? request(world.app);
+        let req = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](path);
+        if (session) req = req.set('X-CSRF-Token', session.csrf);
+        const body = key === 'POST /auth/login' ? { email: emails.reader, password: 'correct-horse-battery' } : c.body?.(world);
+        const res = body ? await req.send(body) : await req;
+        if (want === 'ok') {
+          expect(res.status, JSON.stringify(res.body)).toBeGreaterThanOrEqual(200);
+          expect(res.status, JSON.stringify(res.body)).toBeLessThan(300);
+        } else {
+          expect(res.status, JSON.stringify(res.body)).toBe(want);
+          expect(res.body.error.code).toBeTypeOf('string');
+        }
+      });
+    }
+  }
+});

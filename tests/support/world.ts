@@ -1,0 +1,79 @@
+import request from 'supertest';
+import type { Express } from 'express';
+import { createApp } from '../../server/app';
+import { createDb, migrateLatest, type Db } from '../../server/db/knex';
+import { fixedClock } from '../../server/lib/clock';
+import { hashPassword } from '../../server/lib/passwords';
+
+export const PASSWORD = 'correct-horse-battery';
+// One hash for every test account: hashing is deliberately slow.
+const passwordHash = hashPassword(PASSWORD);
+
+export type Who = 'admin' | 'lead' | 'observer' | 'reader' | 'pi' | 'outsider';
+export const emails: Record<Who, string> = {
+  admin: 'admin@test.invalid',
+  lead: 'lead@test.invalid',
+  observer: 'observer@test.invalid',
+  reader: 'reader@test.invalid',
+  pi: 'pi@test.invalid',
+  outsider: 'outsider@test.invalid',
+};
+
+export interface World {
+  db: Db;
+  app: Express;
+  projectId: number;
+  otherProjectId: number;
+  targetId: number;
+  userIds: Record<Who, number>;
+}
+
+/**
+ * A fresh in-memory database with one project (lead, observer, reader, pi as
+ * members), a second project whose only member is the outsider, a site admin
+ * who belongs to neither, and one target.
+ */
+export async function makeWorld(options: { loginAttemptsPerWindow?: number } = {}): Promise<World> {
+  const db = createDb('file::memory:');
+  await migrateLatest(db);
+  const at = '2026-11-30T22:00:00.000Z';
+  const hash = await passwordHash;
+  const userIds = {} as Record<Who, number>;
+  for (const who of Object.keys(emails) as Who[]) {
+    const [row] = await db('users')
+      .insert({ email: emails[who], name: `Test ${who}`, password_hash: hash, is_site_admin: who === 'admin', created_at: at, updated_at: at })
+      .returning('id');
+    userIds[who] = row.id;
+  }
+  const site = { site_name: 'Test Site', site_latitude_deg: 10, site_longitude_deg: 20, site_elevation_m: 100, site_time_zone: 'Etc/UTC' };
+  const [p1] = await db('projects').insert({ code: 'TEST', name: 'Test programme', description: '', ...site, created_at: at, updated_at: at }).returning('id');
+  const [p2] = await db('projects').insert({ code: 'OTHER', name: 'Other programme', description: '', ...site, created_at: at, updated_at: at }).returning('id');
+  for (const role of ['lead', 'observer', 'reader', 'pi'] as const) {
+    await db('project_members').insert({ project_id: p1.id, user_id: userIds[role], role, added_at: at });
+  }
+  await db('project_members').insert({ project_id: p2.id, user_id: userIds.outsider, role: 'lead', added_at: at });
+  const [t] = await db('targets')
+    .insert({ project_id: p1.id, designation: 'T 1', designation_key: 't1', ra_deg: 10, dec_deg: -5, notes: '', tags: '[]', created_at: at, updated_at: at })
+    .returning('id');
+  const app = createApp({
+    db,
+    clock: fixedClock('2026-12-01T03:00:00.000Z'),
+    sessionSecret: 'test-secret',
+    sessionCleanupIntervalMs: 0,
+    loginAttemptsPerWindow: options.loginAttemptsPerWindow,
+  });
+  return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds };
+}
+
+export interface Session {
+  agent: ReturnType<typeof request.agent>;
+  csrf: string;
+}
+
+/** Signs in and returns a cookie-carrying agent plus the CSRF token to send with writes. */
+export async function signIn(app: Express, who: Who): Promise<Session> {
+  const agent = request.agent(app);
+  const res = await agent.post('/api/auth/login').send({ email: emails[who], password: PASSWORD });
+  if (res.status !== 200) throw new Error(`sign-in as ${who} failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return { agent, csrf: res.body.csrfToken };
+}
