@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import * as init from './20261201000000_init';
+import * as measurements from './20261201010000_measurements';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -9,6 +10,7 @@ import * as init from './20261201000000_init';
  */
 const migrations: Record<string, Knex.Migration> = {
   '20261201000000_init': init,
+  '20261201010000_measurements': measurements,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

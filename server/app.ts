@@ -8,6 +8,7 @@ import { systemClock, type Clock } from './lib/clock';
 import type { Mailer } from './mail/mailer';
 import { createPassport, passportMiddleware } from './middleware/auth';
 import { csrfProtection } from './middleware/csrf';
+import { bearerAuth } from './middleware/bearer';
 import { errorHandler, notFoundHandler } from './middleware/error-handler';
 import { sessionMiddleware } from './middleware/session';
 import { apiRoutes, mountRoutes } from './routes';
@@ -66,6 +67,7 @@ export function createApp(options: AppOptions): Express {
     }),
   );
   api.use(...passportMiddleware(passport));
+  api.use(bearerAuth(services.tokens));
   api.use(csrfProtection);
   api.use(mountRoutes(db, apiRoutes(services, passport, loginLimiter)));
   api.use(notFoundHandler);

@@ -14,6 +14,8 @@ import { usersHandlers } from './modules/users/users.routes';
 import { projectsHandlers } from './modules/projects/projects.routes';
 import { membersHandlers } from './modules/members/members.routes';
 import { targetsHandlers } from './modules/targets/targets.routes';
+import { tokenParams, tokensHandlers } from './modules/tokens/tokens.routes';
+import { createTokenBody } from '../shared/schemas/tokens';
 
 type Method = 'get' | 'post' | 'patch' | 'delete';
 
@@ -40,6 +42,7 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
   const projects = projectsHandlers(services.projects);
   const members = membersHandlers(services.members);
   const targets = targetsHandlers(services.targets);
+  const tokens = tokensHandlers(services.tokens);
   const P = '/projects/:projectId';
 
   return [
@@ -47,6 +50,11 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'post', path: '/auth/login', access: anyone, before: [loginLimiter], body: loginBody, handler: auth.login },
     { method: 'post', path: '/auth/logout', access: signedIn, handler: auth.logout },
     { method: 'get', path: '/auth/me', access: signedIn, handler: auth.me },
+
+    // Personal API tokens
+    { method: 'get', path: '/tokens', access: signedIn, handler: tokens.list },
+    { method: 'post', path: '/tokens', access: signedIn, body: createTokenBody, handler: tokens.create },
+    { method: 'delete', path: '/tokens/:tokenId', access: signedIn, params: tokenParams, handler: tokens.revoke },
 
     // Accounts (site admin)
     { method: 'get', path: '/users', access: siteAdmin, handler: users.list },

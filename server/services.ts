@@ -4,6 +4,7 @@ import { createUsersService } from './modules/users/users.service';
 import { createProjectsService } from './modules/projects/projects.service';
 import { createMembersService } from './modules/members/members.service';
 import { createTargetsService } from './modules/targets/targets.service';
+import { createTokensService } from './modules/tokens/tokens.service';
 
 /** Services are built once per app, with the app's database and clock. */
 export function createServices(db: Db, clock: Clock) {
@@ -12,6 +13,7 @@ export function createServices(db: Db, clock: Clock) {
     projects: createProjectsService(db, clock),
     members: createMembersService(db, clock),
     targets: createTargetsService(db, clock),
+    tokens: createTokensService(db, clock),
   };
 }
 

@@ -32,6 +32,9 @@ const cases: Record<string, Case> = {
   'POST /auth/login': { rule: 'public' },
   'POST /auth/logout': { rule: 'signed-in' },
   'GET /auth/me': { rule: 'signed-in' },
+  'GET /tokens': { rule: 'signed-in' },
+  'POST /tokens': { rule: 'signed-in', body: () => ({ name: 'night pipeline' }) },
+  'DELETE /tokens/:tokenId': { rule: 'signed-in' },
   'GET /users': { rule: 'site-admin' },
   'POST /users': { rule: 'site-admin', body: () => ({ email: 'new@test.invalid', name: 'New Person', password: 'long-enough-password' }) },
   'GET /projects': { rule: 'signed-in' },
@@ -87,14 +90,20 @@ describe('access to every API route', () => {
         const world = await makeWorld();
         worlds.push(world);
         const [method, pattern] = key.split(' ');
+        const session = caller === 'anonymous' ? undefined : await signIn(world.app, caller);
+        let tokenId = '1';
+        if (session && pattern.includes(':tokenId')) {
+          const made = await session.agent.post('/api/tokens').set('X-CSRF-Token', session.csrf).send({ name: 'to revoke' }).expect(201);
+          tokenId = String(made.body.apiToken.id);
+        }
         const path =
           '/api' +
           pattern
             .replace(':projectId', String(world.projectId))
             .replace(':targetId', String(world.targetId))
-            .replace(':userId', String(world.userIds.observer)) +
+            .replace(':userId', String(world.userIds.observer))
+            .replace(':tokenId', tokenId) +
           (c.query ?? '');
-        const session = caller === 'anonymous' ? undefined : await signIn(world.app, caller);
         const agent = session?.agent ?? request(world.app);
         let req = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](path);
         if (session) req = req.set('X-CSRF-Token', session.csrf);

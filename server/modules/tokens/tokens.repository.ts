@@ -1,0 +1,48 @@
+import type { Db } from '../../db/knex';
+import type { ApiToken } from '../../../shared/schemas/tokens';
+import { toIso } from '../../lib/rows';
+
+interface TokenRow {
+  id: number;
+  user_id: number;
+  name: string;
+  prefix: string;
+  created_at: unknown;
+  last_used_at: unknown;
+  revoked_at: unknown;
+}
+
+function toToken(row: TokenRow): ApiToken {
+  return {
+    id: row.id,
+    name: row.name,
+    prefix: row.prefix,
+    createdAt: toIso(row.created_at),
+    lastUsedAt: row.last_used_at == null ? null : toIso(row.last_used_at),
+    revokedAt: row.revoked_at == null ? null : toIso(row.revoked_at),
+  };
+}
+
+export async function insertToken(db: Db, t: { userId: number; name: string; hash: string; prefix: string }, at: Date): Promise<ApiToken> {
+  const [row] = await db('api_tokens')
+    .insert({ user_id: t.userId, name: t.name, token_hash: t.hash, prefix: t.prefix, created_at: at.toISOString() })
+    .returning('*');
+  return toToken(row);
+}
+
+export async function listTokens(db: Db, userId: number): Promise<ApiToken[]> {
+  return (await db<TokenRow>('api_tokens').where({ user_id: userId }).orderBy('id', 'desc')).map(toToken);
+}
+
+export async function findTokenOwner(db: Db, hash: string): Promise<{ id: number; userId: number } | undefined> {
+  const row = await db('api_tokens').where({ token_hash: hash }).whereNull('revoked_at').first('id', 'user_id');
+  return row ? { id: row.id, userId: row.user_id } : undefined;
+}
+
+export async function touchToken(db: Db, id: number, at: Date): Promise<void> {
+  await db('api_tokens').where({ id }).update({ last_used_at: at.toISOString() });
+}
+
+export async function revokeToken(db: Db, userId: number, id: number, at: Date): Promise<number> {
+  return db('api_tokens').where({ id, user_id: userId }).whereNull('revoked_at').update({ revoked_at: at.toISOString() });
+}
