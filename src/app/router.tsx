@@ -1,0 +1,46 @@
+import { createBrowserRouter } from 'react-router-dom';
+import { paths } from '@/config/paths';
+import { RouteError } from './routes/route-error';
+import { RouteLoading } from './routes/route-loading';
+
+/*
+ * Every page is its own chunk, loaded when first visited, so the sign-in page
+ * does not carry the tables, forms or the calculator's charts.
+ */
+export const router = createBrowserRouter([
+  {
+    path: paths.auth.signIn.path,
+    HydrateFallback: RouteLoading,
+    ErrorBoundary: RouteError,
+    lazy: async () => ({ Component: (await import('./routes/sign-in')).SignInRoute }),
+  },
+  {
+    path: paths.home.path,
+    HydrateFallback: RouteLoading,
+    ErrorBoundary: RouteError,
+    lazy: async () => ({ Component: (await import('./routes/app-root')).AppRoot }),
+    children: [
+      {
+        // A pathless layer so that a page's error shows inside the shell, with the navigation still there.
+        ErrorBoundary: RouteError,
+        children: [
+          { index: true, lazy: async () => ({ Component: (await import('./routes/home')).HomeRoute }) },
+          { path: paths.project.root.path, lazy: async () => ({ Component: (await import('./routes/project')).ProjectRoute }) },
+          {
+            path: paths.project.newTarget.path,
+            lazy: async () => ({ Component: (await import('./routes/target-new')).NewTargetRoute }),
+          },
+          { path: paths.project.target.path, lazy: async () => ({ Component: (await import('./routes/target')).TargetRoute }) },
+          {
+            path: paths.project.editTarget.path,
+            lazy: async () => ({ Component: (await import('./routes/target-edit')).EditTargetRoute }),
+          },
+          { path: paths.project.members.path, lazy: async () => ({ Component: (await import('./routes/members')).MembersRoute }) },
+          { path: paths.admin.users.path, lazy: async () => ({ Component: (await import('./routes/admin-users')).AdminUsersRoute }) },
+          { path: paths.calculator.path, lazy: async () => ({ Component: (await import('./routes/calculator')).CalculatorRoute }) },
+          { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }) },
+        ],
+      },
+    ],
+  },
+]);

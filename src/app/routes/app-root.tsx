@@ -1,0 +1,68 @@
+import { useState } from 'react';
+import { Navigate, Outlet, useLocation, useNavigate, useParams } from 'react-router-dom';
+import { useQuery } from '@tanstack/react-query';
+import { paths } from '@/config/paths';
+import { useLogout, useMe } from '@/lib/auth';
+import { AppShell } from '@/components/layouts/app-shell';
+import { QueryError } from '@/components/errors/query-error';
+import { RouteLoading } from './route-loading';
+import { projectQueryOptions } from '@/features/projects/api/get-project';
+
+/** Shows the project's code and name in the shell; a failure here is the page's to report, not the shell's. */
+function useShellProject(projectIdParam: string | undefined) {
+  const projectId = projectIdParam && /^[1-9]\d*$/.test(projectIdParam) ? Number(projectIdParam) : null;
+  const query = useQuery({
+    ...projectQueryOptions(projectId ?? 0),
+    enabled: projectId !== null,
+    throwOnError: false,
+  });
+  return projectId !== null && query.data ? { id: query.data.id, code: query.data.code, name: query.data.name } : null;
+}
+
+/**
+ * The signed-in part of Starledger. Without a session it sends the person to
+ * sign-in, remembering where they were going.
+ */
+export function AppRoot() {
+  const me = useMe();
+  const location = useLocation();
+  const navigate = useNavigate();
+  const logout = useLogout();
+  const project = useShellProject(useParams().projectId);
+  // A deliberate sign-out goes to a clean sign-in page, not back to where the person was.
+  const [signingOut, setSigningOut] = useState(false);
+
+  if (me.isPending) return <RouteLoading />;
+  if (me.isError) {
+    return (
+      <div className="mx-auto max-w-xl px-6 py-16">
+        <QueryError what="Your session" error={me.error} onRetry={() => void me.refetch()} />
+      </div>
+    );
+  }
+  if (!me.data) {
+    const here = location.pathname + location.search;
+    return <Navigate to={paths.auth.signIn.getHref(signingOut ? null : here)} replace />;
+  }
+
+  return (
+    <AppShell
+      userName={me.data.user.name}
+      isSiteAdmin={me.data.user.isSiteAdmin}
+      project={project}
+      signingOut={logout.isPending}
+      signOutError={logout.isError ? logout.error.message : null}
+      onSignOut={() => {
+        setSigningOut(true);
+        logout.mutate(undefined, {
+          onSuccess: () => navigate(paths.auth.signIn.getHref(), { replace: true }),
+          onError: () => {
+            setSigningOut(false);
+          },
+        });
+      }}
+    >
+      <Outlet />
+    </AppShell>
+  );
+}

@@ -1,0 +1,5 @@
+import { NotFoundMessage } from '@/components/errors/error-messages';
+
+export function NotFoundRoute() {
+  return <NotFoundMessage />;
+}

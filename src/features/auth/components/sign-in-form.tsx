@@ -1,0 +1,58 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { loginBody, type LoginBody } from '@shared/schemas/auth';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/field';
+import { Alert } from '@/components/ui/alert';
+import { useLogin } from '@/lib/auth';
+import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+
+const FIELDS = ['email', 'password'] as const;
+
+/** E-mail and password; the server's own words when they are refused (wrong password, too many attempts). */
+export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
+  const login = useLogin();
+  const [formError, setFormError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    setError,
+    setFocus,
+    resetField,
+    formState: { errors, isSubmitting },
+  } = useForm<z.input<typeof loginBody>, unknown, LoginBody>({
+    resolver: zodResolver(loginBody, formParseOptions),
+    defaultValues: { email: '', password: '' },
+  });
+
+  const onSubmit = handleSubmit(async (body) => {
+    setFormError(null);
+    try {
+      await login.mutateAsync(body);
+      onSignedIn();
+    } catch (error) {
+      setFormError(serverErrorMessage(error, setError, FIELDS));
+      resetField('password');
+      setFocus('password');
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="Sign in" className="space-y-4">
+      {formError ? <Alert title={formError} /> : null}
+      <TextField label="E-mail" type="email" autoComplete="username" error={errors.email?.message} {...register('email')} />
+      <TextField
+        label="Password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password?.message}
+        {...register('password')}
+      />
+      <Button type="submit" className="w-full" disabled={isSubmitting}>
+        {isSubmitting ? 'Signing in…' : 'Sign in'}
+      </Button>
+    </form>
+  );
+}

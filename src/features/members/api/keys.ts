@@ -1,0 +1,6 @@
+/** Query keys for project members, from general to specific. */
+export const memberKeys = {
+  all: ['members'] as const,
+  lists: () => [...memberKeys.all, 'list'] as const,
+  list: (projectId: number) => [...memberKeys.lists(), projectId] as const,
+};

@@ -1,0 +1,244 @@
+import { useState } from 'react';
+import { useForm, useWatch, type Control, type FieldErrors, type FieldValues, type UseFormRegister } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
+import {
+  formatDeclination,
+  formatRightAscension,
+  parseDeclination,
+  parseRightAscension,
+  type CoordinateResult,
+} from '@shared/coordinates';
+import { createTargetBody, updateTargetBody, type CreateTargetBody, type Target, type UpdateTargetBody } from '@shared/schemas/targets';
+import { ButtonLink, Button } from '@/components/ui/button';
+import { TextAreaField, TextField } from '@/components/ui/field';
+import { Alert } from '@/components/ui/alert';
+import { formatDegrees } from '@/lib/format';
+import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+import { useCreateTarget } from '../api/create-target';
+import { useUpdateTarget } from '../api/update-target';
+
+/*
+ * Tags are typed as one comma-separated line; the shared schema's own rule
+ * for a list of tags checks them after the split, so the form and the server
+ * agree on what a valid tag is.
+ */
+const tagsText = z.string().transform((text, ctx) => {
+  const list = [...new Set(text.split(',').map((t) => t.trim()).filter(Boolean))];
+  const parsed = createTargetBody.shape.tags.safeParse(list);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    const index = typeof issue.path[0] === 'number' ? issue.path[0] : undefined;
+    ctx.addIssue({
+      code: 'custom',
+      message: index !== undefined ? `“${list[index]}”: ${issue.message}` : issue.code === 'too_big' ? 'Use at most 20 tags.' : issue.message,
+    });
+    return z.NEVER;
+  }
+  return parsed.data;
+});
+
+/** What the boxes hold: text, before the shared schemas read it. */
+const targetFormText = z.object({
+  designation: z.string(),
+  ra: z.string(),
+  dec: z.string(),
+  notes: z.string(),
+  tags: z.string(),
+});
+type TargetFormValues = z.infer<typeof targetFormText>;
+
+/** Reads the text with one of the shared schemas, keeping each problem on its field. */
+function readWith<Out>(schema: z.ZodType<Out, unknown>) {
+  return targetFormText.transform((text, ctx): Out => {
+    const parsed = schema.safeParse(text);
+    if (parsed.success) return parsed.data;
+    for (const issue of parsed.error.issues) ctx.addIssue({ code: 'custom', message: issue.message, path: issue.path });
+    return z.NEVER;
+  });
+}
+
+const createTargetForm = readWith(createTargetBody.extend({ tags: tagsText }));
+const updateTargetForm = readWith(updateTargetBody.extend({ tags: tagsText }));
+
+const FIELDS = ['designation', 'ra', 'dec', 'notes', 'tags'] as const;
+
+function readBack(result: CoordinateResult, format: (deg: number) => string, unit: string): string | null {
+  if (!result.ok) return null;
+  return `Read as ${formatDegrees(result.degrees)} = ${format(result.degrees)} (${unit}).`;
+}
+
+/** Shows how the typed coordinate was understood, since "78.6" (degrees) and "05 14 32" (hours) look alike. */
+function CoordinateHint<Out extends FieldValues>({ control, name }: { control: Control<TargetFormValues, unknown, Out>; name: 'ra' | 'dec' }) {
+  const value = useWatch({ control, name });
+  const general =
+    name === 'ra'
+      ? 'Sexagesimal hours (05 14 32.3, 05:14:32.3, 5h14m32.3s) or decimal degrees (78.6346).'
+      : 'Sexagesimal degrees (−08 12 05, −08:12:05, −8d12m05s) or decimal degrees (−8.2014).';
+  const readAs =
+    value.trim() === ''
+      ? null
+      : name === 'ra'
+        ? readBack(parseRightAscension(value), formatRightAscension, 'h m s')
+        : readBack(parseDeclination(value), formatDeclination, '° ′ ″');
+  return (
+    <>
+      {general}
+      {readAs ? <span className="mt-0.5 block font-medium text-ink tabular-nums">{readAs}</span> : null}
+    </>
+  );
+}
+
+function TargetFields<Out extends FieldValues>({
+  register,
+  errors,
+  control,
+}: {
+  register: UseFormRegister<TargetFormValues>;
+  errors: FieldErrors<TargetFormValues>;
+  control: Control<TargetFormValues, unknown, Out>;
+}) {
+  return (
+    <>
+      <TextField label="Designation" autoComplete="off" error={errors.designation?.message} {...register('designation')} className="max-w-md" />
+      <div className="grid gap-4 sm:grid-cols-2">
+        <TextField
+          label="Right ascension (J2000)"
+          autoComplete="off"
+          spellCheck={false}
+          hint={<CoordinateHint control={control} name="ra" />}
+          error={errors.ra?.message}
+          {...register('ra')}
+        />
+        <TextField
+          label="Declination (J2000)"
+          autoComplete="off"
+          spellCheck={false}
+          hint={<CoordinateHint control={control} name="dec" />}
+          error={errors.dec?.message}
+          {...register('dec')}
+        />
+      </div>
+      <TextAreaField label="Notes" rows={5} error={errors.notes?.message} {...register('notes')} />
+      <TextField
+        label="Tags"
+        autoComplete="off"
+        hint="Separate tags with commas, e.g. season-a, standard."
+        error={errors.tags?.message}
+        {...register('tags')}
+      />
+    </>
+  );
+}
+
+/** A new target. */
+export function CreateTargetForm({
+  projectId,
+  cancelHref,
+  onCreated,
+}: {
+  projectId: number;
+  cancelHref: string;
+  onCreated: (target: Target) => void;
+}) {
+  const createTarget = useCreateTarget(projectId);
+  const [formError, setFormError] = useState<string | null>(null);
+  const {
+    register,
+    control,
+    handleSubmit,
+    setError,
+    formState: { errors, isSubmitting },
+  } = useForm<TargetFormValues, unknown, CreateTargetBody>({
+    resolver: zodResolver(createTargetForm, formParseOptions),
+    defaultValues: { designation: '', ra: '', dec: '', notes: '', tags: '' },
+  });
+
+  const onSubmit = handleSubmit(async (body) => {
+    setFormError(null);
+    try {
+      onCreated(await createTarget.mutateAsync(body));
+    } catch (error) {
+      setFormError(serverErrorMessage(error, setError, FIELDS));
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="New target" className="max-w-3xl space-y-5">
+      {formError ? <Alert title="The target was not added.">{formError}</Alert> : null}
+      <TargetFields register={register} errors={errors} control={control} />
+      <div className="flex gap-3">
+        <Button type="submit" disabled={isSubmitting}>
+          {isSubmitting ? 'Adding…' : 'Add target'}
+        </Button>
+        <ButtonLink to={cancelHref} variant="secondary">
+          Cancel
+        </ButtonLink>
+      </div>
+    </form>
+  );
+}
+
+/** Changes to an existing target. Only the fields that were changed are sent, so an untouched position keeps its full precision. */
+export function EditTargetForm({
+  projectId,
+  target,
+  cancelHref,
+  onSaved,
+}: {
+  projectId: number;
+  target: Target;
+  cancelHref: string;
+  onSaved: (target: Target) => void;
+}) {
+  const updateTarget = useUpdateTarget(projectId, target.id);
+  const [formError, setFormError] = useState<string | null>(null);
+  const {
+    register,
+    control,
+    handleSubmit,
+    setError,
+    formState: { errors, isSubmitting, dirtyFields },
+  } = useForm<TargetFormValues, unknown, UpdateTargetBody>({
+    resolver: zodResolver(updateTargetForm, formParseOptions),
+    defaultValues: {
+      designation: target.designation,
+      ra: formatRightAscension(target.raDeg),
+      dec: formatDeclination(target.decDeg),
+      notes: target.notes,
+      tags: target.tags.join(', '),
+    },
+  });
+
+  const onSubmit = handleSubmit(async (values) => {
+    setFormError(null);
+    const body: UpdateTargetBody = {};
+    for (const field of FIELDS) {
+      if (dirtyFields[field]) Object.assign(body, { [field]: values[field] });
+    }
+    if (Object.keys(body).length === 0) {
+      onSaved(target);
+      return;
+    }
+    try {
+      onSaved(await updateTarget.mutateAsync(body));
+    } catch (error) {
+      setFormError(serverErrorMessage(error, setError, FIELDS));
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label={`Edit ${target.designation}`} className="max-w-3xl space-y-5">
+      {formError ? <Alert title="The changes were not saved.">{formError}</Alert> : null}
+      <TargetFields register={register} errors={errors} control={control} />
+      <div className="flex gap-3">
+        <Button type="submit" disabled={isSubmitting}>
+          {isSubmitting ? 'Saving…' : 'Save changes'}
+        </Button>
+        <ButtonLink to={cancelHref} variant="secondary">
+          Cancel
+        </ButtonLink>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,326 @@
+import { useEffect, useEffectEvent, useMemo, useState } from 'react';
+import { Link, useSearchParams } from 'react-router-dom';
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  useReactTable,
+  type PaginationState,
+  type SortingState,
+  type Updater,
+} from '@tanstack/react-table';
+import { formatDeclination, formatRightAscension } from '@shared/coordinates';
+import { targetSortKeys, type Target } from '@shared/schemas/targets';
+import { paths } from '@/config/paths';
+import { Button, linkClasses } from '@/components/ui/button';
+import { SelectField, TextField } from '@/components/ui/field';
+import { Alert, StatusLine } from '@/components/ui/alert';
+import { EmptyState } from '@/components/ui/empty-state';
+import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
+import { useDebouncedValue } from '@/hooks/use-debounced-value';
+import { formatCount, formatDateTime } from '@/lib/format';
+import { useTargets } from '../api/get-targets';
+import type { TargetListParams } from '../api/keys';
+
+const PAGE_SIZES = [25, 50, 100] as const;
+type SortKey = (typeof targetSortKeys)[number];
+
+/*
+ * The table's state lives in the address bar, so a filtered, sorted page can
+ * be bookmarked or sent to a colleague, and Back returns to it.
+ */
+function readParams(search: URLSearchParams): TargetListParams {
+  const page = Number.parseInt(search.get('page') ?? '', 10);
+  const pageSize = Number.parseInt(search.get('pageSize') ?? '', 10);
+  const sort = search.get('sort');
+  const order = search.get('order');
+  return {
+    page: Number.isFinite(page) && page >= 1 ? page : 1,
+    pageSize: (PAGE_SIZES as readonly number[]).includes(pageSize) ? pageSize : PAGE_SIZES[0],
+    sort: (targetSortKeys as readonly string[]).includes(sort ?? '') ? (sort as SortKey) : 'designation',
+    order: order === 'desc' ? 'desc' : 'asc',
+    q: search.get('q')?.trim() || undefined,
+    tag: search.get('tag')?.trim() || undefined,
+  };
+}
+
+function writeParams(params: TargetListParams): URLSearchParams {
+  const search = new URLSearchParams();
+  if (params.page !== 1) search.set('page', String(params.page));
+  if (params.pageSize !== PAGE_SIZES[0]) search.set('pageSize', String(params.pageSize));
+  if (params.sort !== 'designation') search.set('sort', params.sort);
+  if (params.order !== 'asc') search.set('order', params.order);
+  if (params.q) search.set('q', params.q);
+  if (params.tag) search.set('tag', params.tag);
+  return search;
+}
+
+function resolve<T>(updater: Updater<T>, current: T): T {
+  return typeof updater === 'function' ? (updater as (old: T) => T)(current) : updater;
+}
+
+const column = createColumnHelper<Target>();
+
+/** Actions the cells call, passed through the table so the column definitions stay stable between renders. */
+interface TableActions {
+  filterByTag: (tag: string) => void;
+}
+
+const sortLabels: Record<SortKey, string> = {
+  designation: 'designation',
+  raDeg: 'right ascension',
+  decDeg: 'declination',
+  updatedAt: 'last update',
+};
+
+/**
+ * A project's targets, paged, sorted and filtered on the server. Readers get
+ * the same table without the add button.
+ */
+export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdit: boolean }) {
+  const [searchParams, setSearchParams] = useSearchParams();
+  const params = readParams(searchParams);
+  const update = (next: Partial<TargetListParams>, { resetPage = true } = {}) =>
+    setSearchParams(writeParams({ ...params, ...(resetPage ? { page: 1 } : {}), ...next }), { replace: true });
+
+  // The text boxes answer at once; the server is asked after a short pause in typing.
+  const [qDraft, setQDraft] = useState(params.q ?? '');
+  const [tagDraft, setTagDraft] = useState(params.tag ?? '');
+  const q = useDebouncedValue(qDraft.trim());
+  const tag = useDebouncedValue(tagDraft.trim());
+  const applyTypedFilters = useEffectEvent((nextQ: string, nextTag: string) => {
+    if ((params.q ?? '') !== nextQ || (params.tag ?? '') !== nextTag) update({ q: nextQ || undefined, tag: nextTag || undefined });
+  });
+  // Only a settled change of the typed text writes the address bar.
+  useEffect(() => applyTypedFilters(q, tag), [q, tag]);
+  // Follow the address bar when it changes from elsewhere (a tag clicked in a row, Back).
+  useEffect(() => setQDraft(params.q ?? ''), [params.q]);
+  useEffect(() => setTagDraft(params.tag ?? ''), [params.tag]);
+
+  const query = useTargets(projectId, params);
+  const data = query.data;
+  const pageCount = data ? Math.max(1, Math.ceil(data.total / data.pageSize)) : 1;
+
+  // A bookmarked page number can outlive the rows it pointed at; fall back to the last page there is.
+  const clampPage = useEffectEvent((lastPage: number) => update({ page: lastPage }, { resetPage: false }));
+  useEffect(() => {
+    if (data && data.total > 0 && data.page > pageCount) clampPage(pageCount);
+  }, [data, pageCount]);
+
+  const columns = useMemo(
+    () => [
+      column.accessor('designation', {
+        header: 'Designation',
+        cell: (info) => (
+          <Link to={paths.project.target.getHref(projectId, info.row.original.id)} className={`${linkClasses} font-semibold`}>
+            {info.getValue()}
+          </Link>
+        ),
+      }),
+      column.accessor('raDeg', {
+        header: 'RA (J2000, h m s)',
+        cell: (info) => formatRightAscension(info.getValue()),
+        meta: { numeric: true },
+      }),
+      column.accessor('decDeg', {
+        header: 'Dec (J2000, ° ′ ″)',
+        cell: (info) => formatDeclination(info.getValue()),
+        meta: { numeric: true },
+      }),
+      column.accessor('tags', {
+        header: 'Tags',
+        enableSorting: false,
+        cell: (info) => (
+          <ul className="flex flex-wrap gap-1.5" aria-label={`Tags of ${info.row.original.designation}`}>
+            {info.getValue().map((t) => (
+              <li key={t}>
+                <button
+                  type="button"
+                  onClick={() => (info.table.options.meta as TableActions).filterByTag(t)}
+                  className="rounded-sm border border-rule px-1.5 py-0.5 text-xs text-ink-soft hover:border-brass hover:text-ink"
+                  aria-label={`Show only targets tagged ${t}`}
+                >
+                  {t}
+                </button>
+              </li>
+            ))}
+          </ul>
+        ),
+      }),
+      column.accessor('updatedAt', {
+        header: 'Updated (UTC)',
+        cell: (info) => formatDateTime(info.getValue()).replace(' UTC', ''),
+        meta: { numeric: true },
+      }),
+    ],
+    [projectId],
+  );
+
+  const sorting: SortingState = [{ id: params.sort, desc: params.order === 'desc' }];
+  const pagination: PaginationState = { pageIndex: params.page - 1, pageSize: params.pageSize };
+
+  const table = useReactTable({
+    data: data?.items ?? [],
+    columns,
+    getRowId: (row) => String(row.id),
+    getCoreRowModel: getCoreRowModel(),
+    manualPagination: true,
+    manualSorting: true,
+    manualFiltering: true,
+    enableSortingRemoval: false,
+    enableMultiSort: false,
+    rowCount: data?.total ?? 0,
+    state: { sorting, pagination },
+    meta: { filterByTag: (tag: string) => update({ tag }) } satisfies TableActions,
+    onSortingChange: (updater) => {
+      const [next] = resolve(updater, sorting);
+      if (next) update({ sort: next.id as SortKey, order: next.desc ? 'desc' : 'asc' });
+    },
+    onPaginationChange: (updater) => {
+      const next = resolve(updater, pagination);
+      if (next.pageSize !== params.pageSize) update({ pageSize: next.pageSize });
+      else update({ page: next.pageIndex + 1 }, { resetPage: false });
+    },
+  });
+
+  const filtered = Boolean(params.q || params.tag);
+
+  return (
+    <div className="space-y-4">
+      <div role="search" aria-label="Filter targets" className="flex flex-wrap items-end gap-4" data-print="hide">
+        <TextField
+          label="Search"
+          type="search"
+          value={qDraft}
+          onChange={(e) => setQDraft(e.target.value)}
+          hint="Designation or notes."
+          className="w-64"
+        />
+        <TextField label="Tag" value={tagDraft} onChange={(e) => setTagDraft(e.target.value)} hint="One tag, exactly." className="w-44" />
+        {filtered ? (
+          <Button
+            variant="secondary"
+            className="mb-5"
+            onClick={() => {
+              setQDraft('');
+              setTagDraft('');
+              update({ q: undefined, tag: undefined });
+            }}
+          >
+            Clear filters
+          </Button>
+        ) : null}
+      </div>
+
+      {query.isPending ? <StatusLine>Loading targets…</StatusLine> : null}
+      {query.isError && !data ? (
+        <Alert title="The targets could not be loaded.">
+          {query.error.message}{' '}
+          <Button variant="quiet" size="sm" onClick={() => void query.refetch()}>
+            Try again
+          </Button>
+        </Alert>
+      ) : null}
+
+      {data && data.total === 0 ? (
+        filtered ? (
+          <EmptyState title="No targets match these filters">Change the search text or tag, or clear the filters.</EmptyState>
+        ) : (
+          <EmptyState
+            title="No targets yet"
+            action={
+              canEdit ? (
+                <Link to={paths.project.newTarget.getHref(projectId)} className={linkClasses}>
+                  Add the first target
+                </Link>
+              ) : null
+            }
+          >
+            {canEdit ? 'Targets are the stars this programme observes.' : 'The project’s observers have not added any targets yet.'}
+          </EmptyState>
+        )
+      ) : null}
+
+      {data && data.total > 0 ? (
+        <>
+          <LedgerTable aria-label="Targets" aria-busy={query.isFetching} className={query.isPlaceholderData ? 'opacity-60' : undefined}>
+            <LedgerHead>
+              {table.getHeaderGroups().map((group) => (
+                <tr key={group.id}>
+                  {group.headers.map((header) => {
+                    const numeric = (header.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric;
+                    const sorted = header.column.getIsSorted();
+                    const label = flexRender(header.column.columnDef.header, header.getContext());
+                    return (
+                      <LedgerHeaderCell
+                        key={header.id}
+                        scope="col"
+                        numeric={numeric}
+                        aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                      >
+                        {header.column.getCanSort() ? (
+                          <button
+                            type="button"
+                            onClick={header.column.getToggleSortingHandler()}
+                            className="inline-flex items-center gap-1 uppercase hover:text-ink"
+                            title={`Sort by ${sortLabels[header.column.id as SortKey]}`}
+                          >
+                            {label}
+                            <span aria-hidden="true" className={sorted ? 'text-brass-deep' : 'opacity-40'}>
+                              {sorted === 'desc' ? '▼' : '▲'}
+                            </span>
+                          </button>
+                        ) : (
+                          label
+                        )}
+                      </LedgerHeaderCell>
+                    );
+                  })}
+                </tr>
+              ))}
+            </LedgerHead>
+            <LedgerBody>
+              {table.getRowModel().rows.map((row) => (
+                <LedgerRow key={row.id}>
+                  {row.getVisibleCells().map((cell) => (
+                    <LedgerCell key={cell.id} numeric={(cell.column.columnDef.meta as { numeric?: boolean } | undefined)?.numeric}>
+                      {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                    </LedgerCell>
+                  ))}
+                </LedgerRow>
+              ))}
+            </LedgerBody>
+          </LedgerTable>
+
+          <nav aria-label="Pages of targets" className="flex flex-wrap items-end justify-between gap-4 text-sm" data-print="hide">
+            <p className="pb-2 text-ink-soft" aria-live="polite">
+              {formatCount(data.total, 'target')}
+              {filtered ? ' match' : ''} · page {data.page} of {pageCount}
+              {query.isFetching ? ' · updating…' : ''}
+            </p>
+            <div className="flex items-end gap-3">
+              <SelectField
+                label="Rows per page"
+                value={params.pageSize}
+                onChange={(e) => table.setPageSize(Number(e.target.value))}
+                className="w-32"
+              >
+                {PAGE_SIZES.map((size) => (
+                  <option key={size} value={size}>
+                    {size}
+                  </option>
+                ))}
+              </SelectField>
+              <Button variant="secondary" onClick={() => table.previousPage()} disabled={params.page <= 1}>
+                Previous page
+              </Button>
+              <Button variant="secondary" onClick={() => table.nextPage()} disabled={params.page >= pageCount}>
+                Next page
+              </Button>
+            </div>
+          </nav>
+        </>
+      ) : null}
+    </div>
+  );
+}

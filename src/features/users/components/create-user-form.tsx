@@ -1,0 +1,69 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { createUserBody, type CreateUserBody, type User } from '@shared/schemas/auth';
+import { Button } from '@/components/ui/button';
+import { CheckboxField, TextField } from '@/components/ui/field';
+import { Alert } from '@/components/ui/alert';
+import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+import { useCreateUser } from '../api/create-user';
+
+const FIELDS = ['email', 'name', 'password', 'isSiteAdmin'] as const;
+
+/**
+ * A site administrator opens an account with a first password, to be passed
+ * on to its owner by a channel of the team's choosing.
+ */
+export function CreateUserForm() {
+  const createUser = useCreateUser();
+  const [created, setCreated] = useState<User | null>(null);
+  const [formError, setFormError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    setError,
+    reset,
+    formState: { errors, isSubmitting },
+  } = useForm<z.input<typeof createUserBody>, unknown, CreateUserBody>({
+    resolver: zodResolver(createUserBody, formParseOptions),
+    defaultValues: { email: '', name: '', password: '', isSiteAdmin: false },
+  });
+
+  const onSubmit = handleSubmit(async (body) => {
+    setFormError(null);
+    setCreated(null);
+    try {
+      setCreated(await createUser.mutateAsync(body));
+      reset();
+    } catch (error) {
+      setFormError(serverErrorMessage(error, setError, FIELDS));
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="New account" className="max-w-xl space-y-4">
+      {created ? <Alert kind="done" title={`Account for ${created.name} (${created.email}) created.`} /> : null}
+      {formError ? <Alert title="The account was not created.">{formError}</Alert> : null}
+      <TextField label="Name" autoComplete="off" error={errors.name?.message} {...register('name')} />
+      <TextField label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...register('email')} />
+      <TextField
+        label="First password"
+        type="password"
+        autoComplete="new-password"
+        hint="At least 10 characters."
+        error={errors.password?.message}
+        {...register('password')}
+      />
+      <CheckboxField
+        label="Site administrator"
+        hint="Can create projects and manage every account."
+        error={errors.isSiteAdmin?.message}
+        {...register('isSiteAdmin')}
+      />
+      <Button type="submit" disabled={isSubmitting}>
+        {isSubmitting ? 'Creating…' : 'Create account'}
+      </Button>
+    </form>
+  );
+}
