@@ -11,23 +11,24 @@ export function Alert({
   children,
   className,
 }: {
-  kind?: 'error' | 'notice' | 'done';
+  kind?: 'error' | 'caution' | 'notice' | 'done';
   title?: ReactNode;
   children?: ReactNode;
   className?: string;
 }) {
-  const word = kind === 'error' ? 'Error' : kind === 'done' ? 'Done' : 'Note';
+  const word = { error: 'Error', caution: 'Caution', done: 'Done', notice: 'Note' }[kind];
+  const urgent = kind === 'error' || kind === 'caution';
   return (
     <div
-      role={kind === 'error' ? 'alert' : 'status'}
+      role={urgent ? 'alert' : 'status'}
       className={cn(
         'rounded-sm border-l-4 bg-paper-deep px-4 py-3 text-sm',
-        kind === 'error' ? 'border-alert' : kind === 'done' ? 'border-good' : 'border-brass',
+        urgent ? 'border-alert' : kind === 'done' ? 'border-good' : 'border-brass',
         className,
       )}
     >
       <p className="font-semibold">
-        <span className={kind === 'error' ? 'text-alert' : kind === 'done' ? 'text-good' : 'text-brass-deep'}>{word}:</span>{' '}
+        <span className={urgent ? 'text-alert' : kind === 'done' ? 'text-good' : 'text-brass-deep'}>{word}:</span>{' '}
         {title}
       </p>
       {children ? <div className="mt-1 text-ink">{children}</div> : null}

@@ -58,9 +58,13 @@ export function CreateProjectForm() {
     <form onSubmit={onSubmit} noValidate aria-label="New project" className="space-y-4">
       {created ? (
         <Alert kind="done" title={`Project ${created.code} created.`}>
-          <Link to={paths.project.root.getHref(created.id)} className={linkClasses}>
-            Open {created.name}
-          </Link>
+          {created.myRole ? (
+            <Link to={paths.project.root.getHref(created.id)} className={linkClasses}>
+              Open {created.name}
+            </Link>
+          ) : (
+            'You are not a member of it, so it does not appear in your list.'
+          )}
         </Alert>
       ) : null}
       {formError ? <Alert title="The project was not created.">{formError}</Alert> : null}

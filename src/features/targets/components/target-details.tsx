@@ -1,5 +1,8 @@
+import { useState } from 'react';
 import { formatDeclination, formatRightAscension } from '@shared/coordinates';
+import { sunCaution } from '@shared/sun-proximity';
 import type { Target } from '@shared/schemas/targets';
+import { Alert } from '@/components/ui/alert';
 import { DetailItem, DetailList } from '@/components/ui/detail-list';
 import { Section } from '@/components/ui/page-header';
 import { TagList } from '@/components/ui/tag-list';
@@ -7,8 +10,16 @@ import { formatDateTime, formatDegrees } from '@/lib/format';
 
 /** What is recorded about a target itself: its name, position, notes and tags. */
 export function TargetDetails({ target }: { target: Target }) {
+  // Until observations carry their own dates, today is the date an observer is planning for.
+  const [today] = useState(() => new Date());
+  const caution = sunCaution(target, today);
   return (
     <div className="grid gap-8 lg:grid-cols-[3fr_2fr]">
+      {caution ? (
+        <Alert kind="caution" title={caution.reason === 'is_sun' ? 'This target is the Sun.' : 'This target is close to the Sun today.'} className="lg:col-span-2">
+          {caution.message}
+        </Alert>
+      ) : null}
       <Section title="Identifiers and coordinates">
         <DetailList>
           <DetailItem label="Designation">{target.designation}</DetailItem>
