@@ -30,7 +30,7 @@ export function LedgerHeaderCell({ className, numeric, ...props }: ComponentProp
   return (
     <th
       className={cn(
-        'px-3 py-2 text-xs font-semibold tracking-wider text-ink-soft uppercase',
+        'px-3 py-2 text-xs font-semibold tracking-wide text-ink-soft',
         numeric ? 'text-right' : 'text-left',
         className,
       )}
@@ -40,5 +40,5 @@ export function LedgerHeaderCell({ className, numeric, ...props }: ComponentProp
 }
 
 export function LedgerCell({ className, numeric, ...props }: ComponentProps<'td'> & { numeric?: boolean }) {
-  return <td className={cn('px-3 py-2 align-top', numeric && 'text-right tabular-nums whitespace-nowrap', className)} {...props} />;
+  return <td className={cn('px-3 py-2 align-baseline', numeric && 'text-right tabular-nums whitespace-nowrap', className)} {...props} />;
 }

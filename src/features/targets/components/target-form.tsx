@@ -38,11 +38,20 @@ const tagsText = z.string().transform((text, ctx) => {
   return parsed.data;
 });
 
+/*
+ * Starledger prints negative declinations with a true minus sign (U+2212),
+ * so text copied from a target sheet, or the edit form's own starting value,
+ * carries one; the shared parser reads the ASCII hyphen.
+ */
+function asciiMinus(text: string): string {
+  return text.replace(/\u2212/g, '-');
+}
+
 /** What the boxes hold: text, before the shared schemas read it. */
 const targetFormText = z.object({
   designation: z.string(),
-  ra: z.string(),
-  dec: z.string(),
+  ra: z.string().transform(asciiMinus),
+  dec: z.string().transform(asciiMinus),
   notes: z.string(),
   tags: z.string(),
 });
@@ -79,8 +88,8 @@ function CoordinateHint<Out extends FieldValues>({ control, name }: { control: C
     value.trim() === ''
       ? null
       : name === 'ra'
-        ? readBack(parseRightAscension(value), formatRightAscension, 'h m s')
-        : readBack(parseDeclination(value), formatDeclination, '° ′ ″');
+        ? readBack(parseRightAscension(asciiMinus(value)), formatRightAscension, 'h m s')
+        : readBack(parseDeclination(asciiMinus(value)), formatDeclination, '° ′ ″');
   return (
     <>
       {general}

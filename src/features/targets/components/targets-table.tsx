@@ -262,7 +262,7 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
                           <button
                             type="button"
                             onClick={header.column.getToggleSortingHandler()}
-                            className="inline-flex items-center gap-1 uppercase hover:text-ink"
+                            className="inline-flex items-center gap-1 hover:text-ink"
                             title={`Sort by ${sortLabels[header.column.id as SortKey]}`}
                           >
                             {label}
