@@ -1,0 +1,302 @@
+import { CONSTANTS } from './constants';
+import { PhysicsError, requireFinite, requirePositive, type PhysicsWarning } from './errors';
+import type { Measured } from './measured';
+
+const H = CONSTANTS.h.value;
+const C = CONSTANTS.c.value;
+const K_B = CONSTANTS.k_B.value;
+const HC_OVER_K = (H * C) / K_B;
+
+/**
+ * Planck's law per unit wavelength, B_λ(T) = 2hc² / λ⁵ / (exp(hc / λk_BT) − 1),
+ * in W m⁻² m⁻¹ sr⁻¹ for a wavelength in m and a temperature in K.
+ * @see CODATA 2018 h, c, k_B; REFERENCES.md "Planck function"
+ */
+export function planckSpectralRadiance(wavelengthM: number, temperatureK: number): number {
+  requirePositive(wavelengthM, 'wavelength');
+  requirePositive(temperatureK, 'temperature');
+  return planckUnchecked(wavelengthM, temperatureK);
+}
+
+function planckUnchecked(wavelengthM: number, temperatureK: number): number {
+  const x = HC_OVER_K / (wavelengthM * temperatureK);
+  const l5 = wavelengthM ** 5;
+  return (2 * H * C * C) / l5 / Math.expm1(x);
+}
+
+/**
+ * Wavelength in m of the maximum of B_λ for a temperature in K, solved from
+ * dB_λ/dλ = 0 (x = 5 (1 − e⁻ˣ), x = hc / λk_BT) with h, c and k_B alone, so
+ * that it checks Wien's b independently.
+ * @see CODATA 2018 h, c, k_B
+ */
+export function planckPeakWavelengthM(temperatureK: number): number {
+  requirePositive(temperatureK, 'temperature');
+  let x = 5;
+  for (let i = 0; i < 50; i++) {
+    const g = x - 5 * (1 - Math.exp(-x));
+    const dg = 1 - 5 * Math.exp(-x);
+    const step = g / dg;
+    x -= step;
+    if (Math.abs(step) < 1e-15 * x) break;
+  }
+  return HC_OVER_K / (x * temperatureK);
+}
+
+/**
+ * A 1-D spectrum: wavelengths in m, spectral flux density in any consistent
+ * unit (W m⁻² m⁻¹ for a calibrated one), and optionally its 1-sigma
+ * uncertainties in the same unit. Single noisy points may be negative.
+ */
+export interface Spectrum {
+  readonly wavelengthM: readonly number[];
+  readonly flux: readonly number[];
+  readonly fluxSigma?: readonly number[];
+}
+
+/** A least-squares fit of flux = scale × B_λ(T). */
+export interface PlanckFit {
+  /** Temperature in K. */
+  readonly temperatureK: Measured;
+  /** Natural logarithm of the scale (flux unit per W m⁻² m⁻¹ sr⁻¹; for a star (R/d)² π). */
+  readonly logScale: Measured;
+  /** Correlation coefficient between T and log scale. */
+  readonly correlation: number;
+  readonly chiSquare: number;
+  readonly degreesOfFreedom: number;
+  readonly reducedChiSquare: number;
+  readonly iterations: number;
+  readonly warnings: PhysicsWarning[];
+}
+
+function checkSpectrum(spectrum: Spectrum): void {
+  const n = spectrum.wavelengthM.length;
+  if (spectrum.flux.length !== n || (spectrum.fluxSigma && spectrum.fluxSigma.length !== n)) {
+    throw new PhysicsError('missing_input', 'spectrum', 'spectrum columns differ in length');
+  }
+  for (let i = 0; i < n; i++) {
+    requirePositive(spectrum.wavelengthM[i], `wavelength (point ${i + 1})`);
+    requireFinite(spectrum.flux[i], `flux (point ${i + 1})`);
+    if (spectrum.fluxSigma) requirePositive(spectrum.fluxSigma[i], `flux uncertainty (point ${i + 1})`);
+  }
+}
+
+interface Accumulated {
+  chi2: number;
+  jtj: [number, number, number];
+  jtr: [number, number];
+}
+
+/** χ² and normal equations for parameters (ln T, ln s); the model's partials are relative. */
+function accumulate(spectrum: Spectrum, lnT: number, lnS: number): Accumulated {
+  const t = Math.exp(lnT);
+  const s = Math.exp(lnS);
+  let chi2 = 0;
+  let a = 0;
+  let b = 0;
+  let d = 0;
+  let g0 = 0;
+  let g1 = 0;
+  const n = spectrum.wavelengthM.length;
+  for (let i = 0; i < n; i++) {
+    const lambda = spectrum.wavelengthM[i];
+    const w = spectrum.fluxSigma ? 1 / spectrum.fluxSigma[i] ** 2 : 1;
+    const x = HC_OVER_K / (lambda * t);
+    const model = s * planckUnchecked(lambda, t);
+    // ∂model/∂lnT = model · x / (1 − e⁻ˣ); ∂model/∂lns = model
+    const jT = model * (x / -Math.expm1(-x));
+    const jS = model;
+    const r = spectrum.flux[i] - model;
+    chi2 += w * r * r;
+    a += w * jT * jT;
+    b += w * jT * jS;
+    d += w * jS * jS;
+    g0 += w * jT * r;
+    g1 += w * jS * r;
+  }
+  return { chi2, jtj: [a, b, d], jtr: [g0, g1] };
+}
+
+/** Best scale for a fixed temperature (linear least squares), or NaN when not positive. */
+function bestLogScale(spectrum: Spectrum, temperatureK: number): number {
+  let num = 0;
+  let den = 0;
+  for (let i = 0; i < spectrum.wavelengthM.length; i++) {
+    const w = spectrum.fluxSigma ? 1 / spectrum.fluxSigma[i] ** 2 : 1;
+    const model = planckUnchecked(spectrum.wavelengthM[i], temperatureK);
+    num += w * spectrum.flux[i] * model;
+    den += w * model * model;
+  }
+  return num > 0 && den > 0 ? Math.log(num / den) : Number.NaN;
+}
+
+/** Temperatures in K searched for the starting point of the fit. */
+const GRID_MIN_K = 500;
+const GRID_MAX_K = 200_000;
+
+/**
+ * Least-squares fit of scale × B_λ(T) to a 1-D spectrum (wavelength in m).
+ * A coarse grid in log T with the scale solved linearly gives the start;
+ * Levenberg–Marquardt on (ln T, ln scale) refines it. Uncertainties are from
+ * the inverse of JᵀWJ scaled by the reduced χ² (weights 1/σ² when the
+ * spectrum gives σ, else 1). Out: temperature in K, ln scale.
+ * Throws PhysicsError ('too_few_points', 'fit_failed') when no fit exists.
+ * @see Press et al., Numerical Recipes (3rd ed.) §15.5, Levenberg–Marquardt (from memory); CODATA 2018 h, c, k_B
+ */
+export function fitPlanck(spectrum: Spectrum): PlanckFit {
+  checkSpectrum(spectrum);
+  const n = spectrum.wavelengthM.length;
+  if (n < 4) throw new PhysicsError('too_few_points', 'temperature_planck', `a Planck fit needs at least 4 points (got ${n})`, '≥ 4 points');
+
+  let bestLnT = Number.NaN;
+  let bestLnS = Number.NaN;
+  let bestChi2 = Infinity;
+  const steps = 160;
+  for (let k = 0; k <= steps; k++) {
+    const lnT = Math.log(GRID_MIN_K) + (k / steps) * Math.log(GRID_MAX_K / GRID_MIN_K);
+    const lnS = bestLogScale(spectrum, Math.exp(lnT));
+    if (!Number.isFinite(lnS)) continue;
+    const { chi2 } = accumulate(spectrum, lnT, lnS);
+    if (chi2 < bestChi2) {
+      bestChi2 = chi2;
+      bestLnT = lnT;
+      bestLnS = lnS;
+    }
+  }
+  if (!Number.isFinite(bestLnT)) {
+    throw new PhysicsError('fit_failed', 'temperature_planck', 'no positive Planck curve matches this spectrum');
+  }
+
+  let lnT = bestLnT;
+  let lnS = bestLnS;
+  let current = accumulate(spectrum, lnT, lnS);
+  let lambda = 1e-3;
+  let iterations = 0;
+  for (; iterations < 200; iterations++) {
+    const [a, b, d] = current.jtj;
+    const [g0, g1] = current.jtr;
+    const a1 = a * (1 + lambda);
+    const d1 = d * (1 + lambda);
+    const det = a1 * d1 - b * b;
+    if (!(det > 0)) break;
+    const dT = (d1 * g0 - b * g1) / det;
+    const dS = (a1 * g1 - b * g0) / det;
+    const trial = accumulate(spectrum, lnT + dT, lnS + dS);
+    if (Number.isFinite(trial.chi2) && trial.chi2 <= current.chi2) {
+      const improvement = current.chi2 - trial.chi2;
+      lnT += dT;
+      lnS += dS;
+      current = trial;
+      lambda = Math.max(lambda / 10, 1e-12);
+      if (improvement <= 1e-12 * current.chi2 && Math.abs(dT) < 1e-10 && Math.abs(dS) < 1e-10) break;
+    } else {
+      lambda *= 10;
+      if (lambda > 1e12) break;
+    }
+  }
+
+  const dof = n - 2;
+  const [a, b, d] = current.jtj;
+  const det = a * d - b * b;
+  const temperature = Math.exp(lnT);
+  if (!(det > 0) || !Number.isFinite(temperature) || !Number.isFinite(lnS)) {
+    throw new PhysicsError('fit_failed', 'temperature_planck', 'the Planck fit did not converge: temperature and scale cannot be separated by these data');
+  }
+  const reducedChiSquare = current.chi2 / dof;
+  const varLnT = (d / det) * reducedChiSquare;
+  const varLnS = (a / det) * reducedChiSquare;
+  const cov = (-b / det) * reducedChiSquare;
+  const sigmaLnT = Math.sqrt(varLnT);
+  const sigmaLnS = Math.sqrt(varLnS);
+
+  const warnings: PhysicsWarning[] = [];
+  let minL = Infinity;
+  let maxL = -Infinity;
+  for (const l of spectrum.wavelengthM) {
+    minL = Math.min(minL, l);
+    maxL = Math.max(maxL, l);
+  }
+  const peak = planckPeakWavelengthM(temperature);
+  if (peak < minL || peak > maxL) {
+    warnings.push({
+      code: 'outside_calibration',
+      quantity: 'temperature_planck',
+      message: `the fitted curve peaks at ${(peak * 1e9).toFixed(0)} nm, outside the observed ${(minL * 1e9).toFixed(0)}–${(maxL * 1e9).toFixed(0)} nm; the temperature rests on one side of the curve only`,
+      limit: `peak within ${(minL * 1e9).toFixed(0)}–${(maxL * 1e9).toFixed(0)} nm`,
+    });
+  }
+  return {
+    temperatureK: { value: temperature, sigma: temperature * sigmaLnT },
+    logScale: { value: lnS, sigma: sigmaLnS },
+    correlation: sigmaLnT > 0 && sigmaLnS > 0 ? cov / (sigmaLnT * sigmaLnS) : 0,
+    chiSquare: current.chi2,
+    degreesOfFreedom: dof,
+    reducedChiSquare,
+    iterations,
+    warnings,
+  };
+}
+
+function median(values: number[]): number {
+  const sorted = values.slice().sort((p, q) => p - q);
+  const m = sorted.length >> 1;
+  return sorted.length % 2 ? sorted[m] : (sorted[m - 1] + sorted[m]) / 2;
+}
+
+/**
+ * Wavelength in m of the continuum peak of a spectrum sorted or unsorted by
+ * wavelength. The flux is smoothed with a running median (window of
+ * `windowPoints`, default one twentieth of the points, at least 5) so that
+ * absorption lines and noise do not move the peak, the highest smoothed
+ * point is refined with a parabola through its neighbours, and σ is the
+ * half-width of the region whose smoothed flux lies within one noise level
+ * (1.4826 × the median absolute residual) of the peak, at least half a
+ * sampling step. This uncertainty is Starledger's own estimate.
+ * Throws PhysicsError('peak_at_edge') when the peak is at either end.
+ * @see REFERENCES.md "Limits of the simple models"
+ */
+export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Measured {
+  checkSpectrum(spectrum);
+  const n = spectrum.wavelengthM.length;
+  if (n < 5) throw new PhysicsError('too_few_points', 'peak_wavelength', `finding a peak needs at least 5 points (got ${n})`, '≥ 5 points');
+  const order = Array.from({ length: n }, (_, i) => i).sort((p, q) => spectrum.wavelengthM[p] - spectrum.wavelengthM[q]);
+  const lambda = order.map((i) => spectrum.wavelengthM[i]);
+  const flux = order.map((i) => spectrum.flux[i]);
+  let w = windowPoints ?? Math.max(5, Math.floor(n / 20));
+  if (w % 2 === 0) w += 1;
+  const half = Math.min(w >> 1, Math.floor((n - 1) / 2));
+  const smooth = new Array<number>(n);
+  for (let i = 0; i < n; i++) {
+    const lo = Math.max(0, i - half);
+    const hi = Math.min(n - 1, i + half);
+    smooth[i] = median(flux.slice(lo, hi + 1));
+  }
+  let top = 0;
+  for (let i = 1; i < n; i++) if (smooth[i] > smooth[top]) top = i;
+  if (top === 0 || top === n - 1) {
+    throw new PhysicsError(
+      'peak_at_edge',
+      'peak_wavelength',
+      `the continuum rises to the ${top === 0 ? 'blue' : 'red'} end of the spectrum (${(lambda[top] * 1e9).toFixed(1)} nm); its peak lies outside the observed range`,
+      `${(lambda[0] * 1e9).toFixed(1)}–${(lambda[n - 1] * 1e9).toFixed(1)} nm`,
+    );
+  }
+  const [x0, x1, x2] = [lambda[top - 1], lambda[top], lambda[top + 1]];
+  const [y0, y1, y2] = [smooth[top - 1], smooth[top], smooth[top + 1]];
+  const denom = (x0 - x1) * (x0 - x2) * (x1 - x2);
+  const pa = (x2 * (y1 - y0) + x1 * (y0 - y2) + x0 * (y2 - y1)) / denom;
+  const pb = (x2 * x2 * (y0 - y1) + x1 * x1 * (y2 - y0) + x0 * x0 * (y1 - y2)) / denom;
+  let peak = x1;
+  if (pa < 0) {
+    const vertex = -pb / (2 * pa);
+    if (vertex > x0 && vertex < x2) peak = vertex;
+  }
+  const noise = 1.4826 * median(flux.map((f, i) => Math.abs(f - smooth[i])));
+  let left = top;
+  while (left > 0 && smooth[left - 1] >= smooth[top] - noise) left--;
+  let right = top;
+  while (right < n - 1 && smooth[right + 1] >= smooth[top] - noise) right++;
+  const step = (x2 - x0) / 2;
+  const sigma = Math.max((lambda[right] - lambda[left]) / 2, step / 2);
+  return { value: peak, sigma };
+}

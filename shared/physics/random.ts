@@ -1,0 +1,63 @@
+/**
+ * A small seeded pseudo-random source, so that a Monte Carlo uncertainty is
+ * the same number on the server and in the browser, today and at the next
+ * re-derivation.
+ */
+
+/** A source of uniform deviates in [0, 1). */
+export type Uniform = () => number;
+
+/**
+ * mulberry32: a 32-bit-state generator, fast and good enough for error
+ * propagation (not for cryptography).
+ * @see T. Ettinger, mulberry32 (public-domain generator, 2017; from memory)
+ */
+export function mulberry32(seed: number): Uniform {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/**
+ * Standard normal deviates by the Box–Muller transform; each pair of uniforms
+ * gives two deviates, the second kept for the next call.
+ * @see G. E. P. Box & M. E. Muller (1958), Ann. Math. Stat. 29, 610
+ */
+export function gaussian(uniform: Uniform): () => number {
+  let spare = 0;
+  let hasSpare = false;
+  return () => {
+    if (hasSpare) {
+      hasSpare = false;
+      return spare;
+    }
+    // 1 − u keeps the logarithm's argument in (0, 1].
+    const u = 1 - uniform();
+    const v = uniform();
+    const r = Math.sqrt(-2 * Math.log(u));
+    const theta = 2 * Math.PI * v;
+    spare = r * Math.sin(theta);
+    hasSpare = true;
+    return r * Math.cos(theta);
+  };
+}
+
+/**
+ * Mixes a base seed with a label (FNV-1a over the label's UTF-16 code units),
+ * so each derivation draws its own stream and adding one measurement never
+ * shifts another quantity's Monte Carlo numbers.
+ * @see Fowler–Noll–Vo hash, FNV-1a 32-bit (from memory)
+ */
+export function seedFor(baseSeed: number, label: string): number {
+  let h = (0x811c9dc5 ^ (baseSeed >>> 0)) >>> 0;
+  for (let i = 0; i < label.length; i++) {
+    h ^= label.charCodeAt(i);
+    h = Math.imul(h, 0x01000193) >>> 0;
+  }
+  return h >>> 0;
+}
