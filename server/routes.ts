@@ -16,6 +16,11 @@ import { membersHandlers } from './modules/members/members.routes';
 import { targetsHandlers } from './modules/targets/targets.routes';
 import { tokenParams, tokensHandlers } from './modules/tokens/tokens.routes';
 import { createTokenBody } from '../shared/schemas/tokens';
+import { commitBody, createUploadFields, remapBody, uploadParams, uploadRowsQuery } from '../shared/schemas/uploads';
+import { listDerivedQuery } from '../shared/schemas/derived';
+import { uploadsHandlers } from './modules/uploads/uploads.routes';
+import { derivationsHandlers } from './modules/derivations/derivations.routes';
+import { uploadFile } from './middleware/upload-file';
 
 type Method = 'get' | 'post' | 'patch' | 'delete';
 
@@ -26,8 +31,10 @@ export interface RouteDef {
   body?: z.ZodType;
   query?: z.ZodType;
   params?: z.ZodType;
-  /** Extra middleware that runs before validation (rate limits, file parsing). */
+  /** Middleware before the access gate (rate limits). */
   before?: RequestHandler[];
+  /** Middleware after the access gate and before validation (reading a multipart file). */
+  receive?: RequestHandler[];
   handler: RequestHandler;
 }
 
@@ -36,13 +43,15 @@ export interface RouteDef {
  * test walks this list, so a new route cannot be added without saying who
  * may call it.
  */
-export function apiRoutes(services: Services, passport: StarledgerPassport, loginLimiter: RequestHandler): RouteDef[] {
+export function apiRoutes(db: Db, services: Services, passport: StarledgerPassport, loginLimiter: RequestHandler): RouteDef[] {
   const auth = authHandlers(passport, services.users);
   const users = usersHandlers(services.users);
   const projects = projectsHandlers(services.projects);
   const members = membersHandlers(services.members);
   const targets = targetsHandlers(services.targets);
   const tokens = tokensHandlers(services.tokens);
+  const uploads = uploadsHandlers(services.uploads);
+  const derivations = derivationsHandlers(db);
   const P = '/projects/:projectId';
 
   return [
@@ -78,13 +87,27 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'get', path: `${P}/targets/:targetId`, access: inProject('read'), params: targetParams, handler: targets.get },
     { method: 'patch', path: `${P}/targets/:targetId`, access: inProject('editTargets'), params: targetParams, body: updateTargetBody, handler: targets.update },
     { method: 'delete', path: `${P}/targets/:targetId`, access: inProject('editTargets'), params: targetParams, handler: targets.remove },
+    { method: 'get', path: `${P}/targets/:targetId/derived`, access: inProject('read'), params: targetParams, query: listDerivedQuery, handler: derivations.derived },
+    { method: 'get', path: `${P}/targets/:targetId/measurements`, access: inProject('read'), params: targetParams, handler: derivations.measurements },
+
+    // Uploads
+    { method: 'get', path: `${P}/uploads`, access: inProject('read'), params: projectParams, handler: uploads.list },
+    { method: 'post', path: `${P}/uploads`, access: inProject('upload'), params: projectParams, receive: [uploadFile], body: createUploadFields, handler: uploads.create },
+    { method: 'get', path: `${P}/uploads/templates/long.csv`, access: inProject('read'), params: projectParams, handler: uploads.template('long') },
+    { method: 'get', path: `${P}/uploads/templates/wide.csv`, access: inProject('read'), params: projectParams, handler: uploads.template('wide') },
+    { method: 'get', path: `${P}/uploads/:uploadId`, access: inProject('read'), params: uploadParams, handler: uploads.get },
+    { method: 'get', path: `${P}/uploads/:uploadId/rows`, access: inProject('read'), params: uploadParams, query: uploadRowsQuery, handler: uploads.rows },
+    { method: 'get', path: `${P}/uploads/:uploadId/file`, access: inProject('read'), params: uploadParams, handler: uploads.raw },
+    { method: 'post', path: `${P}/uploads/:uploadId/mapping`, access: inProject('upload'), params: uploadParams, body: remapBody, handler: uploads.remap },
+    { method: 'post', path: `${P}/uploads/:uploadId/commit`, access: inProject('upload'), params: uploadParams, body: commitBody, handler: uploads.commit },
+    { method: 'post', path: `${P}/uploads/:uploadId/discard`, access: inProject('upload'), params: uploadParams, handler: uploads.discard },
   ];
 }
 
 export function mountRoutes(db: Db, routes: RouteDef[]): Router {
   const router = Router();
   for (const r of routes) {
-    const chain: RequestHandler[] = [...(r.before ?? []), requireAccess(db, r.access)];
+    const chain: RequestHandler[] = [...(r.before ?? []), requireAccess(db, r.access), ...(r.receive ?? [])];
     if (r.params) chain.push(validate('params', r.params));
     if (r.query) chain.push(validate('query', r.query));
     if (r.body) chain.push(validate('body', r.body));

@@ -5,6 +5,7 @@ import { createProjectsService } from './modules/projects/projects.service';
 import { createMembersService } from './modules/members/members.service';
 import { createTargetsService } from './modules/targets/targets.service';
 import { createTokensService } from './modules/tokens/tokens.service';
+import { createUploadsService } from './modules/uploads/uploads.service';
 
 /** Services are built once per app, with the app's database and clock. */
 export function createServices(db: Db, clock: Clock) {
@@ -14,6 +15,7 @@ export function createServices(db: Db, clock: Clock) {
     members: createMembersService(db, clock),
     targets: createTargetsService(db, clock),
     tokens: createTokensService(db, clock),
+    uploads: createUploadsService(db, clock),
   };
 }
 

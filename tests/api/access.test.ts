@@ -26,6 +26,8 @@ interface Case {
   /** A request body a permitted caller would send. */
   body?: (w: World) => object;
   query?: string;
+  /** Send SAMPLE_FILE as the multipart field `file`. */
+  file?: boolean;
 }
 
 const cases: Record<string, Case> = {
@@ -53,13 +55,30 @@ const cases: Record<string, Case> = {
   'GET /projects/:projectId/targets/:targetId': { rule: everyone },
   'PATCH /projects/:projectId/targets/:targetId': { rule: editors, body: () => ({ notes: 'Seen again.' }) },
   'DELETE /projects/:projectId/targets/:targetId': { rule: editors },
+  'GET /projects/:projectId/targets/:targetId/derived': { rule: everyone },
+  'GET /projects/:projectId/targets/:targetId/measurements': { rule: everyone },
+  'GET /projects/:projectId/uploads': { rule: everyone },
+  'POST /projects/:projectId/uploads': { rule: editors, file: true },
+  'GET /projects/:projectId/uploads/templates/long.csv': { rule: everyone },
+  'GET /projects/:projectId/uploads/templates/wide.csv': { rule: everyone },
+  'GET /projects/:projectId/uploads/:uploadId': { rule: everyone },
+  'GET /projects/:projectId/uploads/:uploadId/rows': { rule: everyone },
+  'GET /projects/:projectId/uploads/:uploadId/file': { rule: everyone },
+  'POST /projects/:projectId/uploads/:uploadId/mapping': {
+    rule: editors,
+    body: () => ({ mapping: { layout: 'long', columns: { target: { role: 'field', field: 'target' }, quantity: { role: 'field', field: 'quantity' }, value: { role: 'field', field: 'value' }, unit: { role: 'field', field: 'unit' } } } }),
+  },
+  'POST /projects/:projectId/uploads/:uploadId/commit': { rule: editors, body: () => ({}) },
+  'POST /projects/:projectId/uploads/:uploadId/discard': { rule: editors },
 };
+
+const SAMPLE_FILE = 'target,quantity,value,unit\nT 1,parallax,12.5,mas\n';
 
 function declaredRoutes() {
   const db = createDb('file::memory:');
   const services = createServices(db, systemClock);
   const noop: RequestHandler = (_q, _s, n) => n();
-  const routes = apiRoutes(services, createPassport(services.users), noop);
+  const routes = apiRoutes(db, services, createPassport(services.users), noop);
   void db.destroy();
   return routes.map((r) => `${r.method.toUpperCase()} ${r.path}`);
 }
@@ -91,6 +110,16 @@ describe('access to every API route', () => {
         worlds.push(world);
         const [method, pattern] = key.split(' ');
         const session = caller === 'anonymous' ? undefined : await signIn(world.app, caller);
+        let uploadId = '1';
+        if (pattern.includes(':uploadId')) {
+          const lead = await signIn(world.app, 'lead');
+          const made = await lead.agent
+            .post(`/api/projects/${world.projectId}/uploads`)
+            .set('X-CSRF-Token', lead.csrf)
+            .attach('file', Buffer.from(SAMPLE_FILE), 'night.csv')
+            .expect(201);
+          uploadId = String(made.body.upload.id);
+        }
         let tokenId = '1';
         if (session && pattern.includes(':tokenId')) {
           const made = await session.agent.post('/api/tokens').set('X-CSRF-Token', session.csrf).send({ name: 'to revoke' }).expect(201);
@@ -102,13 +131,14 @@ describe('access to every API route', () => {
             .replace(':projectId', String(world.projectId))
             .replace(':targetId', String(world.targetId))
             .replace(':userId', String(world.userIds.observer))
-            .replace(':tokenId', tokenId) +
+            .replace(':tokenId', tokenId)
+            .replace(':uploadId', uploadId) +
           (c.query ?? '');
         const agent = session?.agent ?? request(world.app);
         let req = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](path);
         if (session) req = req.set('X-CSRF-Token', session.csrf);
         const body = key === 'POST /auth/login' ? { email: emails.reader, password: 'correct-horse-battery' } : c.body?.(world);
-        const res = body ? await req.send(body) : await req;
+        const res = c.file ? await req.attach('file', Buffer.from(SAMPLE_FILE), 'night.csv') : body ? await req.send(body) : await req;
         if (want === 'ok') {
           expect(res.status, JSON.stringify(res.body)).toBeGreaterThanOrEqual(200);
           expect(res.status, JSON.stringify(res.body)).toBeLessThan(300);

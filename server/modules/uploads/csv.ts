@@ -1,0 +1,45 @@
+import Papa from 'papaparse';
+import { validationFailed } from '../../lib/errors';
+
+export interface CsvTable {
+  headers: string[];
+  records: string[][];
+  delimiter: string;
+}
+
+/**
+ * Turns the uploaded bytes into text: UTF-8 with or without a byte-order
+ * mark. Anything with NUL bytes or invalid UTF-8 is not a CSV file we can
+ * read, and the message says so instead of importing garbage.
+ */
+export function decodeText(bytes: Buffer): string {
+  if (bytes.length === 0) throw validationFailed([{ path: 'file', message: 'The file is empty.' }]);
+  if (bytes.subarray(0, Math.min(bytes.length, 8192)).includes(0)) {
+    throw validationFailed([{ path: 'file', message: 'This is not a text CSV file (it contains binary data). Export it from your spreadsheet as CSV, UTF-8.' }]);
+  }
+  try {
+    return new TextDecoder('utf-8', { fatal: true, ignoreBOM: false }).decode(bytes);
+  } catch {
+    throw validationFailed([{ path: 'file', message: 'The file is not UTF-8 text. Save it as CSV UTF-8 and upload it again.' }]);
+  }
+}
+
+/** Parses CSV text, detecting the delimiter (comma, semicolon or tab) and the line ends. */
+export function parseCsv(text: string): CsvTable {
+  const result = Papa.parse<string[]>(text, {
+    delimitersToGuess: [',', ';', '\t'],
+    skipEmptyLines: 'greedy',
+    header: false,
+  });
+  const [headerRow, ...records] = result.data;
+  if (!headerRow || headerRow.every((h) => h.trim() === '')) {
+    throw validationFailed([{ path: 'file', message: 'The file is empty.' }]);
+  }
+  const headers = headerRow.map((h) => h.replace(/^\uFEFF/, '').trim());
+  const blank = headers.findIndex((h) => h === '');
+  if (blank >= 0) throw validationFailed([{ path: 'file', message: `Column ${blank + 1} of the header row has no name.` }]);
+  const dup = headers.find((h, i) => headers.findIndex((o) => o.toLowerCase() === h.toLowerCase()) !== i);
+  if (dup) throw validationFailed([{ path: 'file', message: `The header names the column "${dup}" twice.` }]);
+  if (records.length === 0) throw validationFailed([{ path: 'file', message: 'The file has a header row but no data rows.' }]);
+  return { headers, records, delimiter: result.meta.delimiter };
+}

@@ -1,0 +1,94 @@
+import { z } from 'zod';
+import { columnMapping, type ColumnMapping, type RowError } from './measurement-file';
+import { idParam } from './common';
+import { projectParams } from './params';
+
+export const uploadKinds = ['measurements', 'spectrum'] as const;
+export const uploadStatuses = ['previewed', 'committed', 'discarded'] as const;
+
+const jsonField = <S extends z.ZodType>(schema: S) =>
+  z
+    .string()
+    .transform((text, ctx) => {
+      try {
+        return JSON.parse(text) as unknown;
+      } catch {
+        ctx.addIssue({ code: 'custom', message: 'Not valid JSON.' });
+        return z.NEVER;
+      }
+    })
+    .pipe(schema);
+
+/** The text fields that travel with the multipart file. */
+export const createUploadFields = z.object({
+  kind: z.enum(uploadKinds).default('measurements'),
+  mapping: jsonField(columnMapping).optional(),
+  targetId: z.coerce.number().int().positive().optional(),
+  wavelengthUnit: z.enum(['nm', 'angstrom', 'um', 'm']).optional(),
+});
+export type CreateUploadFields = z.output<typeof createUploadFields>;
+
+export const remapBody = z.object({ mapping: columnMapping });
+export const commitBody = z.object({
+  /** Commit even though the same bytes were uploaded before. */
+  confirmDuplicate: z.boolean().default(false),
+});
+export const uploadParams = projectParams.extend({ uploadId: idParam });
+export const uploadRowsQuery = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(100),
+  onlyErrors: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+});
+
+export interface Caution {
+  row: number | null;
+  target: string;
+  message: string;
+}
+
+export interface SpectrumPreview {
+  targetId: number;
+  wavelengthUnit: string;
+  /** [wavelength m, flux as sent] */
+  points: [number, number][];
+  fit: {
+    temperatureK: number;
+    temperatureSigmaK: number;
+    logScale: number;
+    reducedChiSquare: number;
+    peakWavelengthM: number;
+    peakWavelengthSigmaM: number;
+    warnings: { code: string; message: string }[];
+  } | null;
+}
+
+export interface Upload {
+  id: number;
+  projectId: number;
+  kind: (typeof uploadKinds)[number];
+  filename: string;
+  sizeBytes: number;
+  sha256: string;
+  status: (typeof uploadStatuses)[number];
+  rowCount: number;
+  measurementCount: number;
+  errorCount: number;
+  errors: RowError[];
+  mapping: ColumnMapping | null;
+  headers: string[];
+  newTargets: string[];
+  cautions: Caution[];
+  duplicateOf: number | null;
+  spectrum: SpectrumPreview | null;
+  uploadedBy: string | null;
+  createdAt: string;
+  committedAt: string | null;
+}
+
+export interface UploadRowsPage {
+  headers: string[];
+  rows: { row: number; cells: string[]; errors: RowError[] }[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
