@@ -36,7 +36,8 @@ export function applyServerErrors<T extends FieldValues>(
  * Messages written in the shared schemas still take precedence.
  */
 export const formParseOptions = {
-  error: (issue: { code?: string; expected?: string; input?: unknown }) => {
+  error: (issue: { code?: string; expected?: string; input?: unknown; origin?: string; minimum?: unknown }) => {
+    if (issue.code === 'too_small' && issue.origin === 'string' && Number(issue.minimum) === 1) return 'This field is required.';
     if (issue.code !== 'invalid_type') return undefined;
     if (issue.expected === 'number') return issue.input === undefined ? 'Enter a number.' : 'Enter a number (digits, with a point for decimals).';
     if (issue.input === undefined || issue.input === '') return 'This field is required.';

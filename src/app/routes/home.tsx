@@ -22,9 +22,9 @@ export function HomeRoute() {
       {projects.isPending ? <StatusLine>Loading your projects…</StatusLine> : null}
       {projects.isError ? <QueryError what="Your projects" error={projects.error} onRetry={() => void projects.refetch()} /> : null}
       {projects.data && projects.data.length === 0 ? (
-        <EmptyState title="No projects yet">
+        <EmptyState title="You are not a member of any project">
           {user.isSiteAdmin
-            ? 'Create the first observing programme below.'
+            ? 'Projects you create appear here only if you are a member: name yourself as lead astronomer, or ask the project’s lead to add you.'
             : 'A project’s lead astronomer adds you to it; once they have, it appears here.'}
         </EmptyState>
       ) : null}

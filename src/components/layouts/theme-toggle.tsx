@@ -19,7 +19,7 @@ export function ThemeToggle({ className }: { className?: string }) {
         <path d="M10.5 1.2A6.8 6.8 0 1 0 14.8 11 5.6 5.6 0 0 1 10.5 1.2Z" />
       </svg>
       Night theme
-      <span className="text-xs text-ink-soft">{night ? 'on' : 'off'}</span>
+      <span aria-hidden="true" className="text-xs text-ink-soft">{night ? 'on' : 'off'}</span>
     </button>
   );
 }
