@@ -135,7 +135,7 @@ function normaliseBand(band: string): string {
 /** Suggests a mapping from a header row: the long layout when it has quantity and value columns, otherwise a wide guess. */
 export function suggestMapping(headers: string[]): ColumnMapping {
   const names = headers.map(normaliseHeader);
-  const isLong = names.includes('quantity') && names.includes('value');
+  const isLong = names.includes('quantity') || names.includes('value');
   const columns: Record<string, ColumnRole> = {};
   headers.forEach((header, i) => {
     const name = names[i];
