@@ -105,10 +105,13 @@ export function inverseVarianceMean(estimates: readonly Measured[], quantity: st
     const spread = n > 1 ? Math.sqrt(estimates.reduce((s, e) => s + (e.value - mean) ** 2, 0) / (n - 1) / n) : 0;
     return { mean: { value: mean, sigma: spread }, chiSquare: 0, degreesOfFreedom: n - 1, weighted: false, discordantPairs };
   }
+  // Weights relative to the smallest σ keep Σw finite even for σ near the
+  // smallest double, where 1/σ² overflows.
+  const sigmaMin = Math.min(...estimates.map((e) => e.sigma));
   let sumW = 0;
   let sumWx = 0;
   for (const e of estimates) {
-    const w = 1 / (e.sigma * e.sigma);
+    const w = (sigmaMin / e.sigma) ** 2;
     sumW += w;
     sumWx += w * e.value;
   }
@@ -116,7 +119,7 @@ export function inverseVarianceMean(estimates: readonly Measured[], quantity: st
   let chiSquare = 0;
   for (const e of estimates) chiSquare += ((e.value - mean) / e.sigma) ** 2;
   return {
-    mean: { value: requireFiniteResult(mean, quantity), sigma: requireFiniteResult(Math.sqrt(1 / sumW), quantity) },
+    mean: { value: requireFiniteResult(mean, quantity), sigma: requireFiniteResult(sigmaMin / Math.sqrt(sumW), quantity) },
     chiSquare,
     degreesOfFreedom: n - 1,
     weighted: true,

@@ -99,25 +99,34 @@ function disagreementWarnings(
   });
 }
 
-/** Combines repeated measurements of one kind by inverse-variance weighting. */
-function combineMeasurements(list: readonly ValidMeasurement[], quantity: QuantityId, what: string): Source | null {
+/**
+ * Combines repeated measurements of one kind by inverse-variance weighting.
+ * A combination that cannot be formed becomes an issue, never a throw.
+ */
+function combineMeasurements(list: readonly ValidMeasurement[], quantity: QuantityId, what: string, issues: DerivationIssue[]): Source | null {
   if (list.length === 0) return null;
   const estimates = list.map((m) => ({ value: m.value, sigma: m.sigma }));
   const ids = list.map((m) => m.id);
   const warnings = missingUncertaintyWarnings(list, quantity);
   if (list.length === 1) return { value: estimates[0], ids, warnings };
-  const combination = inverseVarianceMean(estimates, quantity, DISAGREEMENT_SIGMA);
-  warnings.push(
-    ...disagreementWarnings(
-      quantity,
-      what,
-      list.map((m) => `measurement ${String(m.id)}`),
-      estimates,
-      combination.discordantPairs,
-      'measurements_disagree',
-    ),
-  );
-  return { value: combination.mean, ids, warnings };
+  try {
+    const combination = inverseVarianceMean(estimates, quantity, DISAGREEMENT_SIGMA);
+    warnings.push(
+      ...disagreementWarnings(
+        quantity,
+        what,
+        list.map((m) => `measurement ${String(m.id)}`),
+        estimates,
+        combination.discordantPairs,
+        'measurements_disagree',
+      ),
+    );
+    return { value: combination.mean, ids, warnings };
+  } catch (error) {
+    if (!(error instanceof PhysicsError)) throw error;
+    issues.push({ quantity, code: error.code, message: `${what} cannot be combined: ${error.message}`, ...(error.limit ? { limit: error.limit } : {}) });
+    return null;
+  }
 }
 
 function monteCarloWarnings(result: MonteCarloResult, quantity: QuantityId): PhysicsWarning[] {
@@ -213,7 +222,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   });
 
   // Shared inputs: E(B−V) and the B−V colour.
-  const extinctionSource = combineMeasurements(byKind('extinction'), 'temperature_colour', 'E(B−V) measurements');
+  const extinctionSource = combineMeasurements(byKind('extinction'), 'temperature_colour', 'E(B−V) measurements', issues);
   const extinctionWarnings = (quantity: QuantityId): PhysicsWarning[] => {
     if (!extinctionSource) {
       return [
@@ -241,7 +250,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   const bMagnitudes = byKind('magnitude', 'B');
 
   // temperature_wien
-  const peak = combineMeasurements(use(byKind('peak_wavelength')), 'temperature_wien', 'peak wavelengths');
+  const peak = combineMeasurements(use(byKind('peak_wavelength')), 'temperature_wien', 'peak wavelengths', issues);
   if (peak) {
     attempt('temperature_wien', () => {
       const t = wienTemperature(peak.value);
@@ -258,11 +267,11 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   }
 
   // temperature_colour
-  let colour: Source | null = combineMeasurements(use(byKind('colour_index', 'B-V')), 'temperature_colour', 'B−V measurements');
+  let colour: Source | null = combineMeasurements(use(byKind('colour_index', 'B-V')), 'temperature_colour', 'B−V measurements', issues);
   let colourFromMagnitudes = false;
   if (!colour && vMagnitudes.length > 0 && bMagnitudes.length > 0) {
-    const b = combineMeasurements(use(bMagnitudes), 'temperature_colour', 'B magnitudes');
-    const v = combineMeasurements(use([...vMagnitudes]), 'temperature_colour', 'V magnitudes');
+    const b = combineMeasurements(use(bMagnitudes), 'temperature_colour', 'B magnitudes', issues);
+    const v = combineMeasurements(use([...vMagnitudes]), 'temperature_colour', 'V magnitudes', issues);
     if (b && v) {
       colour = {
         value: { value: b.value.value - v.value.value, sigma: Math.hypot(b.value.sigma, v.value.sigma) },
@@ -292,7 +301,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   }
 
   // temperature_planck
-  const planck = combineMeasurements(use(byKind('planck_temperature')), 'temperature_planck', 'Planck-fit temperatures');
+  const planck = combineMeasurements(use(byKind('planck_temperature')), 'temperature_planck', 'Planck-fit temperatures', issues);
   if (planck) {
     attempt('temperature_planck', () => {
       record('temperature_planck', {
@@ -375,7 +384,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   }
 
   // bolometric_flux
-  const measuredFlux = combineMeasurements(use(byKind('bolometric_flux')), 'bolometric_flux', 'bolometric fluxes');
+  const measuredFlux = combineMeasurements(use(byKind('bolometric_flux')), 'bolometric_flux', 'bolometric fluxes', issues);
   if (measuredFlux) {
     attempt('bolometric_flux', () => {
       record('bolometric_flux', {
@@ -388,7 +397,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
       });
     });
   } else if (vMagnitudes.length > 0 && temperature) {
-    const v = combineMeasurements(use([...vMagnitudes]), 'bolometric_flux', 'V magnitudes');
+    const v = combineMeasurements(use([...vMagnitudes]), 'bolometric_flux', 'V magnitudes', issues);
     if (extinctionSource) use(byKind('extinction'));
     if (v) {
       attempt('bolometric_flux', () => {
@@ -412,7 +421,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   const flux = results.bolometric_flux ? { value: results.bolometric_flux.value, sigma: results.bolometric_flux.uncertainty } : null;
 
   // distance_parallax
-  const parallax = combineMeasurements(use(byKind('parallax')), 'distance_parallax', 'parallaxes');
+  const parallax = combineMeasurements(use(byKind('parallax')), 'distance_parallax', 'parallaxes', issues);
   if (parallax) {
     attempt('distance_parallax', () => {
       const d = parallaxDistance(parallax.value);

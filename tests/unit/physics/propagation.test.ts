@@ -1,0 +1,110 @@
+import { describe, expect, it } from 'vitest';
+import { PhysicsError } from '@shared/physics/errors';
+import { firstOrder, inverseVarianceMean, measured, powerLaw } from '@shared/physics/measured';
+import { monteCarlo } from '@shared/physics/monte-carlo';
+import { gaussian, mulberry32, seedFor } from '@shared/physics/random';
+
+describe('measured values', () => {
+  it('refuses NaN, Infinity and a negative σ with typed errors', () => {
+    expect(() => measured(Number.NaN, 1, 'x')).toThrow(PhysicsError);
+    expect(() => measured(1, Number.POSITIVE_INFINITY, 'x')).toThrow(PhysicsError);
+    try {
+      measured(1, -1, 'parallax');
+      expect.unreachable();
+    } catch (e) {
+      expect((e as PhysicsError).code).toBe('negative_uncertainty');
+      expect((e as PhysicsError).quantity).toBe('parallax');
+    }
+  });
+
+  it('power law: (σ_y/y)² = Σ (kᵢ σᵢ / xᵢ)² (REFERENCES.md "Uncertainties"; GUM §5.1.6)', () => {
+    const y = powerLaw(2, [
+      { x: { value: 4, sigma: 0.4 }, power: 0.5, name: 'a' },
+      { x: { value: 10, sigma: 0.2 }, power: -2, name: 'b' },
+    ], 'y');
+    expect(y.value).toBeCloseTo(2 * 2 * 0.01, 15);
+    expect(y.sigma / y.value).toBeCloseTo(Math.hypot(0.05, 0.04), 12);
+  });
+
+  it('inverse-variance mean of 10 ± 1 and 12 ± 2 is 10.4 ± 0.894 (Bevington & Robinson §4.1)', () => {
+    const c = inverseVarianceMean([{ value: 10, sigma: 1 }, { value: 12, sigma: 2 }], 't');
+    expect(c.mean.value).toBeCloseTo(10.4, 12);
+    expect(c.mean.sigma).toBeCloseTo(Math.sqrt(0.8), 12);
+    expect(c.discordantPairs).toHaveLength(0);
+    const far = inverseVarianceMean([{ value: 10, sigma: 1 }, { value: 20, sigma: 1 }], 't');
+    expect(far.discordantPairs).toEqual([[0, 1]]);
+  });
+});
+
+describe('seeded random numbers', () => {
+  it('mulberry32 is deterministic per seed and uniform in [0, 1)', () => {
+    const a = mulberry32(123);
+    const b = mulberry32(123);
+    let sum = 0;
+    for (let i = 0; i < 10_000; i++) {
+      const x = a();
+      expect(x).toBe(b());
+      expect(x).toBeGreaterThanOrEqual(0);
+      expect(x).toBeLessThan(1);
+      sum += x;
+    }
+    expect(sum / 10_000).toBeCloseTo(0.5, 1);
+  });
+
+  it('Box–Muller deviates have mean 0 and standard deviation 1 (Box & Muller 1958)', () => {
+    const normal = gaussian(mulberry32(7));
+    let s = 0;
+    let s2 = 0;
+    const n = 100_000;
+    for (let i = 0; i < n; i++) {
+      const x = normal();
+      s += x;
+      s2 += x * x;
+    }
+    expect(s / n).toBeCloseTo(0, 1);
+    expect(Math.sqrt(s2 / n)).toBeCloseTo(1, 1);
+  });
+
+  it('each label draws its own stream from one base seed', () => {
+    expect(seedFor(1, 'temperature_colour')).not.toBe(seedFor(1, 'bolometric_flux'));
+    expect(seedFor(1, 'temperature_colour')).toBe(seedFor(1, 'temperature_colour'));
+  });
+});
+
+describe('Monte Carlo against first order', () => {
+  it('agree on a near-linear case: y = x₁ x₂² with 0.5 % inputs (JCGM 101:2008 vs GUM)', () => {
+    const inputs = [{ value: 3, sigma: 0.015 }, { value: 5, sigma: 0.025 }];
+    const f = (x: ArrayLike<number>) => x[0] * x[1] * x[1];
+    const mc = monteCarlo(f, inputs, 'y', { samples: 40_000, seed: 11 });
+    const fo = firstOrder((x) => f(x), inputs, 'y');
+    const pl = powerLaw(1, [{ x: inputs[0], power: 1, name: 'a' }, { x: inputs[1], power: 2, name: 'b' }], 'y');
+    expect(fo.sigma).toBeCloseTo(pl.sigma, 9);
+    expect(mc.value).toBe(75);
+    expect(mc.sigma / fo.sigma).toBeGreaterThan(0.98);
+    expect(mc.sigma / fo.sigma).toBeLessThan(1.02);
+  });
+
+  it('counts draws outside the domain as rejected instead of clipping them', () => {
+    const f = (x: ArrayLike<number>) => {
+      if (x[0] <= 0) throw new PhysicsError('non_positive', 'x', 'x must be positive');
+      return Math.log(x[0]);
+    };
+    const mc = monteCarlo(f, [{ value: 1, sigma: 1 }], 'y', { samples: 2000, seed: 1 });
+    expect(mc.rejected / 2000).toBeCloseTo(0.16, 1);
+    expect(Number.isFinite(mc.sigma)).toBe(true);
+  });
+
+  it('refuses when fewer than 50 draws fall inside the domain, naming the quantity', () => {
+    const narrow = (x: ArrayLike<number>) => {
+      if (Math.abs(x[0] - 1) > 1e-3) throw new PhysicsError('out_of_range', 'x', 'x outside its window');
+      return x[0];
+    };
+    try {
+      monteCarlo(narrow, [{ value: 1, sigma: 10 }], 'luminosity_hr', { samples: 1000 });
+      expect.unreachable();
+    } catch (e) {
+      expect((e as PhysicsError).code).toBe('out_of_range');
+      expect((e as PhysicsError).quantity).toBe('luminosity_hr');
+    }
+  });
+});
