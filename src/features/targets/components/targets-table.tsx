@@ -169,6 +169,8 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
     manualFiltering: true,
     enableSortingRemoval: false,
     enableMultiSort: false,
+    // Every column starts ascending on first click, numbers included, as a ledger is read.
+    sortDescFirst: false,
     rowCount: data?.total ?? 0,
     state: { sorting, pagination },
     meta: { filterByTag: (tag: string) => update({ tag }) } satisfies TableActions,
