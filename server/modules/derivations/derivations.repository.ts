@@ -1,6 +1,7 @@
 import type { Db } from '../../db/knex';
 import type { DerivedStatus, DerivedValue } from '../../../shared/schemas/derived';
 import { chunks } from '../../lib/chunks';
+import { bulkInsert } from '../../db/bulk-insert';
 import { parseJson, toIso } from '../../lib/rows';
 
 export interface DerivedRow {
@@ -58,9 +59,8 @@ export async function latestRevisions(db: Db, targetIds: number[]): Promise<Map<
 
 export type NewDerivedRow = Omit<DerivedRow, 'id' | 'reviewed_at' | 'review_note'> & { proposed_by_user_id: number | null };
 
-// 17 columns a row: 1000 rows a statement stay below SQLite's 32 766 bound parameters.
 export async function insertDerivedRows(db: Db, rows: NewDerivedRow[]): Promise<void> {
-  for (const batch of chunks(rows, 1000)) await db('derived_values').insert(batch);
+  await bulkInsert(db, 'derived_values', rows);
 }
 
 export async function markSuperseded(db: Db, ids: number[]): Promise<void> {

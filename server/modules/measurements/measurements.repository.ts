@@ -2,6 +2,7 @@ import type { Db } from '../../db/knex';
 import type { Measurement } from '../../../shared/schemas/derived';
 import type { MeasurementInput } from '../../../shared/physics/derive';
 import { chunks } from '../../lib/chunks';
+import { bulkInsert } from '../../db/bulk-insert';
 import { parseJson, toIso } from '../../lib/rows';
 
 export interface NewMeasurement {
@@ -26,14 +27,12 @@ export interface NewMeasurement {
   observerUserId: number;
 }
 
-// 20 columns a row: 1000 rows a statement stay below SQLite's 32 766 bound parameters.
-const INSERT_BATCH = 1000;
-
 export async function insertMeasurements(db: Db, rows: NewMeasurement[], at: Date): Promise<void> {
   const created = at.toISOString();
-  for (const batch of chunks(rows, INSERT_BATCH)) {
-    await db('measurements').insert(
-      batch.map((m) => ({
+  await bulkInsert(
+    db,
+    'measurements',
+    rows.map((m) => ({
         project_id: m.projectId,
         target_id: m.targetId,
         upload_id: m.uploadId,
@@ -55,8 +54,7 @@ export async function insertMeasurements(db: Db, rows: NewMeasurement[], at: Dat
         observer_user_id: m.observerUserId,
         created_at: created,
       })),
-    );
-  }
+  );
 }
 
 /** Every measurement of the given targets, in the engine's input form, grouped by target. */

@@ -11,6 +11,7 @@ import { rederiveTargets } from '../derivations/derivations.service';
 import { findTarget } from '../targets/targets.repository';
 import { decodeText, parseCsv, type CsvTable } from './csv';
 import { readSpectrum } from './spectrum';
+import { bulkInsert } from '../../db/bulk-insert';
 import {
   earlierUploadWithHash,
   findUpload,
@@ -144,22 +145,22 @@ export function createUploadsService(db: Db, clock: Clock) {
       if (!known.has(r.targetKey) && r.raDeg !== null && !firstWithCoords.has(r.targetKey)) firstWithCoords.set(r.targetKey, r);
     }
     const toCreate = [...firstWithCoords.values()];
-    for (let i = 0; i < toCreate.length; i += 1000) {
-      await trx('targets').insert(
-        toCreate.slice(i, i + 1000).map((r) => ({
-          project_id: projectId,
-          designation: r.target,
-          designation_key: r.targetKey,
-          ra_deg: r.raDeg,
-          dec_deg: r.decDeg,
-          notes: '',
-          tags: '[]',
-          created_at: now.toISOString(),
-          updated_at: now.toISOString(),
-        })),
-      );
-      created.push(...toCreate.slice(i, i + 1000).map((r) => r.target));
-    }
+    await bulkInsert(
+      trx,
+      'targets',
+      toCreate.map((r) => ({
+        project_id: projectId,
+        designation: r.target,
+        designation_key: r.targetKey,
+        ra_deg: r.raDeg,
+        dec_deg: r.decDeg,
+        notes: '',
+        tags: '[]',
+        created_at: now.toISOString(),
+        updated_at: now.toISOString(),
+      })),
+    );
+    created.push(...toCreate.map((r) => r.target));
     const ids = toCreate.length ? await projectTargets(trx, projectId) : known;
     const measurements: NewMeasurement[] = state.rows.map((r) => {
       const target = ids.get(r.targetKey);
