@@ -18,7 +18,10 @@ export type PhysicsErrorCode =
   | 'peak_at_edge'
   | 'too_few_points';
 
-/** An input a physics function refuses: never answered with NaN, Infinity or a clamp. */
+/**
+ * An input a physics function refuses: never answered with NaN, Infinity or a clamp.
+ * @see PRODUCT.md "Derivations": bad input gives a clear typed error, never NaN or Infinity
+ */
 export class PhysicsError extends Error {
   readonly code: PhysicsErrorCode;
   /** The quantity (measurement kind, derived quantity id or parameter name) that was refused. */
@@ -58,7 +61,10 @@ export interface PhysicsWarning {
   limit?: string;
 }
 
-/** Throws PhysicsError('not_finite') unless `value` is a finite number. */
+/**
+ * Throws PhysicsError('not_finite') unless `value` is a finite number.
+ * @see PRODUCT.md "Derivations": bad input gives a clear typed error, never NaN or Infinity
+ */
 export function requireFinite(value: number, quantity: string): number {
   if (typeof value !== 'number' || !Number.isFinite(value)) {
     throw new PhysicsError('not_finite', quantity, `${quantity} must be a finite number (got ${String(value)})`, 'finite');
@@ -66,7 +72,10 @@ export function requireFinite(value: number, quantity: string): number {
   return value;
 }
 
-/** Throws unless `value` is finite and strictly positive. */
+/**
+ * Throws unless `value` is finite and strictly positive.
+ * @see PRODUCT.md "Derivations": bad input gives a clear typed error, never NaN or Infinity
+ */
 export function requirePositive(value: number, quantity: string): number {
   requireFinite(value, quantity);
   if (value <= 0) {
@@ -75,7 +84,10 @@ export function requirePositive(value: number, quantity: string): number {
   return value;
 }
 
-/** Throws unless `sigma` is finite and not negative (0 means "no uncertainty given"). */
+/**
+ * Throws unless `sigma` is finite and not negative (0 means "no uncertainty given").
+ * @see PRODUCT.md "Derivations": bad input gives a clear typed error, never NaN or Infinity
+ */
 export function requireUncertainty(sigma: number, quantity: string): number {
   if (typeof sigma !== 'number' || !Number.isFinite(sigma)) {
     throw new PhysicsError('not_finite', quantity, `uncertainty of ${quantity} must be a finite number (got ${String(sigma)})`, 'finite');
@@ -86,7 +98,10 @@ export function requireUncertainty(sigma: number, quantity: string): number {
   return sigma;
 }
 
-/** Guards a computed result: a non-finite value here is refused rather than returned. */
+/**
+ * Guards a computed result: a non-finite value here is refused rather than returned.
+ * @see PRODUCT.md "Derivations": bad input gives a clear typed error, never NaN or Infinity
+ */
 export function requireFiniteResult(value: number, quantity: string): number {
   if (!Number.isFinite(value)) {
     throw new PhysicsError('out_of_range', quantity, `${quantity} cannot be computed from these inputs (the result is not a finite number)`, 'finite result');

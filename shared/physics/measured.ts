@@ -10,7 +10,10 @@ export interface Measured {
   readonly sigma: number;
 }
 
-/** Creates a Measured after checking that value is finite and sigma finite and ≥ 0. */
+/**
+ * Creates a Measured after checking that value is finite and sigma finite and ≥ 0.
+ * @see JCGM 100:2008 (GUM), standard uncertainty
+ */
 export function measured(value: number, sigma: number, quantity: string): Measured {
   requireFinite(value, quantity);
   requireUncertainty(sigma, quantity);

@@ -24,7 +24,10 @@ export const MEASUREMENT_KINDS = [
 
 export type MeasurementKind = (typeof MEASUREMENT_KINDS)[number];
 
-/** True when `kind` is one of MEASUREMENT_KINDS. */
+/**
+ * True when `kind` is one of MEASUREMENT_KINDS.
+ * @see PRODUCT.md "The measurement file" (quantity column)
+ */
 export function isMeasurementKind(kind: unknown): kind is MeasurementKind {
   return typeof kind === 'string' && (MEASUREMENT_KINDS as readonly string[]).includes(kind);
 }

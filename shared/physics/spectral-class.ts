@@ -25,16 +25,6 @@ export function spectralIndexOfType(spectralType: string): number {
   return LETTERS.indexOf(match[1] as (typeof LETTERS)[number]) * 10 + Number(match[2]);
 }
 
-/**
- * Formats a continuous index as class and subclass, e.g. 42 → "G2", 9.5 → "O9.5".
- * @see spectralIndexOfType
- */
-export function spectralTypeOfIndex(index: number): string {
-  const letter = Math.min(LETTERS.length - 1, Math.max(0, Math.floor(index / 10)));
-  const sub = Math.round((index - letter * 10) * 10) / 10;
-  return `${LETTERS[letter]}${sub}`;
-}
-
 const INDEX_OF_ROW = new Map<DwarfSequenceRow, number>(DWARF_SEQUENCE.map((row) => [row, spectralIndexOfType(row.spectralType)]));
 const indexColumn = (row: DwarfSequenceRow): number => INDEX_OF_ROW.get(row) as number;
 

@@ -12,7 +12,6 @@ import { MEASUREMENT_SI_UNIT, isMeasurementKind, type MeasurementKind } from './
 
 export type Dimension =
   | 'length'
-  | 'spectral_flux'
   | 'flux'
   | 'angle'
   | 'luminosity'
@@ -90,6 +89,7 @@ const ALIASES: Readonly<Record<string, UnitName>> = Object.freeze({
  * Resolves a unit name as written in a file to its canonical name; surrounding
  * spaces are ignored, letter case is not (mas and Mas are not the same unit).
  * Throws PhysicsError('unknown_unit') for anything else.
+ * @see PRODUCT.md "The measurement file" (unit names)
  */
 export function parseUnit(text: string, quantity = 'unit'): UnitName {
   const trimmed = typeof text === 'string' ? text.trim() : '';
@@ -99,17 +99,18 @@ export function parseUnit(text: string, quantity = 'unit'): UnitName {
   throw new PhysicsError('unknown_unit', quantity, `unknown unit "${String(text)}" for ${quantity}`);
 }
 
-/** Dimension of a canonical unit. */
-export function dimensionOf(unit: UnitName): Dimension {
-  return UNITS[unit].dimension;
-}
-
-/** Converts `value` in `unit` to the SI unit of its dimension (linear factor). */
+/**
+ * Converts `value` in `unit` to the SI unit of its dimension (linear factor).
+ * @see BIPM, The International System of Units (SI Brochure, 9th ed., 2019); IAU 2012 B2 and IAU 2015 B2/B3 for au, pc, L☉, R☉
+ */
 export function toSi(value: number, unit: UnitName): number {
   return value * UNITS[unit].toSi;
 }
 
-/** Converts an SI value to `unit` (linear factor). */
+/**
+ * Converts an SI value to `unit` (linear factor).
+ * @see BIPM, The International System of Units (SI Brochure, 9th ed., 2019); IAU 2012 B2 and IAU 2015 B2/B3 for au, pc, L☉, R☉
+ */
 export function fromSi(valueSi: number, unit: UnitName): number {
   return valueSi / UNITS[unit].toSi;
 }
@@ -118,6 +119,7 @@ export function fromSi(valueSi: number, unit: UnitName): number {
  * Converts between two units of one dimension (e.g. nm → Å, pc → ly,
  * erg s⁻¹ cm⁻² → W m⁻², mas → arcsec, W → L☉). Throws PhysicsError
  * ('unknown_unit') when the dimensions differ.
+ * @see BIPM, The International System of Units (SI Brochure, 9th ed., 2019); IAU 2012 B2 and IAU 2015 B2/B3 for au, pc, L☉, R☉
  */
 export function convert(value: number, from: UnitName, to: UnitName): number {
   if (UNITS[from].dimension !== UNITS[to].dimension) {
@@ -126,7 +128,10 @@ export function convert(value: number, from: UnitName, to: UnitName): number {
   return (value * UNITS[from].toSi) / UNITS[to].toSi;
 }
 
-/** Converts a Quantity to another unit of the same dimension. */
+/**
+ * Converts a Quantity to another unit of the same dimension.
+ * @see BIPM, The International System of Units (SI Brochure, 9th ed., 2019); IAU 2012 B2 and IAU 2015 B2/B3 for au, pc, L☉, R☉
+ */
 export function convertQuantity<U extends UnitName>(quantity: Quantity<UnitName>, to: U): Quantity<U> {
   return { value: convert(quantity.value, quantity.unit, to), unit: to };
 }
@@ -153,7 +158,10 @@ export const ALLOWED_UNITS: Readonly<Record<MeasurementKind, readonly UnitName[]
   planck_temperature: ['K'],
 });
 
-/** The units a file may give for `kind`. Throws PhysicsError('unknown_kind') for an unknown kind. */
+/**
+ * The units a file may give for `kind`. Throws PhysicsError('unknown_kind') for an unknown kind.
+ * @see PRODUCT.md "The measurement file"
+ */
 export function allowedUnits(kind: string): readonly UnitName[] {
   if (!isMeasurementKind(kind)) {
     throw new PhysicsError('unknown_kind', 'quantity', `unknown measurement quantity "${kind}"`);

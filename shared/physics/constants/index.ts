@@ -39,7 +39,10 @@ export const CONSTANTS = Object.freeze({
 
 export type ConstantSymbol = keyof typeof CONSTANTS;
 
-/** Every selected constant, for listing and for the test that each has its source. */
+/**
+ * Every selected constant, for listing and for the test that each has its source.
+ * @see CONVENTIONS.md, the reference-library constants model
+ */
 export function listConstants(): readonly PhysicalConstant[] {
   return Object.values(CONSTANTS);
 }

@@ -99,6 +99,7 @@ function check(m: MeasurementInput): ValidMeasurement {
 /**
  * Splits measurements into usable ones and issues; never throws. An issue
  * names the measurement, the quantity it would have fed, the code and the limit.
+ * @see PRODUCT.md "Derivations" and "The measurement file"
  */
 export function validateMeasurements(measurements: readonly MeasurementInput[]): { valid: ValidMeasurement[]; issues: DerivationIssue[] } {
   const valid: ValidMeasurement[] = [];

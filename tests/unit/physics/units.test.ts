@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { PhysicsError } from '@shared/physics/errors';
 import { MEASUREMENT_KINDS } from '@shared/physics/quantities';
-import { allowedUnits, convert, measurementToSi, parseUnit, toSi } from '@shared/physics/units';
+import { allowedUnits, convert, convertQuantity, measurementToSi, parseUnit, toSi } from '@shared/physics/units';
 
 describe('units', () => {
   it('wavelength: 1 Å = 0.1 nm = 1e-4 µm = 1e-10 m (SI prefixes; the ångström as defined, 1e-10 m)', () => {
@@ -22,6 +22,12 @@ describe('units', () => {
   it('distance: 1 pc = 206 264.806 au and 3.261 563 777 ly (IAU 2015 B2 pc, IAU Julian-year ly)', () => {
     expect(convert(1, 'pc', 'au')).toBeCloseTo(206_264.806_247, 5);
     expect(convert(1, 'pc', 'ly')).toBeCloseTo(3.261_563_777, 8);
+  });
+
+  it('a value keeps its unit through a conversion: 10 pc is 32.6156 ly (IAU 2015 B2 pc, Julian-year ly)', () => {
+    const d = convertQuantity({ value: 10, unit: 'pc' }, 'ly');
+    expect(d.unit).toBe('ly');
+    expect(d.value).toBeCloseTo(32.615_637_77, 7);
   });
 
   it('solar units: L☉ and R☉ are the IAU 2015 B3 nominal values', () => {
