@@ -209,3 +209,23 @@ export function formatResult(result: DisplayableResult): DisplayLine {
   });
   return { name, label: result.label ?? null, values };
 }
+
+// Only ids with an underscore: the one-word ids (temperature, luminosity,
+// radius) read as ordinary words already.
+const QUANTITY_ID_PATTERN = new RegExp(
+  `\\b(${Object.keys(QUANTITY_NAMES)
+    .filter((id) => id.includes('_'))
+    .sort((a, b) => b.length - a.length)
+    .join('|')})\\b`,
+  'g',
+);
+
+/**
+ * Replaces quantity ids in an engine message (they name the quantity for
+ * machines) with the names people read, e.g. temperature_wien →
+ * "effective temperature (Wien)".
+ * @see QUANTITY_NAMES
+ */
+export function readableMessage(message: string): string {
+  return message.replace(QUANTITY_ID_PATTERN, (id) => QUANTITY_NAMES[id as QuantityId].replace(/^./, (c) => c.toLowerCase()));
+}

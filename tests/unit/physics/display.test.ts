@@ -36,3 +36,12 @@ describe('display of values with uncertainties', () => {
     expect(sc.values[0].text).toBe('G2 ± 1.0 subclass');
   });
 });
+
+describe('readable warning text', () => {
+  it('names quantities in words instead of ids', async () => {
+    const { readableMessage } = await import('@shared/physics/display');
+    expect(readableMessage('temperature estimates: temperature_wien and temperature_planck differ by 4.0 σ')).toBe(
+      'temperature estimates: effective temperature (Wien) and effective temperature (Planck fit) differ by 4.0 σ',
+    );
+  });
+});

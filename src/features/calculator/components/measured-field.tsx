@@ -1,0 +1,108 @@
+import { useId, type ReactNode } from 'react';
+import { cn } from '@/lib/cn';
+import type { ValueEntry } from './calculator-inputs';
+
+const inputClasses = (invalid: boolean) =>
+  cn(
+    'w-full min-w-0 rounded-sm border bg-paper px-2 py-1.5 font-sans text-sm text-ink tabular-nums',
+    invalid ? 'border-2 border-alert' : 'border-rule hover:border-ink-soft',
+  );
+
+export const selectClasses = 'rounded-sm border border-rule bg-paper px-2 py-1.5 font-sans text-sm text-ink hover:border-ink-soft';
+
+/**
+ * One measured quantity: its value, "±", its 1-sigma uncertainty and its
+ * unit (fixed text or a choice), with a hint and the reason it was refused.
+ */
+export function MeasuredField({
+  label,
+  entry,
+  onChange,
+  unit,
+  hint,
+  error,
+  placeholder,
+}: {
+  label: ReactNode;
+  entry: ValueEntry;
+  onChange: (entry: ValueEntry) => void;
+  unit: ReactNode;
+  hint?: ReactNode;
+  error?: string;
+  placeholder?: string;
+}) {
+  const id = useId();
+  const hintId = hint ? `${id}-hint` : undefined;
+  const errorId = error ? `${id}-error` : undefined;
+  const describedBy = [hintId, errorId].filter(Boolean).join(' ') || undefined;
+  return (
+    <div className="py-2">
+      <label htmlFor={`${id}-value`} className="mb-1 block text-sm font-semibold text-ink">
+        {label}
+      </label>
+      <div className="grid grid-cols-[minmax(0,1fr)_auto_minmax(0,0.8fr)_auto] items-center gap-2">
+        <input
+          id={`${id}-value`}
+          inputMode="decimal"
+          autoComplete="off"
+          spellCheck={false}
+          placeholder={placeholder}
+          value={entry.value}
+          onChange={(e) => onChange({ ...entry, value: e.target.value })}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={describedBy}
+          className={inputClasses(Boolean(error))}
+        />
+        <span aria-hidden="true" className="text-ink-soft">
+          ±
+        </span>
+        <input
+          id={`${id}-sigma`}
+          inputMode="decimal"
+          autoComplete="off"
+          spellCheck={false}
+          placeholder="σ"
+          value={entry.sigma}
+          onChange={(e) => onChange({ ...entry, sigma: e.target.value })}
+          aria-label={`Uncertainty (1σ) of ${typeof label === 'string' ? label : 'the value'}`}
+          aria-describedby={describedBy}
+          className={inputClasses(false)}
+        />
+        <span className="min-w-12 text-sm text-ink-soft">{unit}</span>
+      </div>
+      {hint ? (
+        <p id={hintId} className="mt-1 text-xs text-ink-soft">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={errorId} className="mt-1 text-sm font-medium text-alert">
+          <span className="font-semibold">Not used:</span> {error}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/** A compact unit chooser for a MeasuredField. */
+export function UnitSelect<U extends string>({
+  label,
+  value,
+  options,
+  onChange,
+}: {
+  label: string;
+  value: U;
+  options: ReadonlyArray<{ value: U; label: string }>;
+  onChange: (unit: U) => void;
+}) {
+  return (
+    <select aria-label={label} value={value} onChange={(e) => onChange(e.target.value as U)} className={selectClasses}>
+      {options.map((o) => (
+        <option key={o.value} value={o.value}>
+          {o.label}
+        </option>
+      ))}
+    </select>
+  );
+}
