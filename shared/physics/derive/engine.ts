@@ -30,6 +30,14 @@ import type {
 } from './types';
 import { validateMeasurements, type ValidMeasurement } from './validate';
 
+/** How the adopted temperature's method names its estimates. */
+const ESTIMATE_WORDS = { temperature_wien: 'Wien', temperature_colour: 'colour', temperature_planck: 'Planck-fit' } as const;
+
+/** "a", "a and b", "a, b and c". */
+function wordList(words: readonly string[]): string {
+  return words.length < 2 ? words.join('') : `${words.slice(0, -1).join(', ')} and ${words[words.length - 1]}`;
+}
+
 /** Above this share of rejected Monte Carlo draws a result says so. */
 const REJECTED_DRAWS_LIMIT = 0.01;
 /** Estimates further apart than this many combined sigma are flagged. */
@@ -221,8 +229,9 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
     warnings: monteCarloWarnings(mc, quantity),
   });
 
-  // Shared inputs: E(B−V) and the B−V colour.
-  const extinctionSource = combineMeasurements(byKind('extinction'), 'temperature_colour', 'E(B−V) measurements', issues);
+  // Shared input: E(B−V), used by the colour temperature and by the flux from V.
+  const extinctionList = byKind('extinction');
+  const extinctionSource = combineMeasurements(extinctionList, 'temperature_colour', 'E(B−V) measurements', issues);
   const extinctionWarnings = (quantity: QuantityId): PhysicsWarning[] => {
     if (!extinctionSource) {
       return [
@@ -234,7 +243,11 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
         },
       ];
     }
-    const out = extinctionSource.warnings.map((w) => ({ ...w, quantity }));
+    // Disagreement warnings name measurements, not the quantity, so they carry over as they are.
+    const out: PhysicsWarning[] = [
+      ...missingUncertaintyWarnings(extinctionList, quantity),
+      ...extinctionSource.warnings.filter((w) => w.code !== 'uncertainty_missing').map((w) => ({ ...w, quantity })),
+    ];
     if (extinctionSource.value.value < 0) {
       out.push({
         code: 'extinction_negative',
@@ -283,7 +296,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   }
   if (colour) {
     const c = colour;
-    if (extinctionSource) use(byKind('extinction'));
+    if (extinctionSource) use(extinctionList);
     attempt('temperature_colour', () => {
       const ct = colourTemperature(c.value, extinctionSource?.value, mcOptions('temperature_colour'));
       const mc = mcResult('temperature_colour', ct.temperatureK);
@@ -307,7 +320,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
       record('temperature_planck', {
         value: planck.value.value,
         uncertainty: planck.value.sigma,
-        method: { id: 'planck_fit', label: 'least-squares Planck fit to the calibrated spectrum, as recorded at upload' },
+        method: { id: 'planck_fit', label: 'least-squares Planck fit to a flux-calibrated spectrum' },
         propagation: planck.ids.length > 1 ? 'combination' : 'as_measured',
         ids: planck.ids,
         constants: ['h', 'c', 'k_B'],
@@ -354,8 +367,8 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
           id: 'inverse_variance_mean',
           label:
             estimateIds.length === 1
-              ? `the only estimate, ${estimateIds[0]}`
-              : `${combination.weighted ? 'inverse-variance mean' : 'mean'} of ${estimateIds.join(', ')}${note}`,
+              ? `the only estimate, the ${ESTIMATE_WORDS[estimateIds[0]]} temperature`
+              : `${combination.weighted ? 'inverse-variance mean' : 'mean'} of the ${wordList(estimateIds.map((q) => ESTIMATE_WORDS[q]))} temperatures${note}`,
         },
         propagation: 'combination',
         dependsOn: [...estimateIds],
@@ -398,7 +411,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
     });
   } else if (vMagnitudes.length > 0 && temperature) {
     const v = combineMeasurements(use([...vMagnitudes]), 'bolometric_flux', 'V magnitudes', issues);
-    if (extinctionSource) use(byKind('extinction'));
+    if (extinctionSource) use(extinctionList);
     if (v) {
       attempt('bolometric_flux', () => {
         const flux = bolometricFluxFromV(v.value, temperature, extinctionSource?.value, opts.rV, mcOptions('bolometric_flux'));

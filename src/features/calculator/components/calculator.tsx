@@ -74,6 +74,27 @@ const SECTIONS: ReadonlyArray<{ title: string; quantities: readonly QuantityId[]
   },
 ];
 
+/** How the page names each measurement when the engine's texts refer to it by id. */
+const FIELD_LABELS: Readonly<Record<FieldId, string>> = {
+  peak: 'the peak wavelength',
+  planck: 'the Planck-fit temperature',
+  bv: 'B−V',
+  ebv: 'E(B−V)',
+  v: 'V',
+  flux: 'the bolometric flux',
+  parallax: 'the parallax',
+  line: 'the observed wavelength',
+  limb: 'the limb separation',
+  zeeman: 'the Zeeman shift',
+  rV: 'R_V',
+};
+
+/** Engine texts in the page's words: measurement ids become field names, quantity ids become names. */
+function wording(text: string): string {
+  const named = text.replace(/measurement (\w+)(?: \([a-z_]+(?: [^)]*)?\))?/g, (whole, id: string) => FIELD_LABELS[id as FieldId] ?? whole);
+  return readableMessage(named).replace(/^the /, 'The ');
+}
+
 /** Field wording for the engine's refusal codes; other codes carry the engine's own message. */
 const REFUSAL_WORDING: Partial<Record<DerivationIssue['code'], string>> = {
   non_positive: 'Must be greater than zero.',
@@ -82,7 +103,7 @@ const REFUSAL_WORDING: Partial<Record<DerivationIssue['code'], string>> = {
 };
 
 function fieldMessage(issue: DerivationIssue): string {
-  return REFUSAL_WORDING[issue.code] ?? readableMessage(issue.message.replace(/^measurement \S+ refused: /, ''));
+  return REFUSAL_WORDING[issue.code] ?? wording(issue.message.replace(/^measurement \S+ refused: /, ''));
 }
 
 /**
@@ -270,7 +291,7 @@ export function Calculator() {
               <h2 className="mb-1 border-b border-rule pb-1 font-serif text-xl font-semibold text-ink">{section.title}</h2>
               <dl>
                 {section.quantities.map((q) => (
-                  <LedgerLine key={q} quantity={q} result={graph.results[q]} issues={quantityIssues(q)} needs={NEEDS[q]} />
+                  <LedgerLine key={q} quantity={q} result={graph.results[q]} issues={quantityIssues(q)} needs={NEEDS[q]} wording={wording} />
                 ))}
               </dl>
               {section.note ? <p className="mt-2 text-xs text-ink-soft">{section.note}</p> : null}

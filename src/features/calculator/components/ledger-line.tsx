@@ -1,13 +1,26 @@
 import type { DerivationIssue, DerivedResult } from '@shared/physics/derive';
-import { formatResult, QUANTITY_NAMES, readableMessage } from '@shared/physics/display';
+import { formatResult, QUANTITY_NAMES } from '@shared/physics/display';
 import type { QuantityId } from '@shared/physics/quantities';
 
 /**
  * One derived value as a ledger line: value ± σ and unit in tabular figures,
  * then the method in small type, then its warnings spelt out. Without a
  * value, the line says what it still needs or why it could not be derived.
+ * `wording` turns the engine's texts into the page's words.
  */
-export function LedgerLine({ quantity, result, issues, needs }: { quantity: QuantityId; result?: DerivedResult; issues: DerivationIssue[]; needs: string }) {
+export function LedgerLine({
+  quantity,
+  result,
+  issues,
+  needs,
+  wording,
+}: {
+  quantity: QuantityId;
+  result?: DerivedResult;
+  issues: DerivationIssue[];
+  needs: string;
+  wording: (text: string) => string;
+}) {
   const name = QUANTITY_NAMES[quantity];
   if (!result) {
     return (
@@ -17,7 +30,7 @@ export function LedgerLine({ quantity, result, issues, needs }: { quantity: Quan
           {issues.length > 0 ? (
             issues.map((issue, i) => (
               <p key={i} className="text-alert">
-                <span className="font-semibold">Not derived:</span> {readableMessage(issue.message)}
+                <span className="font-semibold">Not derived:</span> {wording(issue.message)}
               </p>
             ))
           ) : (
@@ -41,10 +54,10 @@ export function LedgerLine({ quantity, result, issues, needs }: { quantity: Quan
             </span>
           ))}
         </p>
-        <p className="mt-0.5 text-xs text-ink-soft">{result.method.label}</p>
+        <p className="mt-0.5 text-xs text-ink-soft">{wording(result.method.label)}</p>
         {result.warnings.map((w, i) => (
           <p key={i} className="mt-0.5 text-xs text-alert">
-            <span className="font-semibold">Warning:</span> {readableMessage(w.message)}
+            <span className="font-semibold">Warning:</span> {wording(w.message)}
           </p>
         ))}
       </dd>
