@@ -5,18 +5,19 @@
  *
  * Right ascension in sexagesimal is in hours; a bare decimal number is
  * degrees for both axes (the convention of most catalogues' machine-readable
- * columns). Results are degrees. Errors name the field and the limit.
+ * columns). The true minus sign (U+2212), which the sheets print, reads
+ * like a hyphen. Results are degrees. Errors name the field and the limit.
  */
 
 export type CoordinateResult = { ok: true; degrees: number } | { ok: false; message: string };
 
-const SEXAGESIMAL = /^([+-])?\s*(\d{1,3})\s*(?:[:\sdh°]|\s+)\s*(\d{1,2})\s*(?:[:\sm'′]|\s+)\s*(\d{1,2}(?:\.\d*)?)\s*(?:s|"|″|'')?$/i;
-const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:\s*(?:°|d|deg))?$/i;
+const SEXAGESIMAL = /^([+\-−])?\s*(\d{1,3})\s*(?:[:\sdh°]|\s+)\s*(\d{1,2})\s*(?:[:\sm'′]|\s+)\s*(\d{1,2}(?:\.\d*)?)\s*(?:s|"|″|'')?$/i;
+const DECIMAL = /^[+\-−]?(?:\d+\.?\d*|\.\d+)(?:\s*(?:°|d|deg))?$/i;
 
 function parseSexagesimal(text: string): { sign: number; a: number; b: number; c: number } | null {
   const m = SEXAGESIMAL.exec(text.trim());
   if (!m) return null;
-  return { sign: m[1] === '-' ? -1 : 1, a: Number(m[2]), b: Number(m[3]), c: Number(m[4]) };
+  return { sign: m[1] === '-' || m[1] === '−' ? -1 : 1, a: Number(m[2]), b: Number(m[3]), c: Number(m[4]) };
 }
 
 /** Right ascension, J2000. Sexagesimal is hours (0–24 h); decimal is degrees (0–360°). */
@@ -32,7 +33,7 @@ export function parseRightAscension(input: string | number): CoordinateResult {
     if (sx.c >= 60) return { ok: false, message: `Right ascension seconds must be below 60 (got ${sx.c}).` };
     return { ok: true, degrees: (sx.a + sx.b / 60 + sx.c / 3600) * 15 };
   }
-  if (DECIMAL.test(text)) return checkRaDegrees(Number.parseFloat(text));
+  if (DECIMAL.test(text)) return checkRaDegrees(Number.parseFloat(text.replace('−', '-')));
   return { ok: false, message: `Right ascension "${text}" is not sexagesimal (05 14 32.3, 05:14:32.3, 5h14m32.3s) or decimal degrees.` };
 }
 
@@ -53,7 +54,7 @@ export function parseDeclination(input: string | number): CoordinateResult {
     if (sx.c >= 60) return { ok: false, message: `Declination arcseconds must be below 60 (got ${sx.c}).` };
     return checkDecDegrees(sx.sign * (sx.a + sx.b / 60 + sx.c / 3600));
   }
-  if (DECIMAL.test(text)) return checkDecDegrees(Number.parseFloat(text));
+  if (DECIMAL.test(text)) return checkDecDegrees(Number.parseFloat(text.replace('−', '-')));
   return { ok: false, message: `Declination "${text}" is not sexagesimal (-08 12 05, -08:12:05, -8d12m05s) or decimal degrees.` };
 }
 

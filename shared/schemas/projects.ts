@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { projectRole } from './roles';
 
-const timeZone = z.string().trim().min(1).refine(
+const timeZone = z.string().trim().min(1, 'Enter the time zone.').refine(
   (tz) => {
     try {
       new Intl.DateTimeFormat('en', { timeZone: tz });

@@ -24,6 +24,11 @@ describe('declination', () => {
     const r = parseDeclination(text);
     expect(r.ok && r.degrees).toBeCloseTo(-(8 + 12 / 60 + 5 / 3600), 9);
   });
+  it('reads back what the sheets print, true minus sign included', () => {
+    const deg = -(8 + 12 / 60 + 5 / 3600);
+    const r = parseDeclination(formatDeclination(deg));
+    expect(r.ok && r.degrees).toBeCloseTo(deg, 4);
+  });
   it('keeps the sign of a negative zero-degree declination', () => {
     const r = parseDeclination('-00 30 00');
     expect(r.ok && r.degrees).toBe(-0.5);
