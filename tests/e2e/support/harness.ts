@@ -80,9 +80,8 @@ export async function startApp(): Promise<RunningApp> {
   };
 }
 
+/** Chromium with a fresh profile (playwright makes one per launch under TMPDIR). */
 export async function launchBrowser(): Promise<Browser> {
-  fs.mkdirSync(path.join(root, 'data'), { recursive: true });
-  const userDataDir = fs.mkdtempSync(path.join(root, 'data', 'chromium-'));
   return chromium.launch({
     executablePath: CHROMIUM,
     args: [
@@ -94,7 +93,6 @@ export async function launchBrowser(): Promise<Browser> {
       '--disable-background-networking',
       '--disable-component-update',
       '--disable-sync',
-      `--user-data-dir=${userDataDir}`,
     ],
   });
 }
