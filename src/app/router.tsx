@@ -36,6 +36,13 @@ export const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('./routes/target-edit')).EditTargetRoute }),
           },
           { path: paths.project.members.path, lazy: async () => ({ Component: (await import('./routes/members')).MembersRoute }) },
+          { path: paths.project.upload.path, lazy: async () => ({ Component: (await import('./routes/upload')).UploadRoute }) },
+          { path: paths.project.uploads.path, lazy: async () => ({ Component: (await import('./routes/uploads')).UploadsRoute }) },
+          {
+            path: paths.project.uploadPreview.path,
+            lazy: async () => ({ Component: (await import('./routes/upload-preview')).UploadPreviewRoute }),
+          },
+          { path: paths.account.tokens.path, lazy: async () => ({ Component: (await import('./routes/account-tokens')).AccountTokensRoute }) },
           { path: paths.admin.users.path, lazy: async () => ({ Component: (await import('./routes/admin-users')).AdminUsersRoute }) },
           { path: paths.calculator.path, lazy: async () => ({ Component: (await import('./routes/calculator')).CalculatorRoute }) },
           { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }) },

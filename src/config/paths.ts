@@ -43,6 +43,24 @@ export const paths = {
       path: '/projects/:projectId/targets/:targetId/edit',
       getHref: (projectId: Id, targetId: Id) => `/projects/${projectId}/targets/${targetId}/edit`,
     },
+    upload: {
+      path: '/projects/:projectId/upload',
+      getHref: (projectId: Id) => `/projects/${projectId}/upload`,
+    },
+    uploads: {
+      path: '/projects/:projectId/uploads',
+      getHref: (projectId: Id) => `/projects/${projectId}/uploads`,
+    },
+    uploadPreview: {
+      path: '/projects/:projectId/uploads/:uploadId',
+      getHref: (projectId: Id, uploadId: Id) => `/projects/${projectId}/uploads/${uploadId}`,
+    },
+  },
+  account: {
+    tokens: {
+      path: '/account/tokens',
+      getHref: () => '/account/tokens',
+    },
   },
   admin: {
     users: {

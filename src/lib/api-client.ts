@@ -74,17 +74,28 @@ function buildUrl(path: string, params?: QueryParams): string {
   return query ? `${url}?${query}` : url;
 }
 
-async function toApiError(response: Response): Promise<ApiError> {
+function errorFromText(status: number, text: string): ApiError {
   let body: unknown = null;
   try {
-    body = await response.json();
+    body = JSON.parse(text);
   } catch {
-    // A proxy or a crashed server can answer without JSON; the status still tells the story.
+    // A proxy answering 413 or 502 sends HTML; the status still tells the story.
   }
   const error = (body as { error?: { code?: unknown; message?: unknown; details?: unknown } } | null)?.error;
-  const code = typeof error?.code === 'string' ? error.code : response.status === 404 ? 'not_found' : 'internal';
+  const fallback = status === 404 ? 'not_found' : status === 413 ? 'payload_too_large' : 'internal';
+  const code = typeof error?.code === 'string' ? error.code : fallback;
   const message = typeof error?.message === 'string' && error.message !== '' ? error.message : messageFor(code);
-  return new ApiError(response.status, code, message, error?.details);
+  return new ApiError(status, code, message, error?.details);
+}
+
+async function toApiError(response: Response): Promise<ApiError> {
+  let text = '';
+  try {
+    text = await response.text();
+  } catch {
+    // A dropped connection mid-body still leaves the status to go by.
+  }
+  return errorFromText(response.status, text);
 }
 
 async function send(method: Method, path: string, options: RequestOptions): Promise<Response> {
@@ -133,10 +144,64 @@ async function request<T>(method: Method, path: string, options: RequestOptions 
   return (text === '' ? undefined : JSON.parse(text)) as T;
 }
 
+/** Bytes sent so far of a multipart upload, and the total when the browser knows it. */
+export interface UploadProgress {
+  loaded: number;
+  total: number | null;
+}
+
+interface MultipartOptions {
+  params?: QueryParams;
+  signal?: AbortSignal;
+  onProgress?: (progress: UploadProgress) => void;
+  /** Called once the last byte has left the browser, while the server is still reading the file. */
+  onSent?: () => void;
+}
+
+/*
+ * fetch() cannot report upload progress, so a file goes up through
+ * XMLHttpRequest; everything else about the request (CSRF header, error
+ * shape, one retry on a stale token) matches `request` above.
+ */
+function sendMultipart(path: string, form: FormData, options: MultipartOptions): Promise<{ status: number; text: string }> {
+  return new Promise((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', buildUrl(path, options.params));
+    xhr.withCredentials = true;
+    xhr.setRequestHeader('Accept', 'application/json');
+    if (csrfToken) xhr.setRequestHeader('X-CSRF-Token', csrfToken);
+    xhr.upload.onprogress = (event) => options.onProgress?.({ loaded: event.loaded, total: event.lengthComputable ? event.total : null });
+    xhr.upload.onload = () => options.onSent?.();
+    xhr.onload = () => resolve({ status: xhr.status, text: xhr.responseText });
+    xhr.onerror = () =>
+      reject(new ApiError(0, 'network_error', 'The Starledger server could not be reached. Check the connection and try again.'));
+    xhr.onabort = () => reject(new DOMException('The upload was cancelled.', 'AbortError'));
+    if (options.signal) {
+      if (options.signal.aborted) {
+        reject(new DOMException('The upload was cancelled.', 'AbortError'));
+        return;
+      }
+      options.signal.addEventListener('abort', () => xhr.abort(), { once: true });
+    }
+    xhr.send(form);
+  });
+}
+
+async function postMultipart<T>(path: string, form: FormData, options: MultipartOptions = {}): Promise<T> {
+  let response = await sendMultipart(path, form, options);
+  if (response.status === 403 && errorFromText(403, response.text).code === 'csrf_invalid' && (await refreshCsrfToken())) {
+    response = await sendMultipart(path, form, options);
+  }
+  if (response.status < 200 || response.status >= 300) throw errorFromText(response.status, response.text);
+  return (response.text === '' ? undefined : JSON.parse(response.text)) as T;
+}
+
 export const api = {
   get: <T>(path: string, options?: Omit<RequestOptions, 'body'>) => request<T>('GET', path, options),
   post: <T>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>) => request<T>('POST', path, { ...options, body }),
   put: <T>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>) => request<T>('PUT', path, { ...options, body }),
   patch: <T>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>) => request<T>('PATCH', path, { ...options, body }),
   delete: <T = void>(path: string, options?: Omit<RequestOptions, 'body'>) => request<T>('DELETE', path, options),
+  /** A multipart form with a file, reporting the bytes sent as they go. */
+  postMultipart,
 };

@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { Navigate, Outlet, useLocation, useNavigate, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
+import { roleCan } from '@shared/schemas/roles';
 import { paths } from '@/config/paths';
 import { useLogout, useMe } from '@/lib/auth';
 import { AppShell } from '@/components/layouts/app-shell';
@@ -16,7 +17,9 @@ function useShellProject(projectIdParam: string | undefined) {
     enabled: projectId !== null,
     throwOnError: false,
   });
-  return projectId !== null && query.data ? { id: query.data.id, code: query.data.code, name: query.data.name } : null;
+  return projectId !== null && query.data
+    ? { id: query.data.id, code: query.data.code, name: query.data.name, canUpload: roleCan(query.data.myRole, 'upload') }
+    : null;
 }
 
 /**

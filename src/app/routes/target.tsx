@@ -1,11 +1,12 @@
-import { useNavigate } from 'react-router-dom';
+import { Link, useNavigate } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
 import { roleCan } from '@shared/schemas/roles';
 import { paths } from '@/config/paths';
 import { useNumericParam } from '@/hooks/use-numeric-param';
-import { PageHeader } from '@/components/ui/page-header';
+import { PageHeader, Section } from '@/components/ui/page-header';
 import { StatusLine } from '@/components/ui/alert';
-import { ButtonLink } from '@/components/ui/button';
+import { ButtonLink, linkClasses } from '@/components/ui/button';
+import { EmptyState } from '@/components/ui/empty-state';
 import { NotFoundMessage } from '@/components/errors/error-messages';
 import { QueryError } from '@/components/errors/query-error';
 import { useProject } from '@/features/projects/api/get-project';
@@ -13,7 +14,56 @@ import { projectKeys } from '@/features/projects/api/keys';
 import { useTarget } from '@/features/targets/api/get-target';
 import { TargetDetails } from '@/features/targets/components/target-details';
 import { DeleteTarget } from '@/features/targets/components/delete-target';
+import { useDerived } from '@/features/targets/api/get-derived';
+import { useMeasurements } from '@/features/targets/api/get-measurements';
+import { DerivedValues, ModelCaution } from '@/features/targets/components/derived-values';
+import { TargetMeasurements } from '@/features/targets/components/target-measurements';
 import type { ProjectPageNotice } from './project';
+
+/** The target's derived values and the measurements behind them; they load after the sheet's head so it shows at once. */
+function TargetReadings({ projectId, targetId, canUpload }: { projectId: number; targetId: number; canUpload: boolean }) {
+  const derived = useDerived(projectId, targetId);
+  const measurements = useMeasurements(projectId, targetId);
+  const uploadLink = canUpload ? (
+    <Link className={linkClasses} to={paths.project.upload.getHref(projectId)}>
+      Upload measurements
+    </Link>
+  ) : null;
+
+  return (
+    <>
+      <Section title="Derived values" className="mt-10">
+        <ModelCaution className="mb-4" />
+        {derived.isPending || measurements.isPending ? <StatusLine>Loading the derived values…</StatusLine> : null}
+        {derived.isError ? <QueryError what="The derived values" error={derived.error} onRetry={() => void derived.refetch()} /> : null}
+        {derived.data && measurements.data ? (
+          derived.data.length > 0 ? (
+            <DerivedValues derived={derived.data} measurements={measurements.data} />
+          ) : (
+            <EmptyState title="No derived values yet" action={uploadLink}>
+              Values are derived and proposed for review when measurements of this target are committed from an upload.
+            </EmptyState>
+          )
+        ) : null}
+      </Section>
+      <Section title="Measurements" className="mt-10">
+        {measurements.isPending ? <StatusLine>Loading the measurements…</StatusLine> : null}
+        {measurements.isError ? (
+          <QueryError what="The measurements" error={measurements.error} onRetry={() => void measurements.refetch()} />
+        ) : null}
+        {measurements.data ? (
+          measurements.data.length > 0 ? (
+            <TargetMeasurements projectId={projectId} measurements={measurements.data} />
+          ) : (
+            <EmptyState title="No measurements yet" action={uploadLink}>
+              Measurements arrive through uploads, from the upload page or a pipeline.
+            </EmptyState>
+          )
+        ) : null}
+      </Section>
+    </>
+  );
+}
 
 function TargetPage({ projectId, targetId }: { projectId: number; targetId: number }) {
   const project = useProject(projectId);
@@ -56,6 +106,7 @@ function TargetPage({ projectId, targetId }: { projectId: number; targetId: numb
         }
       />
       <TargetDetails target={data} />
+      <TargetReadings projectId={projectId} targetId={targetId} canUpload={roleCan(project.data.myRole, 'upload')} />
     </>
   );
 }

@@ -9,6 +9,8 @@ export interface ShellProject {
   id: number;
   code: string;
   name: string;
+  /** Observers and the lead astronomer see the Upload link; the server refuses everyone else anyway. */
+  canUpload: boolean;
 }
 
 const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
@@ -41,8 +43,13 @@ export function AppShell({
 }) {
   const navigation = useNavigation();
   const busy = navigation.state !== 'idle';
-  // Targets stays marked while a target's own pages are open; only Members is a separate place.
+  // Targets stays marked while a target's own pages are open; Members, Upload and Uploads are places of their own.
   const onMembersPage = useMatch(paths.project.members.path) !== null;
+  const onUploadPage = useMatch(paths.project.upload.path) !== null;
+  const onUploadsList = useMatch(paths.project.uploads.path) !== null;
+  const onUploadPreview = useMatch(paths.project.uploadPreview.path) !== null;
+  const onUploadsPage = onUploadsList || onUploadPreview;
+  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage;
 
   return (
     <div className="flex min-h-screen flex-col bg-paper text-ink">
@@ -75,6 +82,9 @@ export function AppShell({
             <span className="text-sm text-ink" data-testid="signed-in-user">
               {userName}
             </span>
+            <NavLink to={paths.account.tokens.getHref()} className={navLinkClasses}>
+              API tokens
+            </NavLink>
             <button
               type="button"
               onClick={onSignOut}
@@ -95,10 +105,22 @@ export function AppShell({
               <nav aria-label="Project" className="flex items-center gap-5">
                 <Link
                   to={paths.project.root.getHref(project.id)}
-                  className={navLinkClasses({ isActive: !onMembersPage })}
-                  aria-current={onMembersPage ? undefined : 'page'}
+                  className={navLinkClasses({ isActive: onTargetsPage })}
+                  aria-current={onTargetsPage ? 'page' : undefined}
                 >
                   Targets
+                </Link>
+                {project.canUpload ? (
+                  <NavLink to={paths.project.upload.getHref(project.id)} className={navLinkClasses}>
+                    Upload
+                  </NavLink>
+                ) : null}
+                <Link
+                  to={paths.project.uploads.getHref(project.id)}
+                  className={navLinkClasses({ isActive: onUploadsPage })}
+                  aria-current={onUploadsPage ? 'page' : undefined}
+                >
+                  Uploads
                 </Link>
                 <NavLink to={paths.project.members.getHref(project.id)} className={navLinkClasses}>
                   Members

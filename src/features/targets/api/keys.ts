@@ -11,4 +11,7 @@ export const targetKeys = {
   list: (projectId: number, params: TargetListParams) => [...targetKeys.lists(projectId), params] as const,
   details: (projectId: number) => [...targetKeys.project(projectId), 'detail'] as const,
   detail: (projectId: number, targetId: number) => [...targetKeys.details(projectId), targetId] as const,
+  derived: (projectId: number, targetId: number, include: 'current' | 'all') => [...targetKeys.detail(projectId, targetId), 'derived', include] as const,
+  measurements: (projectId: number, targetId: number) => [...targetKeys.detail(projectId, targetId), 'measurements'] as const,
+  choices: (projectId: number) => [...targetKeys.project(projectId), 'choices'] as const,
 };

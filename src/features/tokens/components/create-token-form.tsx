@@ -1,0 +1,58 @@
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
+import { createTokenBody, type CreateTokenBody } from '@shared/schemas/tokens';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
+import { TextField } from '@/components/ui/field';
+import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+import { useCreateToken, type CreatedToken } from '../api/create-token';
+
+const FIELDS = ['name'] as const;
+
+/** Names a new token after what will use it; the token itself is handed to `onCreated` to be shown once. */
+export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedToken) => void }) {
+  const createToken = useCreateToken();
+  const [formError, setFormError] = useState<string | null>(null);
+  const {
+    register,
+    handleSubmit,
+    setError,
+    reset,
+    formState: { errors, isSubmitting },
+  } = useForm<z.input<typeof createTokenBody>, unknown, CreateTokenBody>({
+    resolver: zodResolver(createTokenBody, formParseOptions),
+    defaultValues: { name: '' },
+  });
+
+  const onSubmit = handleSubmit(async (body) => {
+    setFormError(null);
+    try {
+      const created = await createToken.mutateAsync(body);
+      reset({ name: '' });
+      onCreated(created);
+    } catch (error) {
+      setFormError(serverErrorMessage(error, setError, FIELDS));
+    }
+  });
+
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label="Create a token" className="space-y-3">
+      {formError ? <Alert title="No token was created.">{formError}</Alert> : null}
+      <div className="flex flex-wrap items-start gap-4">
+        <TextField
+          label="Token name"
+          autoComplete="off"
+          hint="Say what will use it, e.g. “dome pipeline” or “reduction laptop”."
+          error={errors.name?.message}
+          className="w-80"
+          {...register('name')}
+        />
+        <Button type="submit" className="mt-6" disabled={isSubmitting}>
+          {isSubmitting ? 'Creating…' : 'Create token'}
+        </Button>
+      </div>
+    </form>
+  );
+}
