@@ -1,5 +1,4 @@
 import { createDb, migrateLatest } from '../server/db/knex';
-import { seed } from '../seeds/01-demo-scenario';
 import { seedDemoIfEmpty } from '../server/db/demo';
 
 /** `npm run db:migrate | db:rollback | db:seed` on DATABASE_URL (default data/starledger.sqlite). */
@@ -14,11 +13,10 @@ try {
     console.log(`Rolled back batch ${batch}: ${names.join(', ') || 'nothing to roll back'}.`);
   } else if (command === 'seed') {
     await migrateLatest(db);
-    if (process.argv.includes('--force')) await seed(db);
-    else if (!(await seedDemoIfEmpty(db))) console.log('The database already has accounts; not seeding (pass --force to add the demo anyway).');
+    if (!(await seedDemoIfEmpty(db))) console.log('The database already has accounts; the demo is seeded only into an empty database.');
     else console.log('Seeded the demo scenario.');
   } else {
-    console.error('Usage: tsx scripts/db.ts migrate|rollback|seed [--force]');
+    console.error('Usage: tsx scripts/db.ts migrate|rollback|seed');
     process.exitCode = 2;
   }
 } finally {

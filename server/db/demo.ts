@@ -1,10 +1,12 @@
 import type { Db } from './knex';
-import { seed } from '../../seeds/01-demo-scenario';
+import { seed as seedScenario } from '../../seeds/01-demo-scenario';
+import { seed as seedSeason } from '../../seeds/02-demo-season';
 
 /** Seeds the demo scenario only into a database with no accounts, so a real installation is never touched. */
 export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
   const row = await db('users').count<{ n: number | string }>('* as n').first();
   if (Number(row?.n ?? 0) > 0) return false;
-  await seed(db);
+  await seedScenario(db);
+  await seedSeason(db);
   return true;
 }
