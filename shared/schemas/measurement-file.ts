@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { designationKey, parseDeclination, parseRightAscension } from '../coordinates';
 import { measurementToSi } from '../physics/units';
 import { PhysicsError } from '../physics/errors';
+import { MEASUREMENT_KINDS, type MeasurementKind } from '../physics/quantities';
 import { designation as designationSchema } from './targets';
 
 /**
@@ -12,18 +13,9 @@ import { designation as designationSchema } from './targets';
  * problem reported by row and column rather than stopping at the first.
  */
 
-export const FILE_QUANTITIES = [
-  'peak_wavelength',
-  'magnitude',
-  'colour_index',
-  'bolometric_flux',
-  'parallax',
-  'line_wavelength',
-  'limb_separation',
-  'zeeman_separation',
-  'extinction',
-] as const;
-export type FileQuantity = (typeof FILE_QUANTITIES)[number];
+/** What a file may measure: every measurement kind but the Planck temperature, which only a spectrum fit records. */
+export type FileQuantity = Exclude<MeasurementKind, 'planck_temperature'>;
+export const FILE_QUANTITIES = MEASUREMENT_KINDS.filter((k): k is FileQuantity => k !== 'planck_temperature') as [FileQuantity, ...FileQuantity[]];
 
 export const FIELDS = [
   'target',
