@@ -127,9 +127,23 @@ function UploadPreviewPage({ projectId, uploadId }: { projectId: number; uploadI
         <FileProblems upload={u} />
       )}
 
-      <Section title={u.kind === 'spectrum' ? 'The file as sent' : 'Every row as sent'} className="mb-10">
-        <PreviewTable projectId={projectId} uploadId={u.id} errorCount={u.errorCount} />
-      </Section>
+      {u.kind === 'spectrum' ? (
+        // A spectrum's hundreds of plain number pairs matter only when one of them is wrong.
+        <Section title="The file as sent" className="mb-10">
+          <details open={u.errors.some((e) => e.row > 1)}>
+            <summary className="cursor-pointer text-sm text-brass underline-offset-4 hover:underline">
+              {u.errors.some((e) => e.row > 1) ? 'Rows with their errors' : `Show the ${u.rowCount} rows as sent`}
+            </summary>
+            <div className="mt-3">
+              <PreviewTable projectId={projectId} uploadId={u.id} errorCount={u.errorCount} />
+            </div>
+          </details>
+        </Section>
+      ) : (
+        <Section title="Every row as sent" className="mb-10">
+          <PreviewTable projectId={projectId} uploadId={u.id} errorCount={u.errorCount} />
+        </Section>
+      )}
 
       {previewed ? (
         <Section title="Commit or discard">

@@ -65,7 +65,7 @@ export function TargetMeasurements({ projectId, measurements }: { projectId: num
               {m.note ? <span className="block max-w-64 text-xs text-ink-soft">{m.note}</span> : null}
             </LedgerCell>
             <LedgerCell numeric>{sentValue(m)}</LedgerCell>
-            <LedgerCell className="tabular-nums">{bandOrLine(m) || <span className="text-ink-soft">—</span>}</LedgerCell>
+            <LedgerCell className="whitespace-nowrap tabular-nums">{bandOrLine(m) || <span className="text-ink-soft">—</span>}</LedgerCell>
             <LedgerCell className="whitespace-nowrap tabular-nums">
               {m.observedAt ? formatDateTime(m.observedAt) : <span className="text-ink-soft">not given</span>}
             </LedgerCell>
@@ -74,7 +74,7 @@ export function TargetMeasurements({ projectId, measurements }: { projectId: num
               {m.uploadId === null ? (
                 <span className="text-ink-soft">entered directly</span>
               ) : (
-                <Link className={linkClasses} to={paths.project.uploadPreview.getHref(projectId, m.uploadId)}>
+                <Link className={`${linkClasses} whitespace-nowrap`} to={paths.project.uploadPreview.getHref(projectId, m.uploadId)}>
                   Upload {m.uploadId}
                 </Link>
               )}

@@ -18,9 +18,9 @@ function Cell({ text, errors }: { text: string; errors: RowError[] }) {
       className={cn('font-mono text-xs whitespace-pre', bad && 'outline-2 -outline-offset-2 outline-alert outline-dashed bg-paper-deep')}
       data-error={bad ? 'true' : undefined}
     >
-      <span>{text === '' ? <span className="text-ink-soft italic">(empty)</span> : text}</span>
+      {text === '' ? <span className="sr-only">empty</span> : <span>{text}</span>}
       {errors.map((e, i) => (
-        <span key={i} className="mt-1 block max-w-72 font-sans text-xs whitespace-normal text-alert" role="note">
+        <span key={i} className="mt-1 block w-56 font-sans text-xs whitespace-normal text-alert" role="note">
           <span className="font-semibold">Error:</span> {e.message}
         </span>
       ))}
@@ -109,7 +109,7 @@ export function PreviewTable({ projectId, uploadId, errorCount }: { projectId: n
                   {hasLoose ? (
                     <LedgerCell className="text-xs">
                       {loose.map((e, i) => (
-                        <span key={i} className="block max-w-80 text-alert">
+                        <span key={i} className="block w-64 text-alert">
                           <span className="font-semibold">Error{e.column ? ` (${e.column})` : ''}:</span> {e.message}
                         </span>
                       ))}

@@ -46,7 +46,7 @@ export function SpectrumPreview({ spectrum, designation }: { spectrum: Spectrum;
       <figure>
         <div role="img" aria-label={description} className="h-80 w-full" data-testid="spectrum-chart">
           <ResponsiveContainer width="100%" height="100%">
-            <ComposedChart data={data} margin={{ top: 16, right: 16, bottom: 24, left: 8 }}>
+            <ComposedChart data={data} margin={{ top: 16, right: 16, bottom: 24, left: 24 }}>
               <CartesianGrid stroke="var(--sl-rule)" strokeDasharray="2 4" />
               <XAxis
                 dataKey="nm"
@@ -59,8 +59,8 @@ export function SpectrumPreview({ spectrum, designation }: { spectrum: Spectrum;
               <YAxis
                 tickFormatter={fluxTick}
                 stroke="var(--sl-ink-soft)"
-                width={72}
-                label={{ value: 'Flux (as sent)', angle: -90, position: 'insideLeft', offset: 4, fill: 'var(--sl-ink)' }}
+                width={64}
+                label={{ value: 'Flux (as sent)', angle: -90, position: 'left', offset: 8, fill: 'var(--sl-ink)', style: { textAnchor: 'middle' } }}
               />
               <Tooltip
                 formatter={(value, name) => [typeof value === 'number' ? value.toPrecision(4) : String(value), name]}
@@ -94,7 +94,13 @@ export function SpectrumPreview({ spectrum, designation }: { spectrum: Spectrum;
                   x={peakNm}
                   stroke="var(--sl-alert)"
                   strokeDasharray="3 3"
-                  label={{ value: `Continuum peak ${peak?.text}`, position: 'insideTopRight', fill: 'var(--sl-ink)', fontSize: 12 }}
+                  // The label sits on the side of the line with more room, so it is never cut at the plot's edge.
+                  label={{
+                    value: `Continuum peak ${peak?.text}`,
+                    position: peakNm - first < last - peakNm ? 'insideBottomLeft' : 'insideBottomRight',
+                    fill: 'var(--sl-ink)',
+                    fontSize: 12,
+                  }}
                 />
               ) : null}
             </ComposedChart>
@@ -115,7 +121,7 @@ export function SpectrumPreview({ spectrum, designation }: { spectrum: Spectrum;
               <span className="block text-xs text-ink-soft">Least-squares fit of the Planck function</span>
             </DetailItem>
             <DetailItem label="Reduced χ²" numeric>
-              {fit.reducedChiSquare.toPrecision(3)}
+              {formatMeasured(fit.reducedChiSquare, 0, '').text}
               <span className="block text-xs text-ink-soft">
                 Near 1 when the flux uncertainties are honest and the curve fits; without uncertainties in the file it only compares fits.
               </span>
