@@ -1,8 +1,9 @@
 import { fluxFromApparentBolometricMagnitudeWm2, SOLAR_ABSOLUTE_BOLOMETRIC_MAGNITUDE_MAG } from './bolometric';
+import { CONSTANTS } from './constants';
 import { requireFinite, requirePositive, type PhysicsWarning } from './errors';
 import { DEFAULT_R_V } from './extinction';
 import type { Measured } from './measured';
-import { monteCarlo, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
+import { monteCarlo, type DrawModel, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
 
 /**
  * Bolometric correction in V from effective temperature: Flower (1996, ApJ
@@ -58,7 +59,10 @@ export const BC_SHIFT_TO_IAU_2015_MAG = SOLAR_ABSOLUTE_BOLOMETRIC_MAGNITUDE_MAG 
  */
 export function bolometricCorrectionBranch(temperatureK: number): BolometricCorrectionBranch {
   requirePositive(temperatureK, 'temperature');
-  const x = Math.log10(temperatureK);
+  return branchOfLogT(Math.log10(temperatureK));
+}
+
+function branchOfLogT(x: number): BolometricCorrectionBranch {
   if (x < 3.7) return 'cool';
   if (x < 3.9) return 'middle';
   return 'hot';
@@ -71,8 +75,13 @@ export function bolometricCorrectionBranch(temperatureK: number): BolometricCorr
  * @see Flower (1996), ApJ 469, 355; Torres (2010), AJ 140, 1158, Table 1
  */
 export function bolometricCorrectionVMag(temperatureK: number): number {
-  const coefficients = TORRES_2010_COEFFICIENTS[bolometricCorrectionBranch(temperatureK)];
-  const x = Math.log10(temperatureK);
+  requirePositive(temperatureK, 'temperature');
+  return bolometricCorrectionOfLogT(Math.log10(temperatureK));
+}
+
+/** BC_V in mag at x = log10 T_eff, by Horner's rule on the branch's polynomial. */
+function bolometricCorrectionOfLogT(x: number): number {
+  const coefficients = TORRES_2010_COEFFICIENTS[branchOfLogT(x)];
   let sum = 0;
   for (let i = coefficients.length - 1; i >= 0; i--) sum = sum * x + coefficients[i];
   return sum;
@@ -109,6 +118,10 @@ export function bolometricFluxFromVWm2(magnitudeVMag: number, temperatureK: numb
   return fluxFromApparentBolometricMagnitudeWm2(mBol);
 }
 
+const F0_WM2 = CONSTANTS.f_0.value;
+/** Below this −0.4 m_bol, f₀ 10^(−0.4 m_bol) is surely finite (f₀ ≈ 10^-7.6 W m⁻², the largest double 10^308.25). */
+const SAFE_FLUX_EXPONENT = 300;
+
 /** Bolometric flux from V with its Monte Carlo uncertainty and warnings. */
 export interface FluxFromV {
   readonly fluxWm2: MonteCarloResult;
@@ -130,11 +143,29 @@ export function bolometricFluxFromV(
   options: MonteCarloOptions = {},
 ): FluxFromV {
   const excess = colourExcessMag ?? { value: 0, sigma: 0 };
+  // F = f₀ 10^(−0.4 m_bol) falls as m_bol grows, so the draws are ranked by
+  // −0.4 m_bol and the power of ten is taken for the four draws the interval
+  // is read from; rV is checked once, at the nominal inputs.
+  const exponent = (x: Float64Array): number => {
+    const temperature = x[1];
+    if (!(temperature > 0)) return NaN;
+    const mBol = x[0] - rV * x[2] + bolometricCorrectionOfLogT(Math.log10(temperature)) + BC_SHIFT_TO_IAU_2015_MAG;
+    return Number.isFinite(mBol) ? -0.4 * mBol : NaN;
+  };
+  const exact = (x: Float64Array): number => F0_WM2 * Math.pow(10, exponent(x));
+  const draws: DrawModel = {
+    exact,
+    rank: (x) => {
+      const e = exponent(x);
+      return e > SAFE_FLUX_EXPONENT && !Number.isFinite(exact(x)) ? NaN : e;
+    },
+  };
   const fluxWm2 = monteCarlo(
     (x) => bolometricFluxFromVWm2(x[0], x[1], x[2], rV),
     [magnitudeVMag, temperatureK, excess],
     'bolometric_flux',
     options,
+    draws,
   );
   return { fluxWm2, warnings: bolometricCorrectionWarnings(temperatureK.value) };
 }

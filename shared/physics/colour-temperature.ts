@@ -30,6 +30,12 @@ export function ballesterosTemperatureK(colourIndexMag: number): number {
       '> −0.674 mag',
     );
   }
+  return ballesterosUnchecked(colourIndexMag);
+}
+
+/** The Ballesteros relation without its checks, NaN at and below the singular colour: for Monte Carlo draws. */
+function ballesterosUnchecked(colourIndexMag: number): number {
+  if (colourIndexMag <= SINGULAR_COLOUR_MAG) return NaN;
   const x = 0.92 * colourIndexMag;
   return 4600 * (1 / (x + 1.7) + 1 / (x + 0.62));
 }
@@ -73,6 +79,8 @@ export function colourTemperature(
 ): ColourTemperature {
   const excess = colourExcessMag ?? { value: 0, sigma: 0 };
   const intrinsic = dereddenedColourMag(colourIndexMag.value, excess.value);
-  const temperatureK = monteCarlo((x) => ballesterosTemperatureK(x[0] - x[1]), [colourIndexMag, excess], 'temperature_colour', options);
+  const temperatureK = monteCarlo((x) => ballesterosTemperatureK(x[0] - x[1]), [colourIndexMag, excess], 'temperature_colour', options, {
+    exact: (x) => ballesterosUnchecked(x[0] - x[1]),
+  });
   return { temperatureK, intrinsicColourMag: intrinsic, warnings: colourTemperatureWarnings(intrinsic) };
 }

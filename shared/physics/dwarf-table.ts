@@ -6,13 +6,16 @@ import { DWARF_SEQUENCE, type DwarfSequenceRow } from './tables/dwarf-sequence';
  * the spectral class, the main-sequence luminosity and the radius check.
  */
 
-const LOG_T = DWARF_SEQUENCE.map((row) => Math.log10(row.teffK));
+const LOG_T = Float64Array.from(DWARF_SEQUENCE, (row) => Math.log10(row.teffK));
 
 /** Hottest and coolest temperature of the table, K. */
 export const DWARF_TABLE_RANGE_K = Object.freeze({
   min: DWARF_SEQUENCE[DWARF_SEQUENCE.length - 1].teffK,
   max: DWARF_SEQUENCE[0].teffK,
 });
+
+const COOLEST_K = DWARF_TABLE_RANGE_K.min;
+const HOTTEST_K = DWARF_TABLE_RANGE_K.max;
 
 /** The bracketing rows of a temperature and the weight of the cooler one. */
 export interface Bracket {
@@ -40,6 +43,12 @@ export function bracketTemperature(temperatureK: number, quantity: string): Brac
     );
   }
   const x = Math.log10(temperatureK);
+  const lo = hotterRow(x);
+  return { hotter: lo, cooler: lo + 1, fraction: fractionTowardsCooler(lo, x) };
+}
+
+/** The hotter row of the pair that brackets log10 T = x, for x inside the table. */
+function hotterRow(x: number): number {
   let lo = 0;
   let hi = LOG_T.length - 1;
   // LOG_T decreases with index; find hotter = last index with LOG_T >= x.
@@ -48,8 +57,35 @@ export function bracketTemperature(temperatureK: number, quantity: string): Brac
     if (LOG_T[mid] >= x) lo = mid;
     else hi = mid;
   }
-  const span = LOG_T[lo] - LOG_T[hi];
-  return { hotter: lo, cooler: hi, fraction: span > 0 ? (LOG_T[lo] - x) / span : 0 };
+  return lo;
+}
+
+function fractionTowardsCooler(hotter: number, x: number): number {
+  const span = LOG_T[hotter] - LOG_T[hotter + 1];
+  return span > 0 ? (LOG_T[hotter] - x) / span : 0;
+}
+
+/**
+ * A column of the table, by row, for interpolateDwarfColumnUnchecked; taken
+ * once, so that a Monte Carlo draw reads numbers instead of calling a
+ * function per row.
+ */
+export function dwarfColumn(column: (row: DwarfSequenceRow) => number): Float64Array {
+  return Float64Array.from(DWARF_SEQUENCE, column);
+}
+
+/**
+ * interpolateDwarfColumn without its checks, for Monte Carlo draws: the
+ * same arithmetic, NaN outside the table (2330–45900 K) instead of a throw.
+ * @see Pecaut & Mamajek (2013), ApJS 208, 9, Table 5 (Mamajek's version 2024.05.15)
+ */
+export function interpolateDwarfColumnUnchecked(temperatureK: number, column: Float64Array): number {
+  if (!(temperatureK >= COOLEST_K && temperatureK <= HOTTEST_K)) return NaN;
+  const x = Math.log10(temperatureK);
+  const hotter = hotterRow(x);
+  const a = column[hotter];
+  const b = column[hotter + 1];
+  return a + (b - a) * fractionTowardsCooler(hotter, x);
 }
 
 /**

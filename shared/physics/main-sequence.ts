@@ -1,8 +1,8 @@
 import { CONSTANTS } from './constants';
-import { dwarfColumnSlope, interpolateDwarfColumn } from './dwarf-table';
+import { dwarfColumn, dwarfColumnSlope, interpolateDwarfColumn, interpolateDwarfColumnUnchecked } from './dwarf-table';
 import { requirePositive } from './errors';
 import type { Measured } from './measured';
-import { monteCarlo, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
+import { monteCarlo, type DrawModel, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
 
 /**
  * Main-sequence luminosity at a temperature, and the luminosity of a star of
@@ -76,8 +76,10 @@ export function mainSequenceLogRadius(temperatureK: number, quantity = 'radius')
 }
 
 const LOG_SIGMA_SB_4PI = Math.log10(4 * Math.PI * CONSTANTS.sigma.value);
-const LOG_L_SUN = Math.log10(CONSTANTS.L_sun.value);
+const L_SUN_W = CONSTANTS.L_sun.value;
+const LOG_L_SUN = Math.log10(L_SUN_W);
 const LOG_R_SUN = Math.log10(CONSTANTS.R_sun.value);
+const LOG_L_COLUMN = dwarfColumn((row) => row.logLLsun);
 
 /**
  * log10(L / L☉) of a star of an assumed class at a temperature in K, shifted
@@ -89,9 +91,36 @@ export function assumedClassLogLuminosity(temperatureK: number, assumedClass: Lu
   requirePositive(temperatureK, 'temperature');
   const model = ASSUMED_CLASS_MODELS[assumedClass];
   if (model.kind === 'table_offset') return mainSequenceLogLuminosity(temperatureK) + model.offsetDex + deviationDex;
-  const logR = Math.log10(model.radiusRsun) + LOG_R_SUN + deviationDex;
+  return radiusModelLogLuminosity(temperatureK, model.radiusRsun, deviationDex);
+}
+
+function radiusModelLogLuminosity(temperatureK: number, radiusRsun: number, deviationDex: number): number {
+  const logR = Math.log10(radiusRsun) + LOG_R_SUN + deviationDex;
   return LOG_SIGMA_SB_4PI + 2 * logR + 4 * Math.log10(temperatureK) - LOG_L_SUN;
 }
+
+/**
+ * assumedClassLogLuminosity without its checks, for Monte Carlo draws: the
+ * same arithmetic, NaN where it would throw.
+ */
+function assumedClassLogLuminosityUnchecked(temperatureK: number, model: AssumedClassModel, deviationDex: number): number {
+  if (!(temperatureK > 0)) return NaN;
+  if (model.kind === 'table_offset') return interpolateDwarfColumnUnchecked(temperatureK, LOG_L_COLUMN) + model.offsetDex + deviationDex;
+  return radiusModelLogLuminosity(temperatureK, model.radiusRsun, deviationDex);
+}
+
+/**
+ * Below this log10(L/L☉) the luminosity in W is surely finite (the largest
+ * double is 10^308.25 and L☉ 10^26.58); above it, rare as it is, a rank
+ * asks the luminosity itself.
+ */
+const SAFE_LOG_LSUN = 250;
+/**
+ * Above this flux, in W m⁻², L / 4πF stays finite while log10(L/L☉) stays
+ * below SAFE_LOG_LSUN: L < 10^276.6 W and 4πF > 10^-28.9 W m⁻² give less
+ * than 10^305.5 m². Measured stars are brighter by many orders of magnitude.
+ */
+const SAFE_FLUX_WM2 = 1e-30;
 
 /**
  * Luminosity in W of a star of the assumed class at a temperature in K (with
@@ -105,12 +134,24 @@ export function assumedClassLuminosity(
   assumedClass: LuminosityClassName,
   options: MonteCarloOptions = {},
 ): MonteCarloResult {
-  const scatter = { value: 0, sigma: ASSUMED_CLASS_MODELS[assumedClass].scatterDex };
+  const model = ASSUMED_CLASS_MODELS[assumedClass];
+  const scatter = { value: 0, sigma: model.scatterDex };
+  const exact = (x: Float64Array): number => L_SUN_W * Math.pow(10, assumedClassLogLuminosityUnchecked(x[0], model, x[1]));
+  // L grows with log L, so the draws are ranked by the logarithm and the
+  // power of ten is taken for the four draws the interval is read from.
+  const draws: DrawModel = {
+    exact,
+    rank: (x) => {
+      const logL = assumedClassLogLuminosityUnchecked(x[0], model, x[1]);
+      return logL > SAFE_LOG_LSUN && !Number.isFinite(exact(x)) ? NaN : logL;
+    },
+  };
   return monteCarlo(
-    (x) => CONSTANTS.L_sun.value * Math.pow(10, assumedClassLogLuminosity(x[0], assumedClass, x[1])),
+    (x) => L_SUN_W * Math.pow(10, assumedClassLogLuminosity(x[0], assumedClass, x[1])),
     [temperatureK, scatter],
     'luminosity_hr',
     options,
+    draws,
   );
 }
 
@@ -128,16 +169,37 @@ export function photometricDistance(
   options: MonteCarloOptions = {},
 ): MonteCarloResult {
   requirePositive(fluxWm2.value, 'bolometric_flux');
-  const scatter = { value: 0, sigma: ASSUMED_CLASS_MODELS[assumedClass].scatterDex };
+  const model = ASSUMED_CLASS_MODELS[assumedClass];
+  const scatter = { value: 0, sigma: model.scatterDex };
   const fourPi = 4 * Math.PI;
+  const exact = (x: Float64Array): number => {
+    if (!(x[2] > 0)) return NaN;
+    const luminosity = L_SUN_W * Math.pow(10, assumedClassLogLuminosityUnchecked(x[0], model, x[1]));
+    return Math.sqrt(luminosity / (fourPi * x[2]));
+  };
+  // d = √(L☉ / 4π) 10^((log L − log F) / 2) grows with log L − log F, which
+  // ranks the draws for one logarithm instead of a power, a quotient and a
+  // root. Far from ordinary fluxes and luminosities, where a step could
+  // overflow, the distance itself decides whether the draw counts.
+  const draws: DrawModel = {
+    exact,
+    rank: (x) => {
+      const flux = x[2];
+      if (!(flux > 0)) return NaN;
+      const logL = assumedClassLogLuminosityUnchecked(x[0], model, x[1]);
+      if ((logL > SAFE_LOG_LSUN || flux < SAFE_FLUX_WM2) && !Number.isFinite(exact(x))) return NaN;
+      return logL - Math.log10(flux);
+    },
+  };
   return monteCarlo(
     (x) => {
       requirePositive(x[2], 'bolometric_flux');
-      const luminosity = CONSTANTS.L_sun.value * Math.pow(10, assumedClassLogLuminosity(x[0], assumedClass, x[1]));
+      const luminosity = L_SUN_W * Math.pow(10, assumedClassLogLuminosity(x[0], assumedClass, x[1]));
       return Math.sqrt(luminosity / (fourPi * x[2]));
     },
     [temperatureK, scatter, fluxWm2],
     'distance_photometric',
     options,
+    draws,
   );
 }

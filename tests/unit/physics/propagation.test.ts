@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { PhysicsError } from '@shared/physics/errors';
 import { firstOrder, inverseVarianceMean, measured, powerLaw } from '@shared/physics/measured';
 import { monteCarlo } from '@shared/physics/monte-carlo';
-import { gaussian, mulberry32, seedFor } from '@shared/physics/random';
+import { gaussian, mulberry32, seedFor, standardNormals } from '@shared/physics/random';
 
 describe('measured values', () => {
   it('refuses NaN, Infinity and a negative σ with typed errors', () => {
@@ -63,6 +63,19 @@ describe('seeded random numbers', () => {
     }
     expect(s / n).toBeCloseTo(0, 1);
     expect(Math.sqrt(s2 / n)).toBeCloseTo(1, 1);
+  });
+
+  it('the kept streams are exactly the deviates the generator hands out one call at a time', () => {
+    for (const seed of [1, 7, seedFor(1, 'temperature_colour'), 0xffffffff]) {
+      const normal = gaussian(mulberry32(seed));
+      const short = standardNormals(seed, 5);
+      const long = standardNormals(seed, 3001);
+      for (let i = 0; i < 3001; i++) {
+        const expected = normal();
+        expect(long[i]).toBe(expected);
+        if (i < 5) expect(short[i]).toBe(expected);
+      }
+    }
   });
 
   it('each label draws its own stream from one base seed', () => {
