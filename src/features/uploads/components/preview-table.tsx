@@ -18,7 +18,8 @@ function Cell({ text, errors }: { text: string; errors: RowError[] }) {
       className={cn('font-mono text-xs whitespace-pre', bad && 'outline-2 -outline-offset-2 outline-alert outline-dashed bg-paper-deep')}
       data-error={bad ? 'true' : undefined}
     >
-      {text === '' ? <span className="sr-only">empty</span> : <span>{text}</span>}
+      {/* An empty cell stays blank (screen readers announce it as blank); a positioned sr-only label would widen the page. */}
+      {text === '' ? null : <span>{text}</span>}
       {errors.map((e, i) => (
         <span key={i} className="mt-1 block w-56 font-sans text-xs whitespace-normal text-alert" role="note">
           <span className="font-semibold">Error:</span> {e.message}

@@ -1,0 +1,109 @@
+import path from 'node:path';
+import type { Browser, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { demoAccounts } from '../../seeds/01-demo-scenario';
+import { chromiumAvailable, launchBrowser, screenshot, signInAs, startApp, type RunningApp } from './support/harness';
+
+const SAMPLE = path.resolve(import.meta.dirname, '../../public/samples/glasswing-night.csv');
+
+/** A night's file from the observer's computer to proposed values on a target sheet, in Chromium against the production build. */
+describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => {
+  let app: RunningApp;
+  let browser: Browser;
+
+  beforeAll(async () => {
+    app = await startApp();
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+
+  async function pageAs(email: string): Promise<Page> {
+    const account = demoAccounts.find((a) => a.email === email)!;
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const page = await context.newPage();
+    await signInAs(page, app.baseUrl, email, account.password);
+    return page;
+  }
+
+  async function openProject(page: Page) {
+    await page.getByRole('link', { name: /Glasswing Nearby Dwarfs Programme/ }).first().click();
+    await page.getByRole('link', { name: 'GW 101', exact: true }).waitFor();
+  }
+
+  it('observer: uploads the sample night, commits it, and reads the proposed values on the target sheet', async () => {
+    const page = await pageAs('observer@demo.invalid');
+    await openProject(page);
+    await page.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Upload', exact: true }).click();
+    await page.getByRole('heading', { name: 'Upload measurements' }).waitFor();
+    expect(await page.getByRole('link', { name: 'sample file' }).getAttribute('href')).toBe('/samples/glasswing-night.csv');
+    expect(await page.getByRole('link', { name: /Long template/ }).getAttribute('href')).toMatch(/\/uploads\/templates\/long\.csv$/);
+
+    await page.getByLabel('Measurement file').setInputFiles(SAMPLE);
+    await page.getByTestId('chosen-file').waitFor();
+    await screenshot(page, 'uploads-01-file-chosen');
+    await page.getByRole('button', { name: 'Upload and preview' }).click();
+    await page.waitForURL(/\/projects\/\d+\/uploads\/\d+$/);
+    const uploadId = page.url().split('/').pop();
+    await page.getByTestId('preview-table').waitFor();
+    expect(await page.getByTestId('upload-status').textContent()).toBe('Previewed, not imported');
+    expect(await page.locator('[data-testid="preview-table"] tbody tr').count()).toBe(20);
+    expect(await page.locator('[data-error="true"]').count()).toBe(0);
+    await screenshot(page, 'uploads-02-preview');
+
+    await page.getByRole('button', { name: 'Commit all 20 measurements' }).click();
+    const outcome = page.getByTestId('commit-outcome');
+    await outcome.waitFor();
+    expect(await outcome.textContent()).toContain('20 measurements added');
+    await page.getByTestId('upload-targets').getByRole('link', { name: 'GW 101' }).waitFor();
+    await screenshot(page, 'uploads-03-committed');
+
+    await page.getByTestId('upload-targets').getByRole('link', { name: 'GW 101' }).click();
+    await page.getByRole('heading', { name: 'GW 101' }).waitFor();
+    const adopted = page.locator('[data-quantity="temperature"]').first();
+    await adopted.waitFor();
+    expect(await adopted.textContent()).toMatch(/\d+ ± \d+ K/);
+    expect(await adopted.getByTestId('derived-status').textContent()).toBe('Proposed');
+    expect(await page.locator('[data-quantity="distance_parallax"]').first().textContent()).toContain('pc');
+    await page.getByText('Derived values are estimates from simple models.').waitFor();
+    // The sample has seven rows for GW 101; the demo season may have brought others before it.
+    await page.getByTestId('measurements-table').waitFor();
+    expect(await page.getByTestId('measurements-table').getByRole('link', { name: `Upload ${uploadId}`, exact: true }).count()).toBe(7);
+    await screenshot(page, 'uploads-04-target-sheet');
+  });
+
+  it('observer: a file with errors shows each at its cell and cannot be committed', async () => {
+    const page = await pageAs('observer@demo.invalid');
+    await page.goto(`${app.baseUrl}/projects/1/upload`);
+    await page.getByLabel('Measurement file').setInputFiles({
+      name: 'bad-night.csv',
+      mimeType: 'text/csv',
+      buffer: Buffer.from('target,quantity,value,unit,band\nGW 107,magnitude,"7,12",mag,V\nGW 107,parallax,33.1,nm,\n'),
+    });
+    await page.getByRole('button', { name: 'Upload and preview' }).click();
+    await page.getByTestId('preview-table').waitFor();
+    const bad = page.locator('[data-row="2"] [data-error="true"]');
+    expect(await bad.textContent()).toMatch(/decimal comma/);
+    expect(await page.locator('[data-row="3"] [data-error="true"]').textContent()).toMatch(/not allowed for parallax/);
+    expect(await page.getByRole('button', { name: /Commit all/ }).isDisabled()).toBe(true);
+    expect(await page.getByTestId('commit-blocked').textContent()).toMatch(/2 errors/);
+    await screenshot(page, 'uploads-05-errors');
+  });
+
+  it('reader: sees the upload history but no upload link, and the upload page is refused', async () => {
+    const page = await pageAs('reader@demo.invalid');
+    await openProject(page);
+    const projectNav = page.getByRole('navigation', { name: 'Project' });
+    await projectNav.getByRole('link', { name: 'Uploads', exact: true }).waitFor();
+    expect(await projectNav.getByRole('link', { name: 'Upload', exact: true }).count()).toBe(0);
+    await projectNav.getByRole('link', { name: 'Uploads', exact: true }).click();
+    await page.getByTestId('uploads-table').waitFor();
+    expect(await page.getByRole('link', { name: 'Upload a file' }).count()).toBe(0);
+    await screenshot(page, 'uploads-06-reader-history');
+    await page.goto(`${app.baseUrl}/projects/1/upload`);
+    await page.getByRole('heading', { name: 'Your role does not allow this' }).waitFor();
+    await screenshot(page, 'uploads-07-reader-refused');
+  });
+});
