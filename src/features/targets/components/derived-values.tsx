@@ -45,16 +45,42 @@ function valueTexts(d: DerivedValue): string[] {
   return d.quantity === 'luminosity_class' && line.label ? [`${line.label}: ${texts[0]}`] : texts;
 }
 
-/** What a value was computed from, in words: measurements by kind, band and where they came from; other quantities by name. */
+/**
+ * What a value was computed from, in words and compactly: measurements
+ * grouped by kind and band with the uploads and rows they came from
+ * ("Magnitude V: upload 1 rows 4, 7; upload 2 row 2"), then other quantities by name.
+ */
 function inputWords(inputs: DerivedValue['inputs'], measurements: ReadonlyMap<number, Measurement>): string[] {
-  return inputs.map((input) => {
-    if (typeof input === 'string') return isKnownQuantity(input) ? QUANTITY_NAMES[input] : input;
+  const groups = new Map<string, Map<string, number[]>>();
+  const others: string[] = [];
+  for (const input of inputs) {
+    if (typeof input === 'string') {
+      others.push(isKnownQuantity(input) ? QUANTITY_NAMES[input] : input);
+      continue;
+    }
     const m = measurements.get(input);
-    if (!m) return `measurement ${input}`;
+    if (!m) {
+      others.push(`measurement ${input}`);
+      continue;
+    }
     const what = `${measurementKindName(m.kind)}${m.band ? ` ${m.band}` : ''}`;
-    if (m.uploadId === null) return what;
-    return m.rowNumber === null ? `${what} (upload ${m.uploadId}, spectrum fit)` : `${what} (upload ${m.uploadId}, row ${m.rowNumber})`;
+    const source = m.uploadId === null ? 'entered directly' : `upload ${m.uploadId}`;
+    const bySource = groups.get(what) ?? new Map<string, number[]>();
+    const rows = bySource.get(source) ?? [];
+    if (m.rowNumber !== null) rows.push(m.rowNumber);
+    bySource.set(source, rows);
+    groups.set(what, bySource);
+  }
+  const described = [...groups].map(([what, bySource]) => {
+    const sources = [...bySource].map(([source, rows]) => {
+      if (source === 'entered directly') return source;
+      if (rows.length === 0) return `${source}, spectrum fit`;
+      const sorted = [...rows].sort((a, b) => a - b);
+      return `${source} ${sorted.length === 1 ? 'row' : 'rows'} ${sorted.join(', ')}`;
+    });
+    return `${what}: ${sources.join('; ')}`;
   });
+  return [...described, ...others];
 }
 
 function DerivedLine({ value, measurements }: { value: DerivedValue; measurements: ReadonlyMap<number, Measurement> }) {
@@ -79,7 +105,7 @@ function DerivedLine({ value, measurements }: { value: DerivedValue; measurement
         <p className="mt-0.5 text-xs text-ink-soft">
           {readableMessage(value.methodLabel)} · revision {value.revision} · {formatDateTime(value.createdAt)}
         </p>
-        {inputs.length > 0 ? <p className="mt-0.5 text-xs text-ink-soft">From: {inputs.join('; ')}</p> : null}
+        {inputs.length > 0 ? <p className="mt-0.5 text-xs text-ink-soft">From {inputs.join(' · ')}</p> : null}
         {value.reviewNote || value.reviewedAt ? (
           <p className="mt-0.5 text-xs text-ink">
             <span className="font-semibold">Review{value.reviewedAt ? `, ${formatDateTime(value.reviewedAt)}` : ''}:</span>{' '}

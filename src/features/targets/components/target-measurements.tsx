@@ -10,8 +10,18 @@ import { measurementKindName, unitSymbol } from '@/lib/measurement-words';
 
 const MAG_KINDS = new Set(['magnitude', 'colour_index', 'extinction']);
 
-/** A number exactly as the file gave it, with a true minus sign. */
-const asWritten = (n: number) => String(n).replace(/-/g, '−');
+const decimalsOf = (n: number) => (Number.isInteger(n) || /e/i.test(String(n)) ? 0 : String(n).split('.')[1].length);
+
+/**
+ * A number as the file gave it, with a true minus sign. The file's text is
+ * not kept, only its value, so trailing zeros come back from the σ's
+ * decimal places: 8.00 ± 0.02 rather than 8 ± 0.02.
+ */
+function asWritten(n: number, sigma?: number | null): string {
+  const places = Math.max(decimalsOf(n), sigma == null ? 0 : decimalsOf(sigma));
+  const text = /e/i.test(String(n)) ? String(n) : n.toFixed(places);
+  return text.replace(/-/g, '−');
+}
 
 /**
  * The value as the observer sent it. Values recorded from a spectrum fit were
@@ -24,8 +34,8 @@ function sentValue(m: Measurement): string {
   }
   if (m.rowNumber === null && m.unitAsSent === 'K') return formatMeasured(m.valueAsSent, m.uncertaintyAsSent ?? 0, 'K').text;
   const unit = unitSymbol(m.unitAsSent ?? (MAG_KINDS.has(m.kind) ? 'mag' : ''));
-  const sigma = m.uncertaintyAsSent === null ? '' : ` ± ${asWritten(m.uncertaintyAsSent)}`;
-  return `${asWritten(m.valueAsSent)}${sigma}${unit ? ` ${unit}` : ''}`;
+  const sigma = m.uncertaintyAsSent === null ? '' : ` ± ${asWritten(m.uncertaintyAsSent, m.valueAsSent)}`;
+  return `${asWritten(m.valueAsSent, m.uncertaintyAsSent)}${sigma}${unit ? ` ${unit}` : ''}`;
 }
 
 /** Band for photometry; for a line, its rest wavelength in the unit the observed one came in. */
