@@ -92,7 +92,7 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     await screenshot(page, 'uploads-05-errors');
   });
 
-  it('reader: sees the upload history but no upload link, and the upload page is refused', async () => {
+  it('reader: sees the upload history but no upload link, the upload page is refused, and the sheet shows approved values only', async () => {
     const page = await pageAs('reader@demo.invalid');
     await openProject(page);
     const projectNav = page.getByRole('navigation', { name: 'Project' });
@@ -105,5 +105,13 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     await page.goto(`${app.baseUrl}/projects/1/upload`);
     await page.getByRole('heading', { name: 'Your role does not allow this' }).waitFor();
     await screenshot(page, 'uploads-07-reader-refused');
+
+    // A reader's target sheet carries approved values only; proposed ones are counted, not shown.
+    await page.goto(`${app.baseUrl}/projects/1`);
+    await page.getByRole('link', { name: 'GW 101', exact: true }).click();
+    await page.getByTestId('derived-withheld').waitFor();
+    expect(await page.getByTestId('derived-status').filter({ hasText: 'Proposed' }).count()).toBe(0);
+    await page.getByTestId('measurements-table').waitFor();
+    await screenshot(page, 'uploads-08-reader-target-sheet');
   });
 });

@@ -21,8 +21,21 @@ import { TargetMeasurements } from '@/features/targets/components/target-measure
 import type { ProjectPageNotice } from './project';
 
 /** The target's derived values and the measurements behind them; they load after the sheet's head so it shows at once. */
-function TargetReadings({ projectId, targetId, canUpload }: { projectId: number; targetId: number; canUpload: boolean }) {
+function TargetReadings({
+  projectId,
+  targetId,
+  canUpload,
+  approvedOnly,
+}: {
+  projectId: number;
+  targetId: number;
+  canUpload: boolean;
+  /** Readers (students, guests) read approved values; values still under review are counted, not shown. */
+  approvedOnly: boolean;
+}) {
   const derived = useDerived(projectId, targetId);
+  const shown = derived.data ? (approvedOnly ? derived.data.filter((d) => d.status === 'approved') : derived.data) : undefined;
+  const withheld = derived.data && approvedOnly ? derived.data.length - (shown?.length ?? 0) : 0;
   const measurements = useMeasurements(projectId, targetId);
   const uploadLink = canUpload ? (
     <Link className={linkClasses} to={paths.project.upload.getHref(projectId)}>
@@ -36,12 +49,20 @@ function TargetReadings({ projectId, targetId, canUpload }: { projectId: number;
         <ModelCaution className="mb-4" />
         {derived.isPending || measurements.isPending ? <StatusLine>Loading the derived values…</StatusLine> : null}
         {derived.isError ? <QueryError what="The derived values" error={derived.error} onRetry={() => void derived.refetch()} /> : null}
-        {derived.data && measurements.data ? (
-          derived.data.length > 0 ? (
-            <DerivedValues derived={derived.data} measurements={measurements.data} />
+        {withheld > 0 ? (
+          <p className="mb-4 text-sm text-ink-soft" data-testid="derived-withheld">
+            {withheld === 1 ? '1 derived value is' : `${withheld} derived values are`} awaiting the lead astronomer’s review and will show
+            here once approved.
+          </p>
+        ) : null}
+        {shown && measurements.data ? (
+          shown.length > 0 ? (
+            <DerivedValues derived={shown} measurements={measurements.data} />
           ) : (
-            <EmptyState title="No derived values yet" action={uploadLink}>
-              Values are derived and proposed for review when measurements of this target are committed from an upload.
+            <EmptyState title={approvedOnly ? 'No approved values yet' : 'No derived values yet'} action={uploadLink}>
+              {approvedOnly
+                ? 'The lead astronomer has not approved a value for this target yet.'
+                : 'Values are derived and proposed for review when measurements of this target are committed from an upload.'}
             </EmptyState>
           )
         ) : null}
@@ -106,7 +127,12 @@ function TargetPage({ projectId, targetId }: { projectId: number; targetId: numb
         }
       />
       <TargetDetails target={data} />
-      <TargetReadings projectId={projectId} targetId={targetId} canUpload={roleCan(project.data.myRole, 'upload')} />
+      <TargetReadings
+        projectId={projectId}
+        targetId={targetId}
+        canUpload={roleCan(project.data.myRole, 'upload')}
+        approvedOnly={project.data.myRole === 'reader'}
+      />
     </>
   );
 }
