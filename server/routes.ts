@@ -89,6 +89,7 @@ export function apiRoutes(db: Db, services: Services, passport: StarledgerPasspo
     { method: 'delete', path: `${P}/targets/:targetId`, access: inProject('editTargets'), params: targetParams, handler: targets.remove },
     { method: 'get', path: `${P}/targets/:targetId/derived`, access: inProject('read'), params: targetParams, query: listDerivedQuery, handler: derivations.derived },
     { method: 'get', path: `${P}/targets/:targetId/measurements`, access: inProject('read'), params: targetParams, handler: derivations.measurements },
+    { method: 'get', path: `${P}/targets/:targetId/spectra`, access: inProject('read'), params: targetParams, handler: derivations.spectra },
 
     // Uploads
     { method: 'get', path: `${P}/uploads`, access: inProject('read'), params: projectParams, handler: uploads.list },

@@ -55,7 +55,13 @@ export interface SpectrumPreview {
     temperatureK: number;
     temperatureSigmaK: number;
     logScale: number;
+    /**
+     * χ² per degree of freedom. Without flux uncertainties the fit is
+     * unweighted (`weighted` false) and this is the residual variance in flux
+     * units squared, not a goodness-of-fit number.
+     */
     reducedChiSquare: number;
+    weighted: boolean;
     peakWavelengthM: number;
     peakWavelengthSigmaM: number;
     warnings: { code: string; message: string }[];
@@ -83,6 +89,24 @@ export interface Upload {
   uploadedBy: string | null;
   createdAt: string;
   committedAt: string | null;
+}
+
+export interface CommitResult {
+  upload: Upload;
+  measurementsAdded: number;
+  targetsCreated: string[];
+  derivedProposed: number;
+  /** Every target the file touched, for links. */
+  targets: { id: number; designation: string }[];
+}
+
+export interface StoredSpectrum {
+  id: number;
+  uploadId: number | null;
+  /** [wavelength m, flux as sent] */
+  points: [number, number][];
+  fit: NonNullable<SpectrumPreview['fit']>;
+  createdAt: string;
 }
 
 export interface UploadRowsPage {

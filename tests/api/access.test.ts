@@ -57,6 +57,7 @@ const cases: Record<string, Case> = {
   'DELETE /projects/:projectId/targets/:targetId': { rule: editors },
   'GET /projects/:projectId/targets/:targetId/derived': { rule: everyone },
   'GET /projects/:projectId/targets/:targetId/measurements': { rule: everyone },
+  'GET /projects/:projectId/targets/:targetId/spectra': { rule: everyone },
   'GET /projects/:projectId/uploads': { rule: everyone },
   'POST /projects/:projectId/uploads': { rule: editors, file: true },
   'GET /projects/:projectId/uploads/templates/long.csv': { rule: everyone },

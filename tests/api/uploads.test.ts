@@ -45,6 +45,7 @@ describe('measurement uploads: the happy path', () => {
     const done = await commit(s, world, up.id).expect(200);
     expect(done.body.measurementsAdded).toBe(5);
     expect(done.body.targetsCreated).toEqual(['GW 9']);
+    expect(done.body.targets.map((t: { designation: string }) => t.designation)).toEqual(['GW 9', 'T 1']);
     expect(done.body.derivedProposed).toBeGreaterThan(5);
 
     const targets = await s.agent.get(`/api/projects/${world.projectId}/targets?q=gw9`).expect(200);
@@ -63,6 +64,19 @@ describe('measurement uploads: the happy path', () => {
     expect(measurements.body.measurements.map((m: { rowNumber: number }) => m.rowNumber).sort()).toEqual([2, 3, 4, 5]);
     const halpha = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/derived`).expect(200);
     expect(halpha.body.derived.map((d: { quantity: string }) => d.quantity)).toContain('radial_velocity');
+  });
+
+  it('shows readers only approved values; proposed ones stay with the team', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const up = await upload(s, world, 'target,quantity,value,uncertainty,unit\nT 1,parallax,20,0.5,mas\n');
+    await commit(s, world, up.body.upload.id).expect(200);
+    const url = `/api/projects/${world.projectId}/targets/${world.targetId}/derived`;
+    expect((await s.agent.get(url).expect(200)).body.derived).toHaveLength(1);
+    const reader = await signIn(world.app, 'reader');
+    expect((await reader.agent.get(url).expect(200)).body.derived).toEqual([]);
+    await world.db('derived_values').update({ status: 'approved' });
+    expect((await reader.agent.get(url).expect(200)).body.derived).toHaveLength(1);
   });
 
   it('a second upload of new data proposes a new revision and supersedes the unreviewed one', async () => {
@@ -156,6 +170,10 @@ describe('measurement uploads: the happy path', () => {
     expect(m.body.measurements.map((x: { kind: string }) => x.kind).sort()).toEqual(['peak_wavelength', 'planck_temperature']);
     const d = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/derived`).expect(200);
     expect(d.body.derived.map((x: { quantity: string }) => x.quantity)).toEqual(expect.arrayContaining(['temperature_planck', 'temperature_wien', 'temperature']));
+    const spectra = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/spectra`).expect(200);
+    expect(spectra.body.spectra).toHaveLength(1);
+    expect(spectra.body.spectra[0].points).toHaveLength(121);
+    expect(spectra.body.spectra[0].fit.weighted).toBe(false);
   });
 });
 

@@ -7,7 +7,7 @@ import type { Db } from '../../db/knex';
 import { notFound } from '../../lib/errors';
 import { findTarget } from '../targets/targets.repository';
 import { listDerived } from './derivations.repository';
-import { listMeasurements } from '../measurements/measurements.repository';
+import { listMeasurements, listSpectra } from '../measurements/measurements.repository';
 
 export function derivationsHandlers(db: Db) {
   async function target(res: Response) {
@@ -19,7 +19,14 @@ export function derivationsHandlers(db: Db) {
   return {
     async derived(_req: Request, res: Response) {
       const { projectId, targetId } = await target(res);
-      res.json({ derived: await listDerived(db, projectId, targetId, parsed(res, 'query', listDerivedQuery).include) });
+      const all = await listDerived(db, projectId, targetId, parsed(res, 'query', listDerivedQuery).include);
+      // Readers (students, guests) see values once the lead has approved them (PRODUCT.md, roles).
+      const derived = projectAccessOf(res).role === 'reader' ? all.filter((d) => d.status === 'approved') : all;
+      res.json({ derived });
+    },
+    async spectra(_req: Request, res: Response) {
+      const { projectId, targetId } = await target(res);
+      res.json({ spectra: await listSpectra(db, projectId, targetId) });
     },
     async measurements(_req: Request, res: Response) {
       const { projectId, targetId } = await target(res);

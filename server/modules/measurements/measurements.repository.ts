@@ -1,5 +1,6 @@
 import type { Db } from '../../db/knex';
 import type { Measurement } from '../../../shared/schemas/derived';
+import type { StoredSpectrum } from '../../../shared/schemas/uploads';
 import type { MeasurementInput } from '../../../shared/physics/derive';
 import { chunks } from '../../lib/chunks';
 import { bulkInsert } from '../../db/bulk-insert';
@@ -108,6 +109,17 @@ export async function listMeasurements(db: Db, projectId: number, targetId: numb
     note: r.note,
     extra: parseJson<Record<string, string>>(r.extra_json, {}),
     observer: r.observer_name ?? null,
+    createdAt: toIso(r.created_at),
+  }));
+}
+
+export async function listSpectra(db: Db, projectId: number, targetId: number): Promise<StoredSpectrum[]> {
+  const rows = await db('spectra').where({ project_id: projectId, target_id: targetId }).orderBy('id', 'desc');
+  return rows.map((r) => ({
+    id: r.id,
+    uploadId: r.upload_id,
+    points: parseJson<[number, number][]>(r.points_json, []),
+    fit: parseJson<StoredSpectrum['fit']>(r.fit_json, {} as StoredSpectrum['fit']),
     createdAt: toIso(r.created_at),
   }));
 }

@@ -64,6 +64,7 @@ export function readSpectrum(
         temperatureSigmaK: fit.temperatureK.sigma,
         logScale: fit.logScale.value,
         reducedChiSquare: fit.reducedChiSquare,
+        weighted: sorted.fluxSigma !== undefined,
         peakWavelengthM: peak.value,
         peakWavelengthSigmaM: peak.sigma,
         warnings: fit.warnings.map((w) => ({ code: w.code, message: w.message })),

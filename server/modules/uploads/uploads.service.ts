@@ -228,7 +228,9 @@ export function createUploadsService(db: Db, clock: Clock) {
           valueAsSent: fit.temperatureK,
           uncertaintyAsSent: fit.temperatureSigmaK,
           unitAsSent: 'K',
-          note: `Planck fit to the spectrum of upload ${uploadId} (reduced χ² ${fit.reducedChiSquare.toPrecision(3)}).`,
+          note: fit.weighted
+            ? `Planck fit to the spectrum of upload ${uploadId} (reduced χ² ${fit.reducedChiSquare.toPrecision(3)}).`
+            : `Planck fit to the spectrum of upload ${uploadId} (no flux uncertainties given; σ from the scatter about the fit).`,
         },
         {
           ...common,
@@ -342,7 +344,13 @@ export function createUploadsService(db: Db, clock: Clock) {
           },
           now,
         );
-        return { measurementsAdded: imported.measurementsAdded, targetsCreated: imported.createdTargets, derivedProposed: proposed };
+        const touched = await trx('targets').whereIn('id', imported.targetIds).orderBy('designation_key').select('id', 'designation');
+        return {
+          measurementsAdded: imported.measurementsAdded,
+          targetsCreated: imported.createdTargets,
+          derivedProposed: proposed,
+          targets: touched as { id: number; designation: string }[],
+        };
       });
       return { upload: await get(projectId, uploadId), ...result };
     },
