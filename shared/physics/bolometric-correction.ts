@@ -144,21 +144,22 @@ export function bolometricFluxFromV(
 ): FluxFromV {
   const excess = colourExcessMag ?? { value: 0, sigma: 0 };
   // F = f₀ 10^(−0.4 m_bol) falls as m_bol grows, so the draws are ranked by
-  // −0.4 m_bol and the power of ten is taken for the four draws the interval
+  // −0.4 m_bol and the power of ten is taken for the few draws the interval
   // is read from; rV is checked once, at the nominal inputs.
-  const exponent = (x: Float64Array): number => {
-    const temperature = x[1];
-    if (!(temperature > 0)) return NaN;
-    const mBol = x[0] - rV * x[2] + bolometricCorrectionOfLogT(Math.log10(temperature)) + BC_SHIFT_TO_IAU_2015_MAG;
-    return Number.isFinite(mBol) ? -0.4 * mBol : NaN;
+  const exponent = (v: number, temperature: number, reddening: number): number => {
+    if (!(temperature > 0)) return Number.NaN;
+    const mBol = v - rV * reddening + bolometricCorrectionOfLogT(Math.log10(temperature)) + BC_SHIFT_TO_IAU_2015_MAG;
+    return Number.isFinite(mBol) ? -0.4 * mBol : Number.NaN;
   };
-  const exact = (x: Float64Array): number => F0_WM2 * Math.pow(10, exponent(x));
   const draws: DrawModel = {
-    exact,
-    rank: (x) => {
-      const e = exponent(x);
-      return e > SAFE_FLUX_EXPONENT && !Number.isFinite(exact(x)) ? NaN : e;
+    rank: ([v, temperature, reddening], ranks, n) => {
+      for (let s = 0; s < n; s++) {
+        const e = exponent(v[s], temperature[s], reddening[s]);
+        ranks[s] = e > SAFE_FLUX_EXPONENT && !Number.isFinite(F0_WM2 * Math.pow(10, e)) ? Number.NaN : e;
+      }
     },
+    rankError: 0,
+    value: (x) => F0_WM2 * Math.pow(10, exponent(x[0], x[1], x[2])),
   };
   const fluxWm2 = monteCarlo(
     (x) => bolometricFluxFromVWm2(x[0], x[1], x[2], rV),

@@ -35,7 +35,7 @@ export function ballesterosTemperatureK(colourIndexMag: number): number {
 
 /** The Ballesteros relation without its checks, NaN at and below the singular colour: for Monte Carlo draws. */
 function ballesterosUnchecked(colourIndexMag: number): number {
-  if (colourIndexMag <= SINGULAR_COLOUR_MAG) return NaN;
+  if (colourIndexMag <= SINGULAR_COLOUR_MAG) return Number.NaN;
   const x = 0.92 * colourIndexMag;
   return 4600 * (1 / (x + 1.7) + 1 / (x + 0.62));
 }
@@ -79,8 +79,12 @@ export function colourTemperature(
 ): ColourTemperature {
   const excess = colourExcessMag ?? { value: 0, sigma: 0 };
   const intrinsic = dereddenedColourMag(colourIndexMag.value, excess.value);
+  // The relation is two quotients: each draw is its own rank.
   const temperatureK = monteCarlo((x) => ballesterosTemperatureK(x[0] - x[1]), [colourIndexMag, excess], 'temperature_colour', options, {
-    exact: (x) => ballesterosUnchecked(x[0] - x[1]),
+    rank: ([colour, reddening], ranks, n) => {
+      for (let s = 0; s < n; s++) ranks[s] = ballesterosUnchecked(colour[s] - reddening[s]);
+    },
+    rankError: 0,
   });
   return { temperatureK, intrinsicColourMag: intrinsic, warnings: colourTemperatureWarnings(intrinsic) };
 }

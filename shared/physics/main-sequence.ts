@@ -1,5 +1,14 @@
 import { CONSTANTS } from './constants';
-import { dwarfColumn, dwarfColumnSlope, interpolateDwarfColumn, interpolateDwarfColumnUnchecked } from './dwarf-table';
+import {
+  dwarfColumn,
+  dwarfColumnSlope,
+  dwarfColumnSlopes,
+  fastLog10Temperature,
+  interpolateDwarfColumn,
+  interpolateDwarfColumnFast,
+  interpolateDwarfColumnUnchecked,
+} from './dwarf-table';
+import { FAST_LOG10_ERROR, fastLog10, log10Grid } from './fast-log10';
 import { requirePositive } from './errors';
 import type { Measured } from './measured';
 import { monteCarlo, type DrawModel, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
@@ -80,6 +89,7 @@ const L_SUN_W = CONSTANTS.L_sun.value;
 const LOG_L_SUN = Math.log10(L_SUN_W);
 const LOG_R_SUN = Math.log10(CONSTANTS.R_sun.value);
 const LOG_L_COLUMN = dwarfColumn((row) => row.logLLsun);
+const LOG_L_SLOPES = dwarfColumnSlopes(LOG_L_COLUMN);
 
 /**
  * log10(L / L☉) of a star of an assumed class at a temperature in K, shifted
@@ -104,10 +114,49 @@ function radiusModelLogLuminosity(temperatureK: number, radiusRsun: number, devi
  * same arithmetic, NaN where it would throw.
  */
 function assumedClassLogLuminosityUnchecked(temperatureK: number, model: AssumedClassModel, deviationDex: number): number {
-  if (!(temperatureK > 0)) return NaN;
+  if (!(temperatureK > 0)) return Number.NaN;
   if (model.kind === 'table_offset') return interpolateDwarfColumnUnchecked(temperatureK, LOG_L_COLUMN) + model.offsetDex + deviationDex;
   return radiusModelLogLuminosity(temperatureK, model.radiusRsun, deviationDex);
 }
+
+/**
+ * log10(L/L☉) of a class model for each of the first n draws, for ranking
+ * them: as the unchecked one, NaN in the same places, but with the fast
+ * logarithm, so off by at most LOG_L_RANK_ERROR.
+ */
+function rankLogLuminosity(
+  model: AssumedClassModel,
+  logRadius: number,
+  temperatureK: Float64Array,
+  deviationDex: Float64Array,
+  n: number,
+  out: Float64Array,
+): void {
+  if (model.kind === 'table_offset') {
+    interpolateDwarfColumnFast(temperatureK, n, LOG_L_COLUMN, LOG_L_SLOPES, out);
+    for (let s = 0; s < n; s++) out[s] += model.offsetDex + deviationDex[s];
+    return;
+  }
+  for (let s = 0; s < n; s++) {
+    const t = temperatureK[s];
+    out[s] = t > 0 ? LOG_SIGMA_SB_4PI + 2 * (logRadius + deviationDex[s]) + 4 * fastLog10Temperature(t) - LOG_L_SUN : Number.NaN;
+  }
+}
+
+/** log10(R/m) of a radius model's typical star (unused by the table models). */
+function logRadiusM(model: AssumedClassModel): number {
+  return model.kind === 'radius' ? Math.log10(model.radiusRsun) + LOG_R_SUN : 0;
+}
+
+/**
+ * How far a ranked log10(L/L☉), or a ranked log L − log F, may lie from the
+ * exactly computed one, in dex: the fast logarithm's error times twice the
+ * table's steepest slope (80 dex per dex, O6.5V to O7V) or the 4 of T⁴, plus
+ * one more for log F and one for F / F_nominal's rounding, plus the rounding
+ * of a few sums of numbers below 250; four times that, for margin. About
+ * 10⁻¹⁰ dex, where the draws of a star lie some 10⁻⁴ dex apart.
+ */
+const LOG_L_RANK_ERROR = 4 * ((2 * Math.max(4, ...LOG_L_SLOPES.map(Math.abs)) + 2) * FAST_LOG10_ERROR + 1e-12);
 
 /**
  * Below this log10(L/L☉) the luminosity in W is surely finite (the largest
@@ -121,6 +170,8 @@ const SAFE_LOG_LSUN = 250;
  * than 10^305.5 m². Measured stars are brighter by many orders of magnitude.
  */
 const SAFE_FLUX_WM2 = 1e-30;
+/** Ratios of a drawn flux to the nominal one, where nearly all draws fall: their fast logarithms. */
+const FLUX_RATIO_GRID = log10Grid(1 / 4, 4, 1 / 512);
 
 /**
  * Luminosity in W of a star of the assumed class at a temperature in K (with
@@ -136,15 +187,19 @@ export function assumedClassLuminosity(
 ): MonteCarloResult {
   const model = ASSUMED_CLASS_MODELS[assumedClass];
   const scatter = { value: 0, sigma: model.scatterDex };
-  const exact = (x: Float64Array): number => L_SUN_W * Math.pow(10, assumedClassLogLuminosityUnchecked(x[0], model, x[1]));
+  const logRadius = logRadiusM(model);
+  const luminosity = (t: number, deviation: number): number => L_SUN_W * Math.pow(10, assumedClassLogLuminosityUnchecked(t, model, deviation));
   // L grows with log L, so the draws are ranked by the logarithm and the
-  // power of ten is taken for the four draws the interval is read from.
+  // power of ten is taken for the few draws the interval is read from.
   const draws: DrawModel = {
-    exact,
-    rank: (x) => {
-      const logL = assumedClassLogLuminosityUnchecked(x[0], model, x[1]);
-      return logL > SAFE_LOG_LSUN && !Number.isFinite(exact(x)) ? NaN : logL;
+    rank: ([t, deviation], ranks, n) => {
+      rankLogLuminosity(model, logRadius, t, deviation, n, ranks);
+      for (let s = 0; s < n; s++) {
+        if (ranks[s] > SAFE_LOG_LSUN && !Number.isFinite(luminosity(t[s], deviation[s]))) ranks[s] = Number.NaN;
+      }
     },
+    rankError: LOG_L_RANK_ERROR,
+    value: (x) => luminosity(x[0], x[1]),
   };
   return monteCarlo(
     (x) => L_SUN_W * Math.pow(10, assumedClassLogLuminosity(x[0], assumedClass, x[1])),
@@ -171,25 +226,32 @@ export function photometricDistance(
   requirePositive(fluxWm2.value, 'bolometric_flux');
   const model = ASSUMED_CLASS_MODELS[assumedClass];
   const scatter = { value: 0, sigma: model.scatterDex };
+  const logRadius = logRadiusM(model);
   const fourPi = 4 * Math.PI;
-  const exact = (x: Float64Array): number => {
-    if (!(x[2] > 0)) return NaN;
-    const luminosity = L_SUN_W * Math.pow(10, assumedClassLogLuminosityUnchecked(x[0], model, x[1]));
-    return Math.sqrt(luminosity / (fourPi * x[2]));
+  const distance = (t: number, deviation: number, flux: number): number => {
+    if (!(flux > 0)) return Number.NaN;
+    const luminosity = L_SUN_W * Math.pow(10, assumedClassLogLuminosityUnchecked(t, model, deviation));
+    return Math.sqrt(luminosity / (fourPi * flux));
   };
-  // d = √(L☉ / 4π) 10^((log L − log F) / 2) grows with log L − log F, which
-  // ranks the draws for one logarithm instead of a power, a quotient and a
-  // root. Far from ordinary fluxes and luminosities, where a step could
-  // overflow, the distance itself decides whether the draw counts.
+  // d = √(L☉ / 4π) 10^((log L − log F) / 2) grows with log L − log F, and
+  // so with log L − log(F / F_nominal), which ranks the draws with two fast
+  // logarithms instead of a logarithm, a power, a quotient and a root. Far
+  // from ordinary fluxes and luminosities, where a step could overflow, the
+  // distance itself decides whether a draw counts.
+  const perNominalFlux = 1 / fluxWm2.value;
   const draws: DrawModel = {
-    exact,
-    rank: (x) => {
-      const flux = x[2];
-      if (!(flux > 0)) return NaN;
-      const logL = assumedClassLogLuminosityUnchecked(x[0], model, x[1]);
-      if ((logL > SAFE_LOG_LSUN || flux < SAFE_FLUX_WM2) && !Number.isFinite(exact(x))) return NaN;
-      return logL - Math.log10(flux);
+    rank: ([t, deviation, flux], ranks, n) => {
+      rankLogLuminosity(model, logRadius, t, deviation, n, ranks);
+      for (let s = 0; s < n; s++) {
+        const f = flux[s];
+        const logL = ranks[s];
+        if (!(f > 0)) ranks[s] = Number.NaN;
+        else if ((logL > SAFE_LOG_LSUN || f < SAFE_FLUX_WM2) && !Number.isFinite(distance(t[s], deviation[s], f))) ranks[s] = Number.NaN;
+        else ranks[s] = logL - fastLog10(FLUX_RATIO_GRID, f * perNominalFlux);
+      }
     },
+    rankError: LOG_L_RANK_ERROR,
+    value: (x) => distance(x[0], x[1], x[2]),
   };
   return monteCarlo(
     (x) => {

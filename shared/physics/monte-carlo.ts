@@ -66,7 +66,7 @@ interface DrawSource {
   readonly varying: number;
 }
 
-/** Writes the inputs of draw s into x, exactly as the draw loop made them. */
+/** Writes the inputs of draw s into x, exactly as every draw's inputs are made. */
 function inputsOfDraw(source: DrawSource, s: number, x: Float64Array): void {
   let next = s * source.varying;
   for (let i = 0; i < x.length; i++) {
@@ -75,60 +75,128 @@ function inputsOfDraw(source: DrawSource, s: number, x: Float64Array): void {
 }
 
 /**
- * Quantile p of the draws, linear between neighbouring order statistics:
- * keys[kLo..kHi] must hold the order statistics k..kHi after select(keys, k),
- * where k = floor(p (n − 1)); the partner of a[k] is the smallest key of
- * (k..kHi]. `outcome` turns the position of a key into the draw's value.
+ * A faster way to run a law's draws than calling its checked function once
+ * per draw. With a thousand draws per quantity, the checks, the thrown
+ * errors, the call per draw and the last logarithm or power of ten are the
+ * bulk of the cost, while the interval needs the values of four draws only:
+ * the draws are ranked in one loop, and f's value is computed for the few
+ * draws the interval is read from.
  */
-function interpolatedQuantile(keys: Float64Array, k: number, kHi: number, fraction: number, outcome: (position: number) => number): number {
-  const below = outcome(k);
-  if (k + 1 > kHi) return below;
-  let at = k + 1;
-  for (let i = k + 2; i <= kHi; i++) if (keys[i] < keys[at]) at = i;
-  const above = outcome(at);
-  return below + (above - below) * fraction;
+export interface DrawModel {
+  /**
+   * Writes, for each draw s < n, a number that orders the draws as f's
+   * values do (never decreasing as f grows) into ranks[s], from the inputs
+   * by column (columns[i][s] is input i in draw s); NaN exactly where f
+   * would throw or not be finite. Write it as Number.NaN in such loops: in
+   * Node 20's V8 the global NaN in one branch makes every result a number
+   * allocated on the heap, 16 bytes a draw for the collector to sweep.
+   */
+  readonly rank: (columns: readonly Float64Array[], ranks: Float64Array, n: number) => void;
+  /**
+   * How far a rank may lie from the exactly computed one, in the rank's
+   * unit; 0 when the ranks are exact. Draws whose ranks lie this close to
+   * an order statistic are settled by their values.
+   */
+  readonly rankError: number;
+  /** f without its checks at one draw's inputs; omit it when the rank is f's value itself. */
+  readonly value?: (x: Float64Array) => number;
 }
 
 /**
- * The 15.87th and 84.13th percentiles of the n accepted draws (keys is
- * rearranged). The upper order statistic is selected first; the lower one is
- * then selected among the entries below it only, and its interpolation
- * partner looked for there too, since nothing past the upper one is smaller.
- * Order statistics are unique, so this gives the numbers a full sort gives.
+ * Input i of every draw: its nominal value, or, for the j-th varying input,
+ * nominal + σ × the j-th deviate of each draw's share (j < 0: fixed).
  */
-function centralInterval(keys: Float64Array, n: number, outcome: (position: number) => number): { low: number; high: number } {
+function fillColumn(column: Float64Array, samples: number, nominal: number, sigma: number, deviates: Float64Array, j: number, varying: number): void {
+  if (j < 0) {
+    column.fill(nominal, 0, samples);
+    return;
+  }
+  for (let s = 0, at = j; s < samples; s++, at += varying) column[s] = nominal + sigma * deviates[at];
+}
+
+/**
+ * Scratch shared by the propagations, grown on demand: the inputs by
+ * column, each draw's rank and the accepted ranks. One propagation runs at a
+ * time: no law calls a Monte Carlo from inside another.
+ */
+let columnScratch: Float64Array[] = [];
+let rankScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
+let keyScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
+
+function scratchColumns(count: number, samples: number): Float64Array[] {
+  if (columnScratch.length < count || (count > 0 && columnScratch[0].length < samples)) {
+    const length = Math.max(samples, columnScratch[0]?.length ?? 0);
+    columnScratch = Array.from({ length: Math.max(count, columnScratch.length) }, () => new Float64Array(length));
+  }
+  return columnScratch.slice(0, count);
+}
+
+/**
+ * Value of the draw whose rank is the j-th smallest of the accepted ones,
+ * where `approximate` is that j-th smallest rank. Ranks may be off by up to
+ * ε = rankError, so the j-th smallest exact rank lies within ε of
+ * `approximate` (an order statistic moves no further than its elements), and
+ * its draw has a rank within 2ε. Every draw further off than 3ε is on its
+ * side of it by more than ε, far beyond any rounding of f; the draws inside
+ * are ordered by their values, and the answer is the one preceded by j
+ * minus the draws below.
+ */
+function valueOfOrderStatistic(
+  j: number,
+  approximate: number,
+  ranks: Float64Array,
+  samples: number,
+  rankError: number,
+  valueOfDraw: (x: Float64Array) => number,
+  source: DrawSource,
+  x: Float64Array,
+): number {
+  const window = 3 * rankError;
+  let below = 0;
+  const candidates: number[] = [];
+  for (let s = 0; s < samples; s++) {
+    const r = ranks[s];
+    if (r < approximate - window) below++;
+    else if (r <= approximate + window) {
+      inputsOfDraw(source, s, x);
+      candidates.push(valueOfDraw(x));
+    }
+  }
+  if (candidates.length > 1) candidates.sort((a, b) => a - b);
+  return candidates[j - below];
+}
+
+/**
+ * The central 68.27% interval of the n accepted draws, each end linear
+ * between neighbouring order statistics. `keys` (rearranged) holds the
+ * accepted ranks; `valueOf(j, key)` gives the value of the j-th smallest,
+ * whose rank is key. The upper order statistic is selected first, the lower
+ * one then among the entries below it only; each one's neighbour is the
+ * smallest entry above it in the part known to hold it. Order statistics
+ * are unique, so this gives the numbers a full sort gives.
+ */
+function centralInterval(keys: Float64Array, n: number, valueOf: (j: number, key: number) => number): { low: number; high: number } {
   const posHigh = 0.841345 * (n - 1);
   const kHigh = Math.floor(posHigh);
   select(keys, kHigh, 0, n - 1);
-  const high = interpolatedQuantile(keys, kHigh, n - 1, posHigh - kHigh, outcome);
+  const high = interpolatedQuantile(keys, kHigh, n - 1, posHigh - kHigh, valueOf);
   const posLow = 0.158655 * (n - 1);
   const kLow = Math.floor(posLow);
   select(keys, kLow, 0, kHigh);
-  const low = interpolatedQuantile(keys, kLow, kHigh, posLow - kLow, outcome);
+  // Entries past kHigh are not smaller than keys[kHigh], so kLow's neighbour lies in (kLow, kHigh].
+  const low = interpolatedQuantile(keys, kLow, kHigh, posLow - kLow, valueOf);
   return { low, high };
 }
 
-/**
- * A faster way to run a model's draws than calling its checked function.
- * Thousands of draws per quantity make the checks, the thrown errors and
- * the last power of ten the bulk of the cost, while the interval needs the
- * values of four draws only.
- */
-export interface DrawModel {
-  /** f without its checks: the same arithmetic, NaN where f would throw. Never throws. */
-  readonly exact: (x: Float64Array) => number;
-  /**
-   * A cheaper number that orders the draws as `exact` does (never
-   * decreasing as it grows), and is NaN exactly where `exact` is not a
-   * finite number. When given, `exact` runs only for the draws the interval
-   * is read from. Omit it when `exact` is as cheap.
-   */
-  readonly rank?: (x: Float64Array) => number;
+/** The quantile at k + fraction, for keys[k] selected and keys(k..last] holding the larger ones. */
+function interpolatedQuantile(keys: Float64Array, k: number, last: number, fraction: number, valueOf: (j: number, key: number) => number): number {
+  const below = valueOf(k, keys[k]);
+  if (k + 1 > last) return below;
+  let next = keys[k + 1];
+  for (let i = k + 2; i <= last; i++) if (keys[i] < next) next = keys[i];
+  const above = valueOf(k + 1, next);
+  return below + (above - below) * fraction;
 }
-
-/** Scratch for the accepted draws' keys and for the rank of each draw, grown on demand. */
-let keyBuffer = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
-let rankBuffer = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
 
 /**
  * Seeded Monte Carlo propagation of independent Gaussian inputs through f
@@ -138,9 +206,8 @@ let rankBuffer = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
  * fails at the nominal inputs or fewer than 50 draws are accepted.
  *
  * With a `model`, f runs once, at the nominal inputs, where a refusal
- * carries its own message, and the model computes the draws; the result is
- * the same to the last digit. Neither f nor the model may itself run a
- * Monte Carlo (the draws live in shared scratch buffers).
+ * carries its own message, and the model computes the draws (see
+ * DrawModel); the interval is the same to the last digit.
  * @see JCGM 101:2008 (GUM Supplement 1), propagation of distributions by Monte Carlo
  */
 export function monteCarlo(
@@ -166,30 +233,32 @@ export function monteCarlo(
   // Draw s takes the next deviate of the stream for each varying input in
   // order, as one generator call after another would hand them out.
   const source: DrawSource = { nominal, sigma, deviates: standardNormals(options.seed ?? 1, samples * varying), varying };
-  if (keyBuffer.length < samples) {
-    keyBuffer = new Float64Array(samples);
-    rankBuffer = new Float64Array(samples);
+  if (rankScratch.length < samples) {
+    rankScratch = new Float64Array(samples);
+    keyScratch = new Float64Array(samples);
   }
-  const keys = keyBuffer;
-  const rankOfDraw = rankBuffer;
-  const rank = model?.rank;
-  const evaluate = model ? model.exact : f;
+  const ranks = rankScratch;
+  const keys = keyScratch;
   let accepted = 0;
-  for (let s = 0; s < samples; s++) {
-    inputsOfDraw(source, s, x);
-    let y: number;
-    if (rank) {
-      y = rank(x);
-      rankOfDraw[s] = y;
-    } else {
+  if (model) {
+    const columns = scratchColumns(k, samples);
+    for (let i = 0, j = 0; i < k; i++) {
+      fillColumn(columns[i], samples, nominal[i], sigma[i], source.deviates, sigma[i] === 0 ? -1 : j++, varying);
+    }
+    model.rank(columns, ranks, samples);
+    for (let s = 0; s < samples; s++) if (Number.isFinite(ranks[s])) keys[accepted++] = ranks[s];
+  } else {
+    for (let s = 0; s < samples; s++) {
+      inputsOfDraw(source, s, x);
+      let y: number;
       try {
-        y = evaluate(x);
+        y = f(x);
       } catch (error) {
         if (error instanceof PhysicsError) continue;
         throw error;
       }
+      if (Number.isFinite(y)) keys[accepted++] = y;
     }
-    if (Number.isFinite(y)) keys[accepted++] = y;
   }
   if (accepted < MIN_ACCEPTED) {
     throw new PhysicsError(
@@ -199,16 +268,11 @@ export function monteCarlo(
       `${MIN_ACCEPTED} valid draws`,
     );
   }
-  // Ranked draws: find the draw that holds a key and compute its value.
-  const outcome = rank
-    ? (position: number): number => {
-        const key = keys[position];
-        let s = 0;
-        while (rankOfDraw[s] !== key) s++;
-        inputsOfDraw(source, s, x);
-        return evaluate(x);
-      }
-    : (position: number): number => keys[position];
-  const { low, high } = centralInterval(keys, accepted, outcome);
+  const valueOfDraw = model?.value;
+  const rankError = model?.rankError ?? 0;
+  const valueOf = valueOfDraw
+    ? (j: number, key: number): number => valueOfOrderStatistic(j, key, ranks, samples, rankError, valueOfDraw, source, x)
+    : (_j: number, key: number): number => key;
+  const { low, high } = centralInterval(keys, accepted, valueOf);
   return { value, sigma: (high - low) / 2, low, high, accepted, rejected: samples - accepted };
 }
