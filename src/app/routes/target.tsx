@@ -16,26 +16,29 @@ import { TargetDetails } from '@/features/targets/components/target-details';
 import { DeleteTarget } from '@/features/targets/components/delete-target';
 import { useDerived } from '@/features/targets/api/get-derived';
 import { useMeasurements } from '@/features/targets/api/get-measurements';
+import { useSpectra } from '@/features/targets/api/get-spectra';
 import { DerivedValues, ModelCaution } from '@/features/targets/components/derived-values';
 import { TargetMeasurements } from '@/features/targets/components/target-measurements';
+import { TargetSpectra } from '@/features/targets/components/target-spectra';
 import type { ProjectPageNotice } from './project';
 
-/** The target's derived values and the measurements behind them; they load after the sheet's head so it shows at once. */
+/** The target's derived values, spectra and the measurements behind them; they load after the sheet's head so it shows at once. */
 function TargetReadings({
   projectId,
   targetId,
+  designation,
   canUpload,
-  approvedOnly,
+  isReader,
 }: {
   projectId: number;
   targetId: number;
+  designation: string;
   canUpload: boolean;
-  /** Readers (students, guests) read approved values; values still under review are counted, not shown. */
-  approvedOnly: boolean;
+  /** Readers (students, guests) are sent approved values only, so an empty list may still hide values under review. */
+  isReader: boolean;
 }) {
   const derived = useDerived(projectId, targetId);
-  const shown = derived.data ? (approvedOnly ? derived.data.filter((d) => d.status === 'approved') : derived.data) : undefined;
-  const withheld = derived.data && approvedOnly ? derived.data.length - (shown?.length ?? 0) : 0;
+  const spectra = useSpectra(projectId, targetId);
   const measurements = useMeasurements(projectId, targetId);
   const uploadLink = canUpload ? (
     <Link className={linkClasses} to={paths.project.upload.getHref(projectId)}>
@@ -49,24 +52,32 @@ function TargetReadings({
         <ModelCaution className="mb-4" />
         {derived.isPending || measurements.isPending ? <StatusLine>Loading the derived values…</StatusLine> : null}
         {derived.isError ? <QueryError what="The derived values" error={derived.error} onRetry={() => void derived.refetch()} /> : null}
-        {withheld > 0 ? (
-          <p className="mb-4 text-sm text-ink-soft" data-testid="derived-withheld">
-            {withheld === 1 ? '1 derived value is' : `${withheld} derived values are`} awaiting the lead astronomer’s review and will show
-            here once approved.
-          </p>
-        ) : null}
-        {shown && measurements.data ? (
-          shown.length > 0 ? (
-            <DerivedValues derived={shown} measurements={measurements.data} />
+        {derived.data && measurements.data ? (
+          derived.data.length > 0 ? (
+            <DerivedValues derived={derived.data} measurements={measurements.data} />
+          ) : isReader ? (
+            <EmptyState title="No approved values yet">
+              <p data-testid="derived-withheld">
+                Values still under the lead astronomer’s review are not shown here yet; they appear once approved.
+              </p>
+            </EmptyState>
           ) : (
-            <EmptyState title={approvedOnly ? 'No approved values yet' : 'No derived values yet'} action={uploadLink}>
-              {approvedOnly
-                ? 'The lead astronomer has not approved a value for this target yet.'
-                : 'Values are derived and proposed for review when measurements of this target are committed from an upload.'}
+            <EmptyState title="No derived values yet" action={uploadLink}>
+              Values are derived and proposed for review when measurements of this target are committed from an upload.
             </EmptyState>
           )
         ) : null}
       </Section>
+      {spectra.isError ? (
+        <Section title="Spectra" className="mt-10">
+          <QueryError what="The spectra" error={spectra.error} onRetry={() => void spectra.refetch()} />
+        </Section>
+      ) : null}
+      {spectra.data && spectra.data.length > 0 ? (
+        <Section title={spectra.data.length === 1 ? 'Spectrum' : 'Spectra'} className="mt-10">
+          <TargetSpectra projectId={projectId} designation={designation} spectra={spectra.data} />
+        </Section>
+      ) : null}
       <Section title="Measurements" className="mt-10">
         {measurements.isPending ? <StatusLine>Loading the measurements…</StatusLine> : null}
         {measurements.isError ? (
@@ -130,8 +141,9 @@ function TargetPage({ projectId, targetId }: { projectId: number; targetId: numb
       <TargetReadings
         projectId={projectId}
         targetId={targetId}
+        designation={data.designation}
         canUpload={roleCan(project.data.myRole, 'upload')}
-        approvedOnly={project.data.myRole === 'reader'}
+        isReader={project.data.myRole === 'reader'}
       />
     </>
   );

@@ -1,12 +1,13 @@
 import { useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { roleCan } from '@shared/schemas/roles';
-import type { Upload } from '@shared/schemas/uploads';
+import type { CommitResult, Upload } from '@shared/schemas/uploads';
 import { paths } from '@/config/paths';
 import { useNumericParam } from '@/hooks/use-numeric-param';
 import { PageHeader, Section } from '@/components/ui/page-header';
 import { Alert, StatusLine } from '@/components/ui/alert';
 import { ButtonLink } from '@/components/ui/button';
+import { SpectrumChart } from '@/components/charts/spectrum-chart';
 import { NotFoundMessage } from '@/components/errors/error-messages';
 import { QueryError } from '@/components/errors/query-error';
 import { useProject } from '@/features/projects/api/get-project';
@@ -16,12 +17,10 @@ import { targetKeys } from '@/features/targets/api/keys';
 import { useUpload } from '@/features/uploads/api/get-upload';
 import { useUploadRows } from '@/features/uploads/api/get-upload-rows';
 import { useRemapUpload } from '@/features/uploads/api/remap-upload';
-import type { CommitResult } from '@/features/uploads/api/commit-upload';
 import { ColumnMappingForm } from '@/features/uploads/components/column-mapping';
 import { CommitPanel } from '@/features/uploads/components/commit-panel';
 import { AffectedTargets, CommitOutcome } from '@/features/uploads/components/commit-result';
 import { PreviewTable } from '@/features/uploads/components/preview-table';
-import { SpectrumPreview } from '@/features/uploads/components/spectrum-preview';
 import { SunCautions, UploadSummary } from '@/features/uploads/components/upload-summary';
 import { UPLOAD_STATUS_WORDS } from '@/features/uploads/components/upload-words';
 
@@ -61,6 +60,10 @@ function UploadPreviewPage({ projectId, uploadId }: { projectId: number; uploadI
   const u = upload.data;
   const previewed = u.status === 'previewed';
   const spectrumTarget = u.spectrum ? (targets.data?.find((t) => t.id === u.spectrum?.targetId)?.designation ?? null) : null;
+  // The commit answers with every target the file touched; a committed spectrum opened later still names its one target.
+  const touched =
+    result?.targets ??
+    (u.status === 'committed' && u.spectrum && spectrumTarget ? [{ id: u.spectrum.targetId, designation: spectrumTarget }] : null);
   const sample = firstPage.data?.rows[0]?.cells ?? null;
   const onDataChanged = () => {
     void queryClient.invalidateQueries({ queryKey: targetKeys.project(projectId) });
@@ -94,10 +97,10 @@ function UploadPreviewPage({ projectId, uploadId }: { projectId: number; uploadI
       {result ? <CommitOutcome result={result} /> : null}
       {u.status === 'discarded' ? <Alert kind="notice" title="This upload was discarded; nothing from it was imported." className="mb-6" /> : null}
 
-      {u.status === 'committed' ? (
+      {touched ? (
         <Section title="Targets in this upload" className="mb-10">
           <p className="mb-2 text-sm text-ink-soft">Their sheets show the new measurements and the derived values proposed from them.</p>
-          <AffectedTargets projectId={projectId} upload={u} targets={targets.data ?? []} />
+          <AffectedTargets projectId={projectId} targets={touched} />
         </Section>
       ) : null}
 
@@ -107,7 +110,9 @@ function UploadPreviewPage({ projectId, uploadId }: { projectId: number; uploadI
 
       {u.kind === 'spectrum' && u.spectrum ? (
         <Section title="Spectrum and Planck fit" className="mb-10">
-          <SpectrumPreview spectrum={u.spectrum} designation={spectrumTarget} />
+          <SpectrumChart points={u.spectrum.points} fit={u.spectrum.fit} designation={spectrumTarget}>
+            {u.spectrum.fit ? null : <Alert title="No Planck fit could be made.">The errors below say what stopped it.</Alert>}
+          </SpectrumChart>
         </Section>
       ) : null}
 

@@ -13,5 +13,6 @@ export const targetKeys = {
   detail: (projectId: number, targetId: number) => [...targetKeys.details(projectId), targetId] as const,
   derived: (projectId: number, targetId: number, include: 'current' | 'all') => [...targetKeys.detail(projectId, targetId), 'derived', include] as const,
   measurements: (projectId: number, targetId: number) => [...targetKeys.detail(projectId, targetId), 'measurements'] as const,
+  spectra: (projectId: number, targetId: number) => [...targetKeys.detail(projectId, targetId), 'spectra'] as const,
   choices: (projectId: number) => [...targetKeys.project(projectId), 'choices'] as const,
 };

@@ -1,16 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Upload } from '@shared/schemas/uploads';
+import type { CommitResult } from '@shared/schemas/uploads';
 import { api } from '@/lib/api-client';
 import { uploadKeys } from './keys';
 
-/** What a commit did: the measurements it added, the targets it created (by designation) and how many derived values it proposed. */
-export interface CommitResult {
-  upload: Upload;
-  measurementsAdded: number;
-  targetsCreated: string[];
-  derivedProposed: number;
-}
-
+/** Imports the file whole; the answer counts what it added and names every target it touched. */
 export function commitUpload(projectId: number, uploadId: number, confirmDuplicate: boolean): Promise<CommitResult> {
   return api.post<CommitResult>(`/projects/${projectId}/uploads/${uploadId}/commit`, { confirmDuplicate });
 }

@@ -13,7 +13,6 @@ export const uploadKeys = {
   details: (projectId: number) => [...uploadKeys.project(projectId), 'detail'] as const,
   detail: (projectId: number, uploadId: number) => [...uploadKeys.details(projectId), uploadId] as const,
   rows: (projectId: number, uploadId: number, params: UploadRowsParams) => [...uploadKeys.detail(projectId, uploadId), 'rows', params] as const,
-  targetNames: (projectId: number, uploadId: number, column: string) => [...uploadKeys.detail(projectId, uploadId), 'target-names', column] as const,
 };
 
 /*

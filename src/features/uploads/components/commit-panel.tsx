@@ -1,10 +1,10 @@
 import { useId, useState } from 'react';
-import type { Upload } from '@shared/schemas/uploads';
+import type { CommitResult, Upload } from '@shared/schemas/uploads';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { CheckboxField } from '@/components/ui/field';
 import { formatCount } from '@/lib/format';
-import { useCommitUpload, type CommitResult } from '../api/commit-upload';
+import { useCommitUpload } from '../api/commit-upload';
 import { useDiscardUpload } from '../api/discard-upload';
 
 /** Why the commit button is off, in words, or null when it may be pressed. */
