@@ -1,6 +1,7 @@
 import path from 'node:path';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { planckSpectralRadiance } from '../../shared/physics/planck';
 import { demoAccounts } from '../../seeds/01-demo-scenario';
 import { chromiumAvailable, launchBrowser, screenshot, signInAs, startApp, type RunningApp } from './support/harness';
 
@@ -74,6 +75,29 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     await screenshot(page, 'uploads-04-target-sheet');
   });
 
+  it('observer: commits a spectrum and finds it plotted with its Planck fit on the target sheet', async () => {
+    const page = await pageAs('observer@demo.invalid');
+    // A 5200 K blackbody, 350–1000 nm, peak inside the range (Wien: 2.897771955e-3 m K / 5200 K ≈ 557 nm, CODATA 2018 b); no flux uncertainties.
+    const rows = ['wavelength,flux'];
+    for (let nm = 350; nm <= 1000; nm += 5) rows.push(`${nm},${(planckSpectralRadiance(nm * 1e-9, 5200) * 1e-13).toPrecision(8)}`);
+    await page.goto(`${app.baseUrl}/projects/1/upload`);
+    await page.getByRole('radio', { name: /Spectrum of one target/ }).check();
+    await page.getByLabel('Target', { exact: true }).selectOption({ label: 'GW 106' });
+    await page.getByLabel('Measurement file').setInputFiles({ name: 'gw106-spectrum.csv', mimeType: 'text/csv', buffer: Buffer.from(rows.join('\n')) });
+    await page.getByRole('button', { name: 'Upload and preview' }).click();
+    await page.getByTestId('spectrum-chart').waitFor();
+    // Without flux uncertainties the fit's χ² is in flux units squared, so the preview says how σ was found instead.
+    expect(await page.getByTestId('spectrum-fit-quality').textContent()).toMatch(/No flux uncertainties given/);
+    await page.getByRole('button', { name: /Commit the spectrum fit/ }).click();
+    await page.getByTestId('commit-outcome').waitFor();
+    await page.getByTestId('upload-targets').getByRole('link', { name: 'GW 106' }).click();
+    await page.getByRole('heading', { name: 'GW 106' }).waitFor();
+    await page.getByTestId('spectrum-chart').waitFor();
+    expect(await page.getByTestId('spectrum-temperature').textContent()).toMatch(/^5200(\.\d+)? ± [\d.]+ K$/);
+    expect(await page.getByTestId('spectrum-fit-quality').textContent()).toMatch(/No flux uncertainties given/);
+    await screenshot(page, 'uploads-05-target-spectrum');
+  });
+
   it('observer: a file with errors shows each at its cell and cannot be committed', async () => {
     const page = await pageAs('observer@demo.invalid');
     await page.goto(`${app.baseUrl}/projects/1/upload`);
@@ -89,7 +113,7 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     expect(await page.locator('[data-row="3"] [data-error="true"]').textContent()).toMatch(/not allowed for parallax/);
     expect(await page.getByRole('button', { name: /Commit all/ }).isDisabled()).toBe(true);
     expect(await page.getByTestId('commit-blocked').textContent()).toMatch(/2 errors/);
-    await screenshot(page, 'uploads-05-errors');
+    await screenshot(page, 'uploads-06-errors');
   });
 
   it('reader: sees the upload history but no upload link, the upload page is refused, and the sheet shows approved values only', async () => {
@@ -101,17 +125,17 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     await projectNav.getByRole('link', { name: 'Uploads', exact: true }).click();
     await page.getByTestId('uploads-table').waitFor();
     expect(await page.getByRole('link', { name: 'Upload a file' }).count()).toBe(0);
-    await screenshot(page, 'uploads-06-reader-history');
+    await screenshot(page, 'uploads-07-reader-history');
     await page.goto(`${app.baseUrl}/projects/1/upload`);
     await page.getByRole('heading', { name: 'Your role does not allow this' }).waitFor();
-    await screenshot(page, 'uploads-07-reader-refused');
+    await screenshot(page, 'uploads-08-reader-refused');
 
-    // A reader's target sheet carries approved values only; proposed ones are counted, not shown.
+    // The server sends a reader approved values only; with none yet, the sheet says values under review are not shown.
     await page.goto(`${app.baseUrl}/projects/1`);
     await page.getByRole('link', { name: 'GW 101', exact: true }).click();
     await page.getByTestId('derived-withheld').waitFor();
     expect(await page.getByTestId('derived-status').filter({ hasText: 'Proposed' }).count()).toBe(0);
     await page.getByTestId('measurements-table').waitFor();
-    await screenshot(page, 'uploads-08-reader-target-sheet');
+    await screenshot(page, 'uploads-09-reader-target-sheet');
   });
 });
