@@ -86,6 +86,8 @@ export interface Upload {
   cautions: Caution[];
   duplicateOf: number | null;
   spectrum: SpectrumPreview | null;
+  /** Targets whose measurements came from this upload (committed uploads, in the single-upload view). */
+  targets: { id: number; designation: string }[];
   uploadedBy: string | null;
   createdAt: string;
   committedAt: string | null;

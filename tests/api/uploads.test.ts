@@ -46,6 +46,8 @@ describe('measurement uploads: the happy path', () => {
     expect(done.body.measurementsAdded).toBe(5);
     expect(done.body.targetsCreated).toEqual(['GW 9']);
     expect(done.body.targets.map((t: { designation: string }) => t.designation)).toEqual(['GW 9', 'T 1']);
+    const reopened = await s.agent.get(`/api/projects/${world.projectId}/uploads/${up.id}`).expect(200);
+    expect(reopened.body.upload.targets).toEqual(done.body.targets);
     expect(done.body.derivedProposed).toBeGreaterThan(5);
 
     const targets = await s.agent.get(`/api/projects/${world.projectId}/targets?q=gw9`).expect(200);

@@ -73,6 +73,7 @@ function toUpload(r: UploadRow, preview: PreviewState | null): Upload {
     cautions: preview?.cautions ?? [],
     duplicateOf: preview?.duplicateOf ?? null,
     spectrum: preview?.spectrum ?? null,
+    targets: [],
     uploadedBy: r.uploaded_by ?? null,
     createdAt: toIso(r.created_at),
     committedAt: r.committed_at == null ? null : toIso(r.committed_at),
@@ -123,7 +124,14 @@ export async function findUpload(db: Db, projectId: number, uploadId: number, wi
     .where({ 'u.project_id': projectId, 'u.id': uploadId })
     .first([...SUMMARY_COLUMNS, ...(withPreview ? ['u.preview_json'] : [])]);
   if (!row) return undefined;
-  return toUpload(row, withPreview ? parseJson<PreviewState | null>(row.preview_json, null) : null);
+  const upload = toUpload(row, withPreview ? parseJson<PreviewState | null>(row.preview_json, null) : null);
+  if (upload.status === 'committed') {
+    upload.targets = await db('targets')
+      .whereIn('id', db('measurements').where({ upload_id: uploadId }).distinct('target_id'))
+      .orderBy('designation_key')
+      .select('id', 'designation');
+  }
+  return upload;
 }
 
 export async function loadPreviewState(db: Db, uploadId: number): Promise<PreviewState | null> {

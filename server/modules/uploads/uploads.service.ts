@@ -344,15 +344,10 @@ export function createUploadsService(db: Db, clock: Clock) {
           },
           now,
         );
-        const touched = await trx('targets').whereIn('id', imported.targetIds).orderBy('designation_key').select('id', 'designation');
-        return {
-          measurementsAdded: imported.measurementsAdded,
-          targetsCreated: imported.createdTargets,
-          derivedProposed: proposed,
-          targets: touched as { id: number; designation: string }[],
-        };
+        return { measurementsAdded: imported.measurementsAdded, targetsCreated: imported.createdTargets, derivedProposed: proposed };
       });
-      return { upload: await get(projectId, uploadId), ...result };
+      const committed = await get(projectId, uploadId);
+      return { upload: committed, ...result, targets: committed.targets };
     },
 
     async discard(projectId: number, uploadId: number, actorUserId: number): Promise<Upload> {

@@ -60,10 +60,7 @@ function UploadPreviewPage({ projectId, uploadId }: { projectId: number; uploadI
   const u = upload.data;
   const previewed = u.status === 'previewed';
   const spectrumTarget = u.spectrum ? (targets.data?.find((t) => t.id === u.spectrum?.targetId)?.designation ?? null) : null;
-  // The commit answers with every target the file touched; a committed spectrum opened later still names its one target.
-  const touched =
-    result?.targets ??
-    (u.status === 'committed' && u.spectrum && spectrumTarget ? [{ id: u.spectrum.targetId, designation: spectrumTarget }] : null);
+  const touched = result?.targets ?? (u.status === 'committed' ? u.targets : null);
   const sample = firstPage.data?.rows[0]?.cells ?? null;
   const onDataChanged = () => {
     void queryClient.invalidateQueries({ queryKey: targetKeys.project(projectId) });
