@@ -1,5 +1,5 @@
 import { PhysicsError, requirePositive } from './errors';
-import { fastLog10, log10Grid, log10GridCell, log10InCell } from './fast-log10';
+import { fastLog10Each, log10Grid } from './fast-log10';
 import { DWARF_SEQUENCE, type DwarfSequenceRow } from './tables/dwarf-sequence';
 
 /**
@@ -81,7 +81,13 @@ const TEFF_K = Float64Array.from(DWARF_SEQUENCE, (row) => row.teffK);
  * without a search and for the fast logarithm of the draws. 16 K is finer
  * than the closest pair of rows (20 K apart), so a cell holds at most one.
  */
-const TEMPERATURE_GRID = log10Grid(COOLEST_K, HOTTEST_K, 16);
+const CELL_K = 16;
+const TEMPERATURE_GRID = log10Grid(COOLEST_K, HOTTEST_K, CELL_K);
+
+/** The cell of a temperature in K inside the table. */
+function cellOf(temperatureK: number): number {
+  return ((temperatureK - COOLEST_K) / CELL_K) | 0;
+}
 
 /** hotterRow by binary search; builds the index below. */
 function hotterRowBySearch(x: number): number {
@@ -101,8 +107,8 @@ function hotterRowBySearch(x: number): number {
  * top: no temperature in the cell has an earlier one, so the search for a
  * temperature's rows only steps on from it (at most one row).
  */
-const ROW_AT_CELL_TOP = Int32Array.from({ length: TEMPERATURE_GRID.cells }, (_, cell) =>
-  hotterRowBySearch(Math.log10(COOLEST_K + (cell + 1) * 16 + 1)),
+const ROW_AT_CELL_TOP = Int32Array.from({ length: cellOf(HOTTEST_K) + 1 }, (_, cell) =>
+  hotterRowBySearch(Math.log10(COOLEST_K + (cell + 1) * CELL_K + 1)),
 );
 
 /**
@@ -112,7 +118,7 @@ const ROW_AT_CELL_TOP = Int32Array.from({ length: TEMPERATURE_GRID.cells }, (_, 
  * thousands of times per target). T must lie inside the table.
  */
 function hotterRow(temperatureK: number, x: number): number {
-  let row = ROW_AT_CELL_TOP[log10GridCell(TEMPERATURE_GRID, temperatureK)];
+  let row = ROW_AT_CELL_TOP[cellOf(temperatureK)];
   while (row < LAST_ROW - 1 && LOG_T[row + 1] >= x) row++;
   return row;
 }
@@ -165,26 +171,26 @@ export function dwarfColumnSlopes(column: Float64Array): Float64Array {
  * @see Pecaut & Mamajek (2013), ApJS 208, 9, Table 5 (Mamajek's version 2024.05.15)
  */
 export function interpolateDwarfColumnFast(temperatureK: Float64Array, n: number, column: Float64Array, slopes: Float64Array, out: Float64Array): void {
+  fastLog10Each(TEMPERATURE_GRID, temperatureK, 1, n, out);
   for (let s = 0; s < n; s++) {
     const t = temperatureK[s];
     if (!(t >= COOLEST_K && t <= HOTTEST_K)) {
       out[s] = Number.NaN;
       continue;
     }
-    const cell = log10GridCell(TEMPERATURE_GRID, t);
-    const x = log10InCell(TEMPERATURE_GRID, t, cell);
+    const x = out[s];
     // The rows by temperature, not by the approximate logarithm: either way
     // the line is continuous across a row, which the error bound allows for.
-    let hotter = ROW_AT_CELL_TOP[cell];
+    let hotter = ROW_AT_CELL_TOP[cellOf(t)];
     while (hotter < LAST_ROW - 1 && TEFF_K[hotter + 1] >= t) hotter++;
     out[s] = column[hotter] + (x - LOG_T[hotter]) * slopes[hotter];
   }
 }
 
 /**
- * log10 of a temperature in K, within FAST_LOG10_ERROR, fastest inside the
- * table's range: for ranking Monte Carlo draws.
+ * out[s] = log10 of the s-th temperature in K, within FAST_LOG10_ERROR and
+ * fastest inside the table's range, for s < n: for ranking Monte Carlo draws.
  */
-export function fastLog10Temperature(temperatureK: number): number {
-  return fastLog10(TEMPERATURE_GRID, temperatureK);
+export function fastLog10Temperatures(temperatureK: Float64Array, n: number, out: Float64Array): void {
+  fastLog10Each(TEMPERATURE_GRID, temperatureK, 1, n, out);
 }

@@ -3,12 +3,12 @@ import {
   dwarfColumn,
   dwarfColumnSlope,
   dwarfColumnSlopes,
-  fastLog10Temperature,
+  fastLog10Temperatures,
   interpolateDwarfColumn,
   interpolateDwarfColumnFast,
   interpolateDwarfColumnUnchecked,
 } from './dwarf-table';
-import { FAST_LOG10_ERROR, fastLog10, log10Grid } from './fast-log10';
+import { FAST_LOG10_ERROR, fastLog10Each, log10Grid } from './fast-log10';
 import { requirePositive } from './errors';
 import type { Measured } from './measured';
 import { monteCarlo, type DrawModel, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
@@ -137,9 +137,9 @@ function rankLogLuminosity(
     for (let s = 0; s < n; s++) out[s] += model.offsetDex + deviationDex[s];
     return;
   }
+  fastLog10Temperatures(temperatureK, n, out);
   for (let s = 0; s < n; s++) {
-    const t = temperatureK[s];
-    out[s] = t > 0 ? LOG_SIGMA_SB_4PI + 2 * (logRadius + deviationDex[s]) + 4 * fastLog10Temperature(t) - LOG_L_SUN : Number.NaN;
+    out[s] = temperatureK[s] > 0 ? LOG_SIGMA_SB_4PI + 2 * (logRadius + deviationDex[s]) + 4 * out[s] - LOG_L_SUN : Number.NaN;
   }
 }
 
@@ -172,6 +172,13 @@ const SAFE_LOG_LSUN = 250;
 const SAFE_FLUX_WM2 = 1e-30;
 /** Ratios of a drawn flux to the nominal one, where nearly all draws fall: their fast logarithms. */
 const FLUX_RATIO_GRID = log10Grid(1 / 4, 4, 1 / 512);
+
+/** Scratch for the draws' logarithms of flux, grown on demand (one propagation at a time). */
+let logFluxScratch = new Float64Array(0);
+function scratchFor(n: number): Float64Array {
+  if (logFluxScratch.length < n) logFluxScratch = new Float64Array(n);
+  return logFluxScratch;
+}
 
 /**
  * Luminosity in W of a star of the assumed class at a temperature in K (with
@@ -242,12 +249,14 @@ export function photometricDistance(
   const draws: DrawModel = {
     rank: ([t, deviation, flux], ranks, n) => {
       rankLogLuminosity(model, logRadius, t, deviation, n, ranks);
+      const logFlux = scratchFor(n);
+      fastLog10Each(FLUX_RATIO_GRID, flux, perNominalFlux, n, logFlux);
       for (let s = 0; s < n; s++) {
         const f = flux[s];
         const logL = ranks[s];
         if (!(f > 0)) ranks[s] = Number.NaN;
         else if ((logL > SAFE_LOG_LSUN || f < SAFE_FLUX_WM2) && !Number.isFinite(distance(t[s], deviation[s], f))) ranks[s] = Number.NaN;
-        else ranks[s] = logL - fastLog10(FLUX_RATIO_GRID, f * perNominalFlux);
+        else ranks[s] = logL - logFlux[s];
       }
     },
     rankError: LOG_L_RANK_ERROR,

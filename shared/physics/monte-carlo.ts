@@ -30,23 +30,27 @@ export const DEFAULT_MONTE_CARLO_SAMPLES = 1000;
 const MIN_ACCEPTED = 50;
 
 /**
- * Rearranges a[lo..hi] so that a[k] holds the value it would have if sorted,
- * with nothing larger before it and nothing smaller after it (Hoare's
- * selection; linear time on average, where a full sort is n log n).
+ * Rearranges keys[lo..hi] so that keys[k] holds the value it would have if
+ * sorted, with nothing larger before it and nothing smaller after it, and
+ * moves draws[] along with keys[] (Hoare's selection; linear time on
+ * average, where a full sort is n log n).
  * @see C. A. R. Hoare (1961), Algorithm 65: FIND, Comm. ACM 4, 321
  */
-function select(a: Float64Array, k: number, lo: number, hi: number): void {
+function select(keys: Float64Array, draws: Int32Array, k: number, lo: number, hi: number): void {
   while (hi > lo) {
-    const pivot = a[(lo + hi) >> 1];
+    const pivot = keys[(lo + hi) >> 1];
     let i = lo;
     let j = hi;
     while (i <= j) {
-      while (a[i] < pivot) i++;
-      while (a[j] > pivot) j--;
+      while (keys[i] < pivot) i++;
+      while (keys[j] > pivot) j--;
       if (i <= j) {
-        const t = a[i];
-        a[i] = a[j];
-        a[j] = t;
+        const key = keys[i];
+        keys[i] = keys[j];
+        keys[j] = key;
+        const draw = draws[i];
+        draws[i] = draws[j];
+        draws[j] = draw;
         i++;
         j--;
       }
@@ -75,6 +79,18 @@ function inputsOfDraw(source: DrawSource, s: number, x: Float64Array): void {
 }
 
 /**
+ * Input i of every draw: its nominal value, or, for the j-th varying input,
+ * nominal + σ × the j-th deviate of each draw's share (j < 0: fixed).
+ */
+function fillColumn(column: Float64Array, samples: number, nominal: number, sigma: number, deviates: Float64Array, j: number, varying: number): void {
+  if (j < 0) {
+    column.fill(nominal, 0, samples);
+    return;
+  }
+  for (let s = 0, at = j; s < samples; s++, at += varying) column[s] = nominal + sigma * deviates[at];
+}
+
+/**
  * A faster way to run a law's draws than calling its checked function once
  * per draw. With a thousand draws per quantity, the checks, the thrown
  * errors, the call per draw and the last logarithm or power of ten are the
@@ -94,8 +110,9 @@ export interface DrawModel {
   readonly rank: (columns: readonly Float64Array[], ranks: Float64Array, n: number) => void;
   /**
    * How far a rank may lie from the exactly computed one, in the rank's
-   * unit; 0 when the ranks are exact. Draws whose ranks lie this close to
-   * an order statistic are settled by their values.
+   * unit. 0 means the ranks are exact, and equal ranks mean equal values.
+   * Draws whose ranks lie this close to an order statistic's are settled
+   * by their values.
    */
   readonly rankError: number;
   /** f without its checks at one draw's inputs; omit it when the rank is f's value itself. */
@@ -103,25 +120,15 @@ export interface DrawModel {
 }
 
 /**
- * Input i of every draw: its nominal value, or, for the j-th varying input,
- * nominal + σ × the j-th deviate of each draw's share (j < 0: fixed).
- */
-function fillColumn(column: Float64Array, samples: number, nominal: number, sigma: number, deviates: Float64Array, j: number, varying: number): void {
-  if (j < 0) {
-    column.fill(nominal, 0, samples);
-    return;
-  }
-  for (let s = 0, at = j; s < samples; s++, at += varying) column[s] = nominal + sigma * deviates[at];
-}
-
-/**
  * Scratch shared by the propagations, grown on demand: the inputs by
- * column, each draw's rank and the accepted ranks. One propagation runs at a
- * time: no law calls a Monte Carlo from inside another.
+ * column, each draw's rank, and the accepted ranks with the draw each came
+ * from. One propagation runs at a time: no law calls a Monte Carlo from
+ * inside another.
  */
 let columnScratch: Float64Array[] = [];
 let rankScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
 let keyScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
+let drawScratch = new Int32Array(DEFAULT_MONTE_CARLO_SAMPLES);
 
 function scratchColumns(count: number, samples: number): Float64Array[] {
   if (columnScratch.length < count || (count > 0 && columnScratch[0].length < samples)) {
@@ -132,18 +139,97 @@ function scratchColumns(count: number, samples: number): Float64Array[] {
 }
 
 /**
- * Value of the draw whose rank is the j-th smallest of the accepted ones,
- * where `approximate` is that j-th smallest rank. Ranks may be off by up to
- * ε = rankError, so the j-th smallest exact rank lies within ε of
- * `approximate` (an order statistic moves no further than its elements), and
- * its draw has a rank within 2ε. Every draw further off than 3ε is on its
- * side of it by more than ε, far beyond any rounding of f; the draws inside
- * are ordered by their values, and the answer is the one preceded by j
- * minus the draws below.
+ * An order statistic of the accepted draws, by its rank (`key`), its draw,
+ * and the nearest ranks on either side (±Infinity for none).
+ */
+interface OrderStatistic {
+  readonly position: number;
+  readonly key: number;
+  readonly draw: number;
+  readonly below: number;
+  readonly above: number;
+}
+
+/**
+ * The four order statistics the central 68.27% interval is read from: the
+ * 15.87th and 84.13th percentile positions of the n accepted draws and the
+ * next ones up, with their neighbours (keys and draws are rearranged). The
+ * upper one is selected first, the lower one then among the entries below
+ * it only; the scans of the three parts this leaves find each one's
+ * neighbours. Order statistics are unique, so the keys are those of a full sort.
+ */
+function orderStatistics(keys: Float64Array, draws: Int32Array, n: number): OrderStatistic[] {
+  const kHigh = Math.floor(0.841345 * (n - 1));
+  select(keys, draws, kHigh, 0, n - 1);
+  const high = keys[kHigh];
+  const highDraw = draws[kHigh];
+  // Past kHigh: the two smallest.
+  let above1 = Infinity;
+  let above1At = -1;
+  let above2 = Infinity;
+  for (let i = kHigh + 1; i < n; i++) {
+    const key = keys[i];
+    if (key < above2) {
+      if (key < above1) {
+        above2 = above1;
+        above1 = key;
+        above1At = i;
+      } else above2 = key;
+    }
+  }
+  const aboveHighDraw = above1At >= 0 ? draws[above1At] : highDraw;
+
+  const kLow = Math.floor(0.158655 * (n - 1));
+  select(keys, draws, kLow, 0, kHigh);
+  // Between kLow and kHigh, which now holds the upper order statistic somewhere: the two smallest and the two largest.
+  let middle1 = Infinity;
+  let middle1At = -1;
+  let middle2 = Infinity;
+  let largest1 = -Infinity;
+  let largest2 = -Infinity;
+  for (let i = kLow + 1; i <= kHigh; i++) {
+    const key = keys[i];
+    if (key < middle2) {
+      if (key < middle1) {
+        middle2 = middle1;
+        middle1 = key;
+        middle1At = i;
+      } else middle2 = key;
+    }
+    if (key > largest2) {
+      if (key > largest1) {
+        largest2 = largest1;
+        largest1 = key;
+      } else largest2 = key;
+    }
+  }
+  // Before kLow: the largest.
+  let below = -Infinity;
+  for (let i = 0; i < kLow; i++) if (keys[i] > below) below = keys[i];
+  const low = keys[kLow];
+  return [
+    { position: kLow, key: low, draw: draws[kLow], below, above: middle1 },
+    { position: kLow + 1, key: middle1, draw: draws[middle1At], below: low, above: middle2 },
+    { position: kHigh, key: high, draw: highDraw, below: largest2, above: above1 },
+    above1At >= 0
+      ? { position: kHigh + 1, key: above1, draw: aboveHighDraw, below: high, above: above2 }
+      : { position: kHigh, key: high, draw: highDraw, below: largest2, above: Infinity },
+  ];
+}
+
+/**
+ * The value of an order statistic whose key is approximate: its neighbours
+ * tell whether any other draw is within reach. Ranks may be off by up to ε
+ * = rankError, so the exact j-th smallest rank lies within ε of the j-th
+ * smallest approximate one (an order statistic moves no further than its
+ * elements), and its draw has an approximate rank within 2ε. With no other
+ * rank within 3ε, the draw at that position is the one; else every draw
+ * within 3ε is valued, the ones further off being on their side by more
+ * than ε, far beyond any rounding of f, and the answer is the one preceded
+ * by j minus the draws below the window.
  */
 function valueOfOrderStatistic(
-  j: number,
-  approximate: number,
+  statistic: OrderStatistic,
   ranks: Float64Array,
   samples: number,
   rankError: number,
@@ -152,50 +238,22 @@ function valueOfOrderStatistic(
   x: Float64Array,
 ): number {
   const window = 3 * rankError;
+  if (rankError === 0 || (statistic.key - statistic.below > window && statistic.above - statistic.key > window)) {
+    inputsOfDraw(source, statistic.draw, x);
+    return valueOfDraw(x);
+  }
   let below = 0;
   const candidates: number[] = [];
   for (let s = 0; s < samples; s++) {
     const r = ranks[s];
-    if (r < approximate - window) below++;
-    else if (r <= approximate + window) {
+    if (r < statistic.key - window) below++;
+    else if (r <= statistic.key + window) {
       inputsOfDraw(source, s, x);
       candidates.push(valueOfDraw(x));
     }
   }
-  if (candidates.length > 1) candidates.sort((a, b) => a - b);
-  return candidates[j - below];
-}
-
-/**
- * The central 68.27% interval of the n accepted draws, each end linear
- * between neighbouring order statistics. `keys` (rearranged) holds the
- * accepted ranks; `valueOf(j, key)` gives the value of the j-th smallest,
- * whose rank is key. The upper order statistic is selected first, the lower
- * one then among the entries below it only; each one's neighbour is the
- * smallest entry above it in the part known to hold it. Order statistics
- * are unique, so this gives the numbers a full sort gives.
- */
-function centralInterval(keys: Float64Array, n: number, valueOf: (j: number, key: number) => number): { low: number; high: number } {
-  const posHigh = 0.841345 * (n - 1);
-  const kHigh = Math.floor(posHigh);
-  select(keys, kHigh, 0, n - 1);
-  const high = interpolatedQuantile(keys, kHigh, n - 1, posHigh - kHigh, valueOf);
-  const posLow = 0.158655 * (n - 1);
-  const kLow = Math.floor(posLow);
-  select(keys, kLow, 0, kHigh);
-  // Entries past kHigh are not smaller than keys[kHigh], so kLow's neighbour lies in (kLow, kHigh].
-  const low = interpolatedQuantile(keys, kLow, kHigh, posLow - kLow, valueOf);
-  return { low, high };
-}
-
-/** The quantile at k + fraction, for keys[k] selected and keys(k..last] holding the larger ones. */
-function interpolatedQuantile(keys: Float64Array, k: number, last: number, fraction: number, valueOf: (j: number, key: number) => number): number {
-  const below = valueOf(k, keys[k]);
-  if (k + 1 > last) return below;
-  let next = keys[k + 1];
-  for (let i = k + 2; i <= last; i++) if (keys[i] < next) next = keys[i];
-  const above = valueOf(k + 1, next);
-  return below + (above - below) * fraction;
+  candidates.sort((a, b) => a - b);
+  return candidates[statistic.position - below];
 }
 
 /**
@@ -236,9 +294,11 @@ export function monteCarlo(
   if (rankScratch.length < samples) {
     rankScratch = new Float64Array(samples);
     keyScratch = new Float64Array(samples);
+    drawScratch = new Int32Array(samples);
   }
   const ranks = rankScratch;
   const keys = keyScratch;
+  const draws = drawScratch;
   let accepted = 0;
   if (model) {
     const columns = scratchColumns(k, samples);
@@ -246,7 +306,12 @@ export function monteCarlo(
       fillColumn(columns[i], samples, nominal[i], sigma[i], source.deviates, sigma[i] === 0 ? -1 : j++, varying);
     }
     model.rank(columns, ranks, samples);
-    for (let s = 0; s < samples; s++) if (Number.isFinite(ranks[s])) keys[accepted++] = ranks[s];
+    for (let s = 0; s < samples; s++) {
+      if (Number.isFinite(ranks[s])) {
+        keys[accepted] = ranks[s];
+        draws[accepted++] = s;
+      }
+    }
   } else {
     for (let s = 0; s < samples; s++) {
       inputsOfDraw(source, s, x);
@@ -257,7 +322,10 @@ export function monteCarlo(
         if (error instanceof PhysicsError) continue;
         throw error;
       }
-      if (Number.isFinite(y)) keys[accepted++] = y;
+      if (Number.isFinite(y)) {
+        keys[accepted] = y;
+        draws[accepted++] = s;
+      }
     }
   }
   if (accepted < MIN_ACCEPTED) {
@@ -268,11 +336,17 @@ export function monteCarlo(
       `${MIN_ACCEPTED} valid draws`,
     );
   }
+  const [lowStatistic, lowNext, highStatistic, highNext] = orderStatistics(keys, draws, accepted);
   const valueOfDraw = model?.value;
   const rankError = model?.rankError ?? 0;
-  const valueOf = valueOfDraw
-    ? (j: number, key: number): number => valueOfOrderStatistic(j, key, ranks, samples, rankError, valueOfDraw, source, x)
-    : (_j: number, key: number): number => key;
-  const { low, high } = centralInterval(keys, accepted, valueOf);
+  const valueOf = (statistic: OrderStatistic): number =>
+    valueOfDraw ? valueOfOrderStatistic(statistic, ranks, samples, rankError, valueOfDraw, source, x) : statistic.key;
+  // Each end is linear between neighbouring order statistics.
+  const lowPosition = 0.158655 * (accepted - 1);
+  const highPosition = 0.841345 * (accepted - 1);
+  const lowBelow = valueOf(lowStatistic);
+  const highBelow = valueOf(highStatistic);
+  const low = lowBelow + (valueOf(lowNext) - lowBelow) * (lowPosition - lowStatistic.position);
+  const high = highBelow + (valueOf(highNext) - highBelow) * (highPosition - highStatistic.position);
   return { value, sigma: (high - low) / 2, low, high, accepted, rejected: samples - accepted };
 }

@@ -27,6 +27,8 @@ export function spectralIndexOfType(spectralType: string): number {
 
 const INDEX_OF_ROW = new Map<DwarfSequenceRow, number>(DWARF_SEQUENCE.map((row) => [row, spectralIndexOfType(row.spectralType)]));
 const indexColumn = (row: DwarfSequenceRow): number => INDEX_OF_ROW.get(row) as number;
+/** The rows' indices in table order, for the search for the nearest type. */
+const INDEX_BY_ROW = DWARF_SEQUENCE.map(indexColumn);
 
 /** A spectral class read from the dwarf table. */
 export interface SpectralClass {
@@ -46,10 +48,11 @@ export interface SpectralClass {
  */
 export function spectralClassFromTemperature(temperatureK: number): SpectralClass {
   const index = interpolateDwarfColumn(temperatureK, indexColumn, 'spectral_class');
-  let nearest = DWARF_SEQUENCE[0];
-  for (const row of DWARF_SEQUENCE) {
-    if (Math.abs(indexColumn(row) - index) < Math.abs(indexColumn(nearest) - index)) nearest = row;
+  let nearestRow = 0;
+  for (let row = 0; row < INDEX_BY_ROW.length; row++) {
+    if (Math.abs(INDEX_BY_ROW[row] - index) < Math.abs(INDEX_BY_ROW[nearestRow] - index)) nearestRow = row;
   }
+  const nearest = DWARF_SEQUENCE[nearestRow];
   return { index, label: nearest.spectralType.replace(/V$/, ''), dwarfType: nearest.spectralType };
 }
 

@@ -61,15 +61,19 @@ interface Source {
   readonly warnings: PhysicsWarning[];
 }
 
+/** Up to this many ids, a scan of the list found so far is cheaper than a Set. */
+const SCAN_IDS_UP_TO = 32;
+
 function uniqueIds(lists: MeasurementId[][]): MeasurementId[] {
-  const seen = new Set<MeasurementId>();
+  let total = 0;
+  for (const list of lists) total += list.length;
   const out: MeasurementId[] = [];
+  const seen = total > SCAN_IDS_UP_TO ? new Set<MeasurementId>() : null;
   for (const list of lists) {
     for (const id of list) {
-      if (!seen.has(id)) {
-        seen.add(id);
-        out.push(id);
-      }
+      if (seen ? seen.has(id) : out.includes(id)) continue;
+      seen?.add(id);
+      out.push(id);
     }
   }
   return out;
@@ -177,8 +181,17 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   const { valid, issues } = validateMeasurements(measurements);
   const mcOptions = (quantity: QuantityId) => ({ samples: opts.monteCarloSamples, seed: seedFor(opts.seed, quantity) });
 
-  const byKind = (kind: MeasurementKind, band?: string): ValidMeasurement[] =>
-    valid.filter((m) => m.kind === kind && (band === undefined || m.band === band));
+  // One pass sorts the measurements by kind; a quantity then reads its own (in their order).
+  const ofKind = new Map<MeasurementKind, ValidMeasurement[]>();
+  for (const m of valid) {
+    const list = ofKind.get(m.kind);
+    if (list) list.push(m);
+    else ofKind.set(m.kind, [m]);
+  }
+  const byKind = (kind: MeasurementKind, band?: string): ValidMeasurement[] => {
+    const list = ofKind.get(kind) ?? [];
+    return band === undefined ? [...list] : list.filter((m) => m.band === band);
+  };
   const used = new Set<ValidMeasurement>();
   const use = (list: ValidMeasurement[]): ValidMeasurement[] => {
     for (const m of list) used.add(m);

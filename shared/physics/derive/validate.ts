@@ -45,9 +45,13 @@ const POSITIVE: ReadonlySet<MeasurementKind> = new Set([
 /** Kinds that need the line's rest wavelength. */
 const LINE_KINDS: ReadonlySet<MeasurementKind> = new Set(['line_wavelength', 'limb_separation', 'zeeman_separation']);
 
+/** Whitespace or the true minus sign: what normaliseBand changes. */
+const BAND_NOISE = /[\s\u2212]/;
+
 function normaliseBand(band: unknown): string | undefined {
   if (typeof band !== 'string') return undefined;
-  const b = band.replace(/\s+/g, '').replace(/\u2212/g, '-');
+  // Bands as the sheets give them ("V", "B-V") need no rewriting; one test spares two replacements per measurement.
+  const b = BAND_NOISE.test(band) ? band.replace(/\s+/g, '').replace(/\u2212/g, '-') : band;
   return b === '' ? undefined : b;
 }
 
@@ -92,8 +96,9 @@ function check(m: MeasurementInput): ValidMeasurement {
   }
   const medium = m.medium ?? 'air';
   if (medium !== 'air' && medium !== 'vacuum') refuse('unknown_unit', 'medium', `wavelength medium must be "air" or "vacuum" (got "${String(medium)}")`);
-  const valid: ValidMeasurement = { id: m.id, kind, value: m.valueSi, sigma, restWavelength, restWavelengthSigma, landeG, medium };
-  return band === undefined ? valid : { ...valid, band };
+  return band === undefined
+    ? { id: m.id, kind, value: m.valueSi, sigma, restWavelength, restWavelengthSigma, landeG, medium }
+    : { id: m.id, kind, value: m.valueSi, sigma, restWavelength, restWavelengthSigma, landeG, medium, band };
 }
 
 /**
