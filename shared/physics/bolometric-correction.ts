@@ -158,7 +158,8 @@ export function bolometricFluxFromV(
         ranks[s] = e > SAFE_FLUX_EXPONENT && !Number.isFinite(F0_WM2 * Math.pow(10, e)) ? Number.NaN : e;
       }
     },
-    rankError: 0,
+    // The power of ten is within an ulp, not proven monotone between neighbouring doubles: ranks that close are settled by the values.
+    rankError: 1e-13,
     value: (x) => F0_WM2 * Math.pow(10, exponent(x[0], x[1], x[2])),
   };
   const fluxWm2 = monteCarlo(

@@ -79,12 +79,18 @@ export function colourTemperature(
 ): ColourTemperature {
   const excess = colourExcessMag ?? { value: 0, sigma: 0 };
   const intrinsic = dereddenedColourMag(colourIndexMag.value, excess.value);
-  // The relation is two quotients: each draw is its own rank.
+  // Above the singular colour T falls as (B−V)₀ grows, also as computed
+  // (each rounded step is monotone), so −(B−V)₀ ranks the draws and the two
+  // quotients are taken for the few the interval is read from.
   const temperatureK = monteCarlo((x) => ballesterosTemperatureK(x[0] - x[1]), [colourIndexMag, excess], 'temperature_colour', options, {
     rank: ([colour, reddening], ranks, n) => {
-      for (let s = 0; s < n; s++) ranks[s] = ballesterosUnchecked(colour[s] - reddening[s]);
+      for (let s = 0; s < n; s++) {
+        const intrinsic = colour[s] - reddening[s];
+        ranks[s] = intrinsic <= SINGULAR_COLOUR_MAG ? Number.NaN : -intrinsic;
+      }
     },
     rankError: 0,
+    value: (x) => ballesterosUnchecked(x[0] - x[1]),
   });
   return { temperatureK, intrinsicColourMag: intrinsic, warnings: colourTemperatureWarnings(intrinsic) };
 }

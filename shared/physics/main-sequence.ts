@@ -1,15 +1,7 @@
 import { CONSTANTS } from './constants';
-import {
-  dwarfColumn,
-  dwarfColumnSlope,
-  dwarfColumnSlopes,
-  fastLog10Temperatures,
-  interpolateDwarfColumn,
-  interpolateDwarfColumnFast,
-  interpolateDwarfColumnUnchecked,
-} from './dwarf-table';
-import { FAST_LOG10_ERROR, fastLog10Each, log10Grid } from './fast-log10';
+import { dwarfColumnSlope, DwarfColumn, interpolateDwarfColumn } from './dwarf-table';
 import { requirePositive } from './errors';
+import { FAST_LOG10_ERROR, Log10Grid } from './fast-log10';
 import type { Measured } from './measured';
 import { monteCarlo, type DrawModel, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
 
@@ -88,8 +80,8 @@ const LOG_SIGMA_SB_4PI = Math.log10(4 * Math.PI * CONSTANTS.sigma.value);
 const L_SUN_W = CONSTANTS.L_sun.value;
 const LOG_L_SUN = Math.log10(L_SUN_W);
 const LOG_R_SUN = Math.log10(CONSTANTS.R_sun.value);
-const LOG_L_COLUMN = dwarfColumn((row) => row.logLLsun);
-const LOG_L_SLOPES = dwarfColumnSlopes(LOG_L_COLUMN);
+/** The dwarf table's log L, ready for Monte Carlo draws. */
+const LOG_L_COLUMN = new DwarfColumn((row) => row.logLLsun);
 
 /**
  * log10(L / L☉) of a star of an assumed class at a temperature in K, shifted
@@ -115,32 +107,19 @@ function radiusModelLogLuminosity(temperatureK: number, radiusRsun: number, devi
  */
 function assumedClassLogLuminosityUnchecked(temperatureK: number, model: AssumedClassModel, deviationDex: number): number {
   if (!(temperatureK > 0)) return Number.NaN;
-  if (model.kind === 'table_offset') return interpolateDwarfColumnUnchecked(temperatureK, LOG_L_COLUMN) + model.offsetDex + deviationDex;
+  if (model.kind === 'table_offset') return LOG_L_COLUMN.unchecked(temperatureK) + model.offsetDex + deviationDex;
   return radiusModelLogLuminosity(temperatureK, model.radiusRsun, deviationDex);
 }
 
 /**
- * log10(L/L☉) of a class model for each of the first n draws, for ranking
- * them: as the unchecked one, NaN in the same places, but with the fast
- * logarithm, so off by at most LOG_L_RANK_ERROR.
+ * log10(L/L☉) of a class model for ranking draws: as the unchecked one, NaN
+ * in the same places, but with the fast logarithm, so off by at most
+ * LOG_L_RANK_ERROR. `logRadius` is logRadiusM(model).
  */
-function rankLogLuminosity(
-  model: AssumedClassModel,
-  logRadius: number,
-  temperatureK: Float64Array,
-  deviationDex: Float64Array,
-  n: number,
-  out: Float64Array,
-): void {
-  if (model.kind === 'table_offset') {
-    interpolateDwarfColumnFast(temperatureK, n, LOG_L_COLUMN, LOG_L_SLOPES, out);
-    for (let s = 0; s < n; s++) out[s] += model.offsetDex + deviationDex[s];
-    return;
-  }
-  fastLog10Temperatures(temperatureK, n, out);
-  for (let s = 0; s < n; s++) {
-    out[s] = temperatureK[s] > 0 ? LOG_SIGMA_SB_4PI + 2 * (logRadius + deviationDex[s]) + 4 * out[s] - LOG_L_SUN : Number.NaN;
-  }
+function rankLogLuminosity(temperatureK: number, model: AssumedClassModel, logRadius: number, deviationDex: number): number {
+  if (model.kind === 'table_offset') return LOG_L_COLUMN.fast(temperatureK) + model.offsetDex + deviationDex;
+  if (!(temperatureK > 0)) return Number.NaN;
+  return LOG_SIGMA_SB_4PI + 2 * (logRadius + deviationDex) + 4 * LOG_L_COLUMN.fastLog10Temperature(temperatureK) - LOG_L_SUN;
 }
 
 /** log10(R/m) of a radius model's typical star (unused by the table models). */
@@ -150,13 +129,14 @@ function logRadiusM(model: AssumedClassModel): number {
 
 /**
  * How far a ranked log10(L/L☉), or a ranked log L − log F, may lie from the
- * exactly computed one, in dex: the fast logarithm's error times twice the
- * table's steepest slope (80 dex per dex, O6.5V to O7V) or the 4 of T⁴, plus
- * one more for log F and one for F / F_nominal's rounding, plus the rounding
- * of a few sums of numbers below 250; four times that, for margin. About
- * 10⁻¹⁰ dex, where the draws of a star lie some 10⁻⁴ dex apart.
+ * exactly computed one, in dex: the table's interpolation error (its
+ * steepest slope, 80 dex per dex from O6.5V to O7V, acts on the fast
+ * logarithm's error) or 4 fast logarithms' for T⁴, plus two more for log F
+ * and F / F_nominal's rounding, plus the rounding of a few sums of numbers
+ * below 300; four times the last three, for margin. About 10⁻¹⁰ dex, where
+ * the draws of a star lie some 10⁻⁴ dex apart.
  */
-const LOG_L_RANK_ERROR = 4 * ((2 * Math.max(4, ...LOG_L_SLOPES.map(Math.abs)) + 2) * FAST_LOG10_ERROR + 1e-12);
+const LOG_L_RANK_ERROR = Math.max(LOG_L_COLUMN.fastError, 16 * FAST_LOG10_ERROR) + 4 * (2 * FAST_LOG10_ERROR + 1e-12);
 
 /**
  * Below this log10(L/L☉) the luminosity in W is surely finite (the largest
@@ -171,14 +151,7 @@ const SAFE_LOG_LSUN = 250;
  */
 const SAFE_FLUX_WM2 = 1e-30;
 /** Ratios of a drawn flux to the nominal one, where nearly all draws fall: their fast logarithms. */
-const FLUX_RATIO_GRID = log10Grid(1 / 4, 4, 1 / 512);
-
-/** Scratch for the draws' logarithms of flux, grown on demand (one propagation at a time). */
-let logFluxScratch = new Float64Array(0);
-function scratchFor(n: number): Float64Array {
-  if (logFluxScratch.length < n) logFluxScratch = new Float64Array(n);
-  return logFluxScratch;
-}
+const FLUX_RATIO_GRID = new Log10Grid(1 / 4, 4, 1 / 512);
 
 /**
  * Luminosity in W of a star of the assumed class at a temperature in K (with
@@ -200,9 +173,9 @@ export function assumedClassLuminosity(
   // power of ten is taken for the few draws the interval is read from.
   const draws: DrawModel = {
     rank: ([t, deviation], ranks, n) => {
-      rankLogLuminosity(model, logRadius, t, deviation, n, ranks);
       for (let s = 0; s < n; s++) {
-        if (ranks[s] > SAFE_LOG_LSUN && !Number.isFinite(luminosity(t[s], deviation[s]))) ranks[s] = Number.NaN;
+        const logL = rankLogLuminosity(t[s], model, logRadius, deviation[s]);
+        ranks[s] = logL > SAFE_LOG_LSUN && !Number.isFinite(luminosity(t[s], deviation[s])) ? Number.NaN : logL;
       }
     },
     rankError: LOG_L_RANK_ERROR,
@@ -248,15 +221,11 @@ export function photometricDistance(
   const perNominalFlux = 1 / fluxWm2.value;
   const draws: DrawModel = {
     rank: ([t, deviation, flux], ranks, n) => {
-      rankLogLuminosity(model, logRadius, t, deviation, n, ranks);
-      const logFlux = scratchFor(n);
-      fastLog10Each(FLUX_RATIO_GRID, flux, perNominalFlux, n, logFlux);
       for (let s = 0; s < n; s++) {
         const f = flux[s];
-        const logL = ranks[s];
-        if (!(f > 0)) ranks[s] = Number.NaN;
-        else if ((logL > SAFE_LOG_LSUN || f < SAFE_FLUX_WM2) && !Number.isFinite(distance(t[s], deviation[s], f))) ranks[s] = Number.NaN;
-        else ranks[s] = logL - logFlux[s];
+        const logL = f > 0 ? rankLogLuminosity(t[s], model, logRadius, deviation[s]) : Number.NaN;
+        const overflows = (logL > SAFE_LOG_LSUN || f < SAFE_FLUX_WM2) && !Number.isFinite(distance(t[s], deviation[s], f));
+        ranks[s] = overflows ? Number.NaN : logL - FLUX_RATIO_GRID.log10(f * perNominalFlux);
       }
     },
     rankError: LOG_L_RANK_ERROR,

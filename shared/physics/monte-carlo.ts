@@ -36,7 +36,7 @@ const MIN_ACCEPTED = 50;
  * average, where a full sort is n log n).
  * @see C. A. R. Hoare (1961), Algorithm 65: FIND, Comm. ACM 4, 321
  */
-function select(keys: Float64Array, draws: Int32Array, k: number, lo: number, hi: number): void {
+function select(keys: Float64Array, draws: Float64Array, k: number, lo: number, hi: number): void {
   while (hi > lo) {
     const pivot = keys[(lo + hi) >> 1];
     let i = lo;
@@ -128,7 +128,8 @@ export interface DrawModel {
 let columnScratch: Float64Array[] = [];
 let rankScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
 let keyScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
-let drawScratch = new Int32Array(DEFAULT_MONTE_CARLO_SAMPLES);
+// Draw indices as doubles: swapped beside the keys, one element type keeps the selection's loop tight.
+let drawScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
 
 function scratchColumns(count: number, samples: number): Float64Array[] {
   if (columnScratch.length < count || (count > 0 && columnScratch[0].length < samples)) {
@@ -158,7 +159,7 @@ interface OrderStatistic {
  * it only; the scans of the three parts this leaves find each one's
  * neighbours. Order statistics are unique, so the keys are those of a full sort.
  */
-function orderStatistics(keys: Float64Array, draws: Int32Array, n: number): OrderStatistic[] {
+function orderStatistics(keys: Float64Array, draws: Float64Array, n: number): OrderStatistic[] {
   const kHigh = Math.floor(0.841345 * (n - 1));
   select(keys, draws, kHigh, 0, n - 1);
   const high = keys[kHigh];
@@ -294,7 +295,7 @@ export function monteCarlo(
   if (rankScratch.length < samples) {
     rankScratch = new Float64Array(samples);
     keyScratch = new Float64Array(samples);
-    drawScratch = new Int32Array(samples);
+    drawScratch = new Float64Array(samples);
   }
   const ranks = rankScratch;
   const keys = keyScratch;
