@@ -106,6 +106,16 @@ describe('measurement uploads: the happy path', () => {
     expect(res.body.upload.headers).toEqual(['target', 'quantity', 'value', 'unit', 'band']);
   });
 
+  it('reads UTF-16 with its byte-order mark, as spreadsheets save "Unicode text"', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const text = 'target\tquantity\tvalue\tunit\r\nT 1\tparallax\t12.5\tmas\r\n';
+    const res = await upload(s, world, Buffer.concat([Buffer.from([0xff, 0xfe]), Buffer.from(text, 'utf16le')]));
+    expect(res.status).toBe(201);
+    expect(res.body.upload.errors).toEqual([]);
+    expect(res.body.upload.measurementCount).toBe(1);
+  });
+
   it('reads a wide file through the suggested mapping, with uncertainties from their own columns', async () => {
     world = await makeWorld();
     const s = await signIn(world.app, 'observer');

@@ -9,11 +9,20 @@ export interface CsvTable {
 
 /**
  * Turns the uploaded bytes into text: UTF-8 with or without a byte-order
- * mark. Anything with NUL bytes or invalid UTF-8 is not a CSV file we can
+ * mark, or UTF-16 with its mark (what spreadsheets write as "Unicode text").
+ * Anything else with NUL bytes, or invalid UTF-8, is not a CSV file we can
  * read, and the message says so instead of importing garbage.
  */
 export function decodeText(bytes: Buffer): string {
   if (bytes.length === 0) throw validationFailed([{ path: 'file', message: 'The file is empty.' }]);
+  const utf16 = bytes[0] === 0xff && bytes[1] === 0xfe ? 'utf-16le' : bytes[0] === 0xfe && bytes[1] === 0xff ? 'utf-16be' : null;
+  if (utf16) {
+    try {
+      return new TextDecoder(utf16, { fatal: true }).decode(bytes);
+    } catch {
+      throw validationFailed([{ path: 'file', message: 'The file starts like UTF-16 text but is not valid UTF-16. Save it as CSV UTF-8.' }]);
+    }
+  }
   if (bytes.subarray(0, Math.min(bytes.length, 8192)).includes(0)) {
     throw validationFailed([{ path: 'file', message: 'This is not a text CSV file (it contains binary data). Export it from your spreadsheet as CSV, UTF-8.' }]);
   }
