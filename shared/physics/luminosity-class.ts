@@ -70,7 +70,7 @@ export function luminosityClass(temperatureK: Measured, luminosityW: Measured): 
   const cls = classifyLuminosity(temperatureK.value, luminosityW.value);
   const slope = mainSequenceLogLuminositySlope(temperatureK.value, 'luminosity_class');
   const sigma = Math.hypot(luminosityW.sigma / luminosityW.value, (slope * temperatureK.sigma) / temperatureK.value) / Math.LN10;
-  return { ...cls, offset: { value: cls.offsetDex, sigma } };
+  return { className: cls.className, label: cls.label, offsetDex: cls.offsetDex, radiusRsun: cls.radiusRsun, offset: { value: cls.offsetDex, sigma } };
 }
 
 /**

@@ -62,7 +62,8 @@ const MAX_STREAMS = 32;
  * The first `count` deviates of gaussian(mulberry32(seed)), exactly the
  * numbers that generator gives in that order (Box–Muller on mulberry32, the
  * two written out inline because two closure calls per uniform cost as much
- * as the logarithm). The array is shared: read it, never write to it.
+ * as the logarithm). The array is shared: read it, never write to it, and
+ * not after the next call, which may reuse it for another stream.
  * @see G. E. P. Box & M. E. Muller (1958), Ann. Math. Stat. 29, 610; mulberry32 above
  */
 export function standardNormals(seed: number, count: number): Float64Array {
@@ -70,9 +71,19 @@ export function standardNormals(seed: number, count: number): Float64Array {
   const cached = STREAMS.get(key);
   if (cached && cached.length >= count) return cached;
   // Whole pairs, so a longer request later needs no leftover state.
-  const out = new Float64Array(count + (count & 1));
+  const length = count + (count & 1);
+  let out: Float64Array | undefined;
+  if (!cached && STREAMS.size >= MAX_STREAMS) {
+    // The oldest stream makes room; its array is reused when of the same
+    // length, which spares the collector when every target has a seed of its own.
+    const oldest = STREAMS.keys().next().value as number;
+    const spare = STREAMS.get(oldest) as Float64Array;
+    STREAMS.delete(oldest);
+    if (spare.length === length) out = spare;
+  }
+  out ??= new Float64Array(length);
   let a = key;
-  for (let i = 0; i < out.length; i += 2) {
+  for (let i = 0; i < length; i += 2) {
     a = (a + 0x6d2b79f5) >>> 0;
     let t = a;
     t = Math.imul(t ^ (t >>> 15), t | 1);
@@ -88,7 +99,6 @@ export function standardNormals(seed: number, count: number): Float64Array {
     out[i] = r * Math.cos(theta);
     out[i + 1] = r * Math.sin(theta);
   }
-  if (!cached && STREAMS.size >= MAX_STREAMS) STREAMS.delete(STREAMS.keys().next().value as number);
   STREAMS.set(key, out);
   return out;
 }

@@ -65,5 +65,5 @@ export function spectralClass(temperatureK: Measured): SpectralClass & { readonl
   const cls = spectralClassFromTemperature(temperatureK.value);
   const slope = dwarfColumnSlope(temperatureK.value, indexColumn, 'spectral_class');
   const indexSigma = Math.abs(slope) * (temperatureK.sigma / (temperatureK.value * Math.LN10));
-  return { ...cls, indexSigma };
+  return { index: cls.index, label: cls.label, dwarfType: cls.dwarfType, indexSigma };
 }

@@ -200,7 +200,9 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
 
   const record = (quantity: QuantityId, spec: NodeSpec): DerivedResult => {
     const dependsOn = spec.dependsOn ?? [];
-    const inputs = uniqueIds([spec.ids ?? [], ...dependsOn.map((q) => results[q]?.inputs ?? [])]);
+    const lists = [spec.ids ?? []];
+    for (const q of dependsOn) lists.push(results[q]?.inputs ?? []);
+    const inputs = uniqueIds(lists);
     const result: DerivedResult = {
       quantity,
       value: spec.value,
@@ -314,7 +316,9 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
       const ct = colourTemperature(c.value, extinctionSource?.value, mcOptions('temperature_colour'));
       const mc = mcResult('temperature_colour', ct.temperatureK);
       record('temperature_colour', {
-        ...mc,
+        value: mc.value,
+        uncertainty: mc.uncertainty,
+        interval: mc.interval,
         method: {
           id: 'ballesteros_2012',
           label: `Ballesteros (2012) relation on (B−V)₀ = ${ct.intrinsicColourMag.toFixed(3)} mag${colourFromMagnitudes ? ' (B − V from the two magnitudes)' : ''}; σ by Monte Carlo`,
@@ -430,7 +434,9 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
         const flux = bolometricFluxFromV(v.value, temperature, extinctionSource?.value, opts.rV, mcOptions('bolometric_flux'));
         const mc = mcResult('bolometric_flux', flux.fluxWm2);
         record('bolometric_flux', {
-          ...mc,
+          value: mc.value,
+        uncertainty: mc.uncertainty,
+        interval: mc.interval,
           method: {
             id: 'v_magnitude_bc_flower_torres',
             label: `V − A_V (R_V = ${opts.rV}) + BC_V(T) (Flower 1996, Torres 2010) + ${BC_SHIFT_TO_IAU_2015_MAG.toFixed(3)} mag to the IAU 2015 scale, flux from the IAU 2015 B2 zero point; σ by Monte Carlo`,
@@ -533,7 +539,9 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
         }
       }
       record('luminosity_hr', {
-        ...mc,
+        value: mc.value,
+        uncertainty: mc.uncertainty,
+        interval: mc.interval,
         method: {
           id: 'assumed_class_luminosity',
           label: `luminosity of a ${LUMINOSITY_CLASS_LABELS[opts.assumedClass]} star at this temperature (dwarf sequence, Pecaut & Mamajek 2013; class offsets are common practice); σ by Monte Carlo including the class's spread`,
@@ -568,7 +576,9 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
         }
       }
       record('distance_photometric', {
-        ...mc,
+        value: mc.value,
+        uncertainty: mc.uncertainty,
+        interval: mc.interval,
         method: {
           id: 'inverse_square_assumed_class',
           label: `d = √(L / 4πF) with the luminosity of a ${LUMINOSITY_CLASS_LABELS[opts.assumedClass]} star (spectroscopic parallax); σ by Monte Carlo`,
