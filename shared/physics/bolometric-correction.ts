@@ -152,10 +152,10 @@ export function bolometricFluxFromV(
     return Number.isFinite(mBol) ? -0.4 * mBol : Number.NaN;
   };
   const draws: DrawModel = {
-    rank: ([v, temperature, reddening], ranks, n) => {
-      for (let s = 0; s < n; s++) {
-        const e = exponent(v[s], temperature[s], reddening[s]);
-        ranks[s] = e > SAFE_FLUX_EXPONENT && !Number.isFinite(F0_WM2 * Math.pow(10, e)) ? Number.NaN : e;
+    rank: (draws) => {
+      for (let s = 0; s < draws.count; s++) {
+        const e = exponent(draws.input(0, s), draws.input(1, s), draws.input(2, s));
+        draws.keep(s, e > SAFE_FLUX_EXPONENT && !Number.isFinite(F0_WM2 * Math.pow(10, e)) ? Number.NaN : e);
       }
     },
     // The power of ten is within an ulp, not proven monotone between neighbouring doubles: ranks that close are settled by the values.

@@ -83,10 +83,10 @@ export function colourTemperature(
   // (each rounded step is monotone), so −(B−V)₀ ranks the draws and the two
   // quotients are taken for the few the interval is read from.
   const temperatureK = monteCarlo((x) => ballesterosTemperatureK(x[0] - x[1]), [colourIndexMag, excess], 'temperature_colour', options, {
-    rank: ([colour, reddening], ranks, n) => {
-      for (let s = 0; s < n; s++) {
-        const intrinsic = colour[s] - reddening[s];
-        ranks[s] = intrinsic <= SINGULAR_COLOUR_MAG ? Number.NaN : -intrinsic;
+    rank: (draws) => {
+      for (let s = 0; s < draws.count; s++) {
+        const intrinsic = draws.input(0, s) - draws.input(1, s);
+        draws.keep(s, intrinsic <= SINGULAR_COLOUR_MAG ? Number.NaN : -intrinsic);
       }
     },
     rankError: 0,

@@ -172,10 +172,12 @@ export function assumedClassLuminosity(
   // L grows with log L, so the draws are ranked by the logarithm and the
   // power of ten is taken for the few draws the interval is read from.
   const draws: DrawModel = {
-    rank: ([t, deviation], ranks, n) => {
-      for (let s = 0; s < n; s++) {
-        const logL = rankLogLuminosity(t[s], model, logRadius, deviation[s]);
-        ranks[s] = logL > SAFE_LOG_LSUN && !Number.isFinite(luminosity(t[s], deviation[s])) ? Number.NaN : logL;
+    rank: (draws) => {
+      for (let s = 0; s < draws.count; s++) {
+        const t = draws.input(0, s);
+        const deviation = draws.input(1, s);
+        const logL = rankLogLuminosity(t, model, logRadius, deviation);
+        draws.keep(s, logL > SAFE_LOG_LSUN && !Number.isFinite(luminosity(t, deviation)) ? Number.NaN : logL);
       }
     },
     rankError: LOG_L_RANK_ERROR,
@@ -220,12 +222,14 @@ export function photometricDistance(
   // distance itself decides whether a draw counts.
   const perNominalFlux = 1 / fluxWm2.value;
   const draws: DrawModel = {
-    rank: ([t, deviation, flux], ranks, n) => {
-      for (let s = 0; s < n; s++) {
-        const f = flux[s];
-        const logL = f > 0 ? rankLogLuminosity(t[s], model, logRadius, deviation[s]) : Number.NaN;
-        const overflows = (logL > SAFE_LOG_LSUN || f < SAFE_FLUX_WM2) && !Number.isFinite(distance(t[s], deviation[s], f));
-        ranks[s] = overflows ? Number.NaN : logL - FLUX_RATIO_GRID.log10(f * perNominalFlux);
+    rank: (draws) => {
+      for (let s = 0; s < draws.count; s++) {
+        const t = draws.input(0, s);
+        const deviation = draws.input(1, s);
+        const f = draws.input(2, s);
+        const logL = f > 0 ? rankLogLuminosity(t, model, logRadius, deviation) : Number.NaN;
+        const overflows = (logL > SAFE_LOG_LSUN || f < SAFE_FLUX_WM2) && !Number.isFinite(distance(t, deviation, f));
+        draws.keep(s, overflows ? Number.NaN : logL - FLUX_RATIO_GRID.log10(f * perNominalFlux));
       }
     },
     rankError: LOG_L_RANK_ERROR,

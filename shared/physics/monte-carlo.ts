@@ -61,33 +61,50 @@ function select(keys: Float64Array, draws: Float64Array, k: number, lo: number, 
   }
 }
 
-/** Where a draw's inputs come from: the nominal values, their σ and the stream's deviates. */
-interface DrawSource {
-  readonly nominal: Float64Array;
-  readonly sigma: Float64Array;
-  readonly deviates: Float64Array;
-  /** Deviates each draw takes: one per input with σ ≠ 0, in input order. */
-  readonly varying: number;
-}
-
-/** Writes the inputs of draw s into x, exactly as every draw's inputs are made. */
-function inputsOfDraw(source: DrawSource, s: number, x: Float64Array): void {
-  let next = s * source.varying;
-  for (let i = 0; i < x.length; i++) {
-    x[i] = source.sigma[i] === 0 ? source.nominal[i] : source.nominal[i] + source.sigma[i] * source.deviates[next++];
-  }
-}
-
 /**
- * Input i of every draw: its nominal value, or, for the j-th varying input,
- * nominal + σ × the j-th deviate of each draw's share (j < 0: fixed).
+ * The draws of one propagation, for a DrawModel to rank in one loop: each
+ * input made on the fly from its nominal value, σ and the stream's deviates
+ * (draw s takes the next deviate for each varying input, in input order, as
+ * one generator call after another would hand them out), and the draws with
+ * a finite rank kept beside the draw each came from.
  */
-function fillColumn(column: Float64Array, samples: number, nominal: number, sigma: number, deviates: Float64Array, j: number, varying: number): void {
-  if (j < 0) {
-    column.fill(nominal, 0, samples);
-    return;
+export class Draws {
+  /** Draws kept so far: keys[0..accepted) and, position by position, their draws. */
+  accepted = 0;
+
+  constructor(
+    /** How many draws there are. */
+    readonly count: number,
+    private readonly nominal: Float64Array,
+    private readonly sigma: Float64Array,
+    /** Per input, the index of its deviate within a draw's share; unused when σ = 0. */
+    private readonly offset: Int32Array,
+    private readonly deviates: Float64Array,
+    /** Deviates each draw takes: one per input with σ ≠ 0. */
+    private readonly varying: number,
+    readonly keys: Float64Array,
+    /** Draw indices as doubles: swapped beside the keys, one element type keeps the selection's loop tight. */
+    readonly draws: Float64Array,
+  ) {}
+
+  /** Input i of draw s, exactly as f receives it. */
+  input(i: number, s: number): number {
+    const sigma = this.sigma[i];
+    return sigma === 0 ? this.nominal[i] : this.nominal[i] + sigma * this.deviates[s * this.varying + this.offset[i]];
   }
-  for (let s = 0, at = j; s < samples; s++, at += varying) column[s] = nominal + sigma * deviates[at];
+
+  /** Writes every input of draw s into x. */
+  inputsOf(s: number, x: Float64Array): void {
+    for (let i = 0; i < x.length; i++) x[i] = this.input(i, s);
+  }
+
+  /** Keeps draw s with its rank; a rank that is not finite (NaN) rejects the draw. */
+  keep(s: number, rank: number): void {
+    if (Number.isFinite(rank)) {
+      this.keys[this.accepted] = rank;
+      this.draws[this.accepted++] = s;
+    }
+  }
 }
 
 /**
@@ -100,14 +117,14 @@ function fillColumn(column: Float64Array, samples: number, nominal: number, sigm
  */
 export interface DrawModel {
   /**
-   * Writes, for each draw s < n, a number that orders the draws as f's
-   * values do (never decreasing as f grows) into ranks[s], from the inputs
-   * by column (columns[i][s] is input i in draw s); NaN exactly where f
-   * would throw or not be finite. Write it as Number.NaN in such loops: in
-   * Node 20's V8 the global NaN in one branch makes every result a number
-   * allocated on the heap, 16 bytes a draw for the collector to sweep.
+   * Ranks every draw s < draws.count with draws.keep(s, rank): a number that
+   * orders the draws as f's values do (never decreasing as f grows), NaN
+   * exactly where f would throw or not be finite. Write it as Number.NaN in
+   * such loops: in Node 20's V8 the global NaN in one branch makes every
+   * result a number allocated on the heap, 16 bytes a draw for the
+   * collector to sweep.
    */
-  readonly rank: (columns: readonly Float64Array[], ranks: Float64Array, n: number) => void;
+  readonly rank: (draws: Draws) => void;
   /**
    * How far a rank may lie from the exactly computed one, in the rank's
    * unit. 0 means the ranks are exact, and equal ranks mean equal values.
@@ -120,24 +137,12 @@ export interface DrawModel {
 }
 
 /**
- * Scratch shared by the propagations, grown on demand: the inputs by
- * column, each draw's rank, and the accepted ranks with the draw each came
- * from. One propagation runs at a time: no law calls a Monte Carlo from
- * inside another.
+ * Scratch shared by the propagations, grown on demand: the accepted ranks
+ * with the draw each came from. One propagation runs at a time: no law
+ * calls a Monte Carlo from inside another.
  */
-let columnScratch: Float64Array[] = [];
-let rankScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
 let keyScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
-// Draw indices as doubles: swapped beside the keys, one element type keeps the selection's loop tight.
 let drawScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
-
-function scratchColumns(count: number, samples: number): Float64Array[] {
-  if (columnScratch.length < count || (count > 0 && columnScratch[0].length < samples)) {
-    const length = Math.max(samples, columnScratch[0]?.length ?? 0);
-    columnScratch = Array.from({ length: Math.max(count, columnScratch.length) }, () => new Float64Array(length));
-  }
-  return columnScratch.slice(0, count);
-}
 
 /**
  * An order statistic of the accepted draws, by its rank (`key`), its draw,
@@ -229,27 +234,19 @@ function orderStatistics(keys: Float64Array, draws: Float64Array, n: number): Or
  * than ε, far beyond any rounding of f, and the answer is the one preceded
  * by j minus the draws below the window.
  */
-function valueOfOrderStatistic(
-  statistic: OrderStatistic,
-  ranks: Float64Array,
-  samples: number,
-  rankError: number,
-  valueOfDraw: (x: Float64Array) => number,
-  source: DrawSource,
-  x: Float64Array,
-): number {
+function valueOfOrderStatistic(statistic: OrderStatistic, draws: Draws, rankError: number, valueOfDraw: (x: Float64Array) => number, x: Float64Array): number {
   const window = 3 * rankError;
   if (rankError === 0 || (statistic.key - statistic.below > window && statistic.above - statistic.key > window)) {
-    inputsOfDraw(source, statistic.draw, x);
+    draws.inputsOf(statistic.draw, x);
     return valueOfDraw(x);
   }
   let below = 0;
   const candidates: number[] = [];
-  for (let s = 0; s < samples; s++) {
-    const r = ranks[s];
-    if (r < statistic.key - window) below++;
-    else if (r <= statistic.key + window) {
-      inputsOfDraw(source, s, x);
+  for (let p = 0; p < draws.accepted; p++) {
+    const key = draws.keys[p];
+    if (key < statistic.key - window) below++;
+    else if (key <= statistic.key + window) {
+      draws.inputsOf(draws.draws[p], x);
       candidates.push(valueOfDraw(x));
     }
   }
@@ -280,42 +277,26 @@ export function monteCarlo(
   const k = inputs.length;
   const nominal = new Float64Array(k);
   const sigma = new Float64Array(k);
+  const offset = new Int32Array(k);
   let varying = 0;
   for (let i = 0; i < k; i++) {
     nominal[i] = inputs[i].value;
     sigma[i] = inputs[i].sigma;
-    if (sigma[i] !== 0) varying++;
+    if (sigma[i] !== 0) offset[i] = varying++;
   }
   const x = nominal.slice();
   const value = requireFiniteResult(f(x), quantity);
 
-  // Draw s takes the next deviate of the stream for each varying input in
-  // order, as one generator call after another would hand them out.
-  const source: DrawSource = { nominal, sigma, deviates: standardNormals(options.seed ?? 1, samples * varying), varying };
-  if (rankScratch.length < samples) {
-    rankScratch = new Float64Array(samples);
+  if (keyScratch.length < samples) {
     keyScratch = new Float64Array(samples);
     drawScratch = new Float64Array(samples);
   }
-  const ranks = rankScratch;
-  const keys = keyScratch;
-  const draws = drawScratch;
-  let accepted = 0;
+  const draws = new Draws(samples, nominal, sigma, offset, standardNormals(options.seed ?? 1, samples * varying), varying, keyScratch, drawScratch);
   if (model) {
-    const columns = scratchColumns(k, samples);
-    for (let i = 0, j = 0; i < k; i++) {
-      fillColumn(columns[i], samples, nominal[i], sigma[i], source.deviates, sigma[i] === 0 ? -1 : j++, varying);
-    }
-    model.rank(columns, ranks, samples);
-    for (let s = 0; s < samples; s++) {
-      if (Number.isFinite(ranks[s])) {
-        keys[accepted] = ranks[s];
-        draws[accepted++] = s;
-      }
-    }
+    model.rank(draws);
   } else {
     for (let s = 0; s < samples; s++) {
-      inputsOfDraw(source, s, x);
+      draws.inputsOf(s, x);
       let y: number;
       try {
         y = f(x);
@@ -323,12 +304,10 @@ export function monteCarlo(
         if (error instanceof PhysicsError) continue;
         throw error;
       }
-      if (Number.isFinite(y)) {
-        keys[accepted] = y;
-        draws[accepted++] = s;
-      }
+      draws.keep(s, y);
     }
   }
+  const accepted = draws.accepted;
   if (accepted < MIN_ACCEPTED) {
     throw new PhysicsError(
       'out_of_range',
@@ -337,11 +316,10 @@ export function monteCarlo(
       `${MIN_ACCEPTED} valid draws`,
     );
   }
-  const [lowStatistic, lowNext, highStatistic, highNext] = orderStatistics(keys, draws, accepted);
+  const [lowStatistic, lowNext, highStatistic, highNext] = orderStatistics(draws.keys, draws.draws, accepted);
   const valueOfDraw = model?.value;
   const rankError = model?.rankError ?? 0;
-  const valueOf = (statistic: OrderStatistic): number =>
-    valueOfDraw ? valueOfOrderStatistic(statistic, ranks, samples, rankError, valueOfDraw, source, x) : statistic.key;
+  const valueOf = (statistic: OrderStatistic): number => (valueOfDraw ? valueOfOrderStatistic(statistic, draws, rankError, valueOfDraw, x) : statistic.key);
   // Each end is linear between neighbouring order statistics.
   const lowPosition = 0.158655 * (accepted - 1);
   const highPosition = 0.841345 * (accepted - 1);

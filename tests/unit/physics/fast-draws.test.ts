@@ -47,8 +47,8 @@ describe('Monte Carlo with a draw model', () => {
     // Ranks rounded to 0.02: many draws tie, so most order statistics are settled by their values.
     const step = 0.02;
     const fast = monteCarlo(f, inputs, 'y', { samples: 2000, seed: 3 }, {
-      rank: ([a, , c], ranks, n) => {
-        for (let s = 0; s < n; s++) ranks[s] = Math.round((a[s] + c[s]) / step) * step;
+      rank: (draws) => {
+        for (let s = 0; s < draws.count; s++) draws.keep(s, Math.round((draws.input(0, s) + draws.input(2, s)) / step) * step);
       },
       rankError: step / 2 + 1e-12,
       value: (x) => f(x),
@@ -64,8 +64,11 @@ describe('Monte Carlo with a draw model', () => {
     const guarded = (x: ArrayLike<number>) => (x[0] < 0.8 ? Number.NaN : g(x));
     const plain = monteCarlo(g, inputs, 'y', { samples: 1000, seed: 5 });
     const fast = monteCarlo(guarded, inputs, 'y', { samples: 1000, seed: 5 }, {
-      rank: ([a], ranks, n) => {
-        for (let s = 0; s < n; s++) ranks[s] = a[s] < 0.8 ? Number.NaN : a[s];
+      rank: (draws) => {
+        for (let s = 0; s < draws.count; s++) {
+          const a = draws.input(0, s);
+          draws.keep(s, a < 0.8 ? Number.NaN : a);
+        }
       },
       rankError: 0,
       value: guarded,
