@@ -145,8 +145,8 @@ export class DwarfColumn {
    * Bound on |fast(T) − unchecked(T)|. Between two whole kelvin, fast
    * replaces the line in log T by its chord, which lies off it by at most
    * |slope| / (8 T² ln 10) (a second derivative bound over a step of 1 K;
-   * rows sit on whole kelvin, so no cell holds a corner): 8·10⁻⁷ dex at worst
-   * for log L, at 2330 K. Twice the largest of those, plus rounding.
+   * rows sit on whole kelvin, so no cell holds a corner): 1.4·10⁻⁷ dex at
+   * worst for log L, between M2.5V and M3V. Twice the largest, plus rounding.
    */
   readonly fastError: number;
 

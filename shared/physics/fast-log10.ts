@@ -1,8 +1,8 @@
 /**
  * A fast base-10 logarithm with a known error bound, for ranking Monte Carlo
- * draws: Math.log10 costs several times everything else a draw does, and a
- * rank only has to be right to within a stated error (see
- * DrawModel.rankError). Never used for a value that is reported.
+ * draws: Math.log10 costs more than the rest of such a draw, and a rank only
+ * has to be right to within a stated error (see DrawModel.rankError). Never
+ * used for a value that is reported.
  */
 
 /**

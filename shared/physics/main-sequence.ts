@@ -113,8 +113,8 @@ function assumedClassLogLuminosityUnchecked(temperatureK: number, model: Assumed
 
 /**
  * log10(L/L☉) of a class model for ranking draws: as the unchecked one, NaN
- * in the same places, but with the fast logarithm, so off by at most
- * LOG_L_RANK_ERROR. `logRadius` is logRadiusM(model).
+ * in the same places, but from the table's per-kelvin chords or the fast
+ * logarithm, so off by at most LOG_L_RANK_ERROR. `logRadius` is logRadiusM(model).
  */
 function rankLogLuminosity(temperatureK: number, model: AssumedClassModel, logRadius: number, deviationDex: number): number {
   if (model.kind === 'table_offset') return LOG_L_COLUMN.fast(temperatureK) + model.offsetDex + deviationDex;
@@ -129,12 +129,12 @@ function logRadiusM(model: AssumedClassModel): number {
 
 /**
  * How far a ranked log10(L/L☉), or a ranked log L − log F, may lie from the
- * exactly computed one, in dex: the table's interpolation error (its
- * steepest slope, 80 dex per dex from O6.5V to O7V, acts on the fast
- * logarithm's error) or 4 fast logarithms' for T⁴, plus two more for log F
- * and F / F_nominal's rounding, plus the rounding of a few sums of numbers
- * below 300; four times the last three, for margin. About 10⁻¹⁰ dex, where
- * the draws of a star lie some 10⁻⁴ dex apart.
+ * exactly computed one, in dex: the table's per-kelvin chords' error (3·10⁻⁷
+ * dex, DwarfColumn.fastError) or 4 fast logarithms' for T⁴, plus two more
+ * for log F and F / F_nominal's rounding, plus the rounding of a few sums of
+ * numbers below 300; four times the last three, for margin. The draws of a
+ * star lie some 10⁻⁴ dex apart, so an order statistic seldom has another
+ * within reach and needs settling by values.
  */
 const LOG_L_RANK_ERROR = Math.max(LOG_L_COLUMN.fastError, 16 * FAST_LOG10_ERROR) + 4 * (2 * FAST_LOG10_ERROR + 1e-12);
 
