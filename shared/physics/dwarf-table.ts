@@ -128,6 +128,9 @@ function fractionTowardsCooler(hotter: number, x: number): number {
   return span > 0 ? (LOG_T[hotter] - x) / span : 0;
 }
 
+/** Kelvins per block of a DwarfColumn's per-kelvin table: 2^10. */
+const KELVIN_BLOCK_BITS = 10;
+
 /** Every row's temperature is a whole number of kelvin: the per-kelvin tables below rely on it. */
 if (!DWARF_SEQUENCE.every((row) => Number.isInteger(row.teffK))) throw new Error('dwarf table temperatures must be whole kelvin');
 
@@ -139,8 +142,14 @@ if (!DWARF_SEQUENCE.every((row) => Number.isInteger(row.teffK))) throw new Error
  */
 export class DwarfColumn {
   private readonly values: Float64Array;
-  /** The column at each whole kelvin from the coolest row to the hottest, built on first use. */
-  private perKelvin: Float64Array | null = null;
+  /**
+   * The column at each whole kelvin from the coolest row to the hottest,
+   * filled a block of 1024 K at a time as draws reach it: a star's draws
+   * span a few hundred kelvin, and 43 571 logarithms at once would delay the
+   * first derivation by several milliseconds.
+   */
+  private readonly perKelvin = new Float64Array(HOTTEST_K - COOLEST_K + 1);
+  private readonly blockFilled = new Uint8Array((this.perKelvin.length >> KELVIN_BLOCK_BITS) + 1);
   /**
    * Bound on |fast(T) − unchecked(T)|. Between two whole kelvin, fast
    * replaces the line in log T by its chord, which lies off it by at most
@@ -184,9 +193,11 @@ export class DwarfColumn {
    */
   fast(temperatureK: number): number {
     if (!(temperatureK >= COOLEST_K && temperatureK <= HOTTEST_K)) return Number.NaN;
-    const table = this.perKelvin ?? this.buildPerKelvin();
     const below = Math.floor(temperatureK);
     const i = below - COOLEST_K;
+    const block = i >> KELVIN_BLOCK_BITS;
+    if (this.blockFilled[block] === 0) this.fillBlock(block);
+    const table = this.perKelvin;
     if (below === HOTTEST_K) return table[i];
     const a = table[i];
     return a + (table[i + 1] - a) * (temperatureK - below);
@@ -197,10 +208,11 @@ export class DwarfColumn {
     return TEMPERATURE_GRID.log10(temperatureK);
   }
 
-  private buildPerKelvin(): Float64Array {
-    const table = new Float64Array(HOTTEST_K - COOLEST_K + 1);
-    for (let i = 0; i < table.length; i++) table[i] = this.unchecked(COOLEST_K + i);
-    this.perKelvin = table;
-    return table;
+  /** Fills a block's kelvins and the first of the next, so that every chord starting in the block has both ends. */
+  private fillBlock(block: number): void {
+    const first = block << KELVIN_BLOCK_BITS;
+    const end = Math.min(this.perKelvin.length, first + (1 << KELVIN_BLOCK_BITS) + 1);
+    for (let i = first; i < end; i++) this.perKelvin[i] = this.unchecked(COOLEST_K + i);
+    this.blockFilled[block] = 1;
   }
 }
