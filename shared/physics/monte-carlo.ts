@@ -152,11 +152,16 @@ export interface DrawModel {
 
 /**
  * Scratch shared by the propagations, grown on demand: the accepted ranks
- * with the draw each came from. One propagation runs at a time: no law
- * calls a Monte Carlo from inside another.
+ * with the draw each came from, and the inputs' nominal values, σ and
+ * deviate offsets. One propagation runs at a time: no law calls a Monte
+ * Carlo from inside another. Reuse spares the collector, which otherwise
+ * sweeps a few kilobytes of small arrays per target.
  */
 let keyScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
 let drawScratch = new Float64Array(DEFAULT_MONTE_CARLO_SAMPLES);
+let nominalScratch = new Float64Array(4);
+let sigmaScratch = new Float64Array(4);
+let offsetScratch = new Int32Array(4);
 
 /**
  * An order statistic of the accepted draws, by its rank (`key`), its draw,
@@ -289,16 +294,22 @@ export function monteCarlo(
 ): MonteCarloResult {
   const samples = Math.max(MIN_ACCEPTED, Math.floor(options.samples ?? DEFAULT_MONTE_CARLO_SAMPLES));
   const k = inputs.length;
-  const nominal = new Float64Array(k);
-  const sigma = new Float64Array(k);
-  const offset = new Int32Array(k);
+  if (nominalScratch.length < k) {
+    nominalScratch = new Float64Array(k);
+    sigmaScratch = new Float64Array(k);
+    offsetScratch = new Int32Array(k);
+  }
+  const nominal = nominalScratch;
+  const sigma = sigmaScratch;
+  const offset = offsetScratch;
   let varying = 0;
   for (let i = 0; i < k; i++) {
     nominal[i] = inputs[i].value;
     sigma[i] = inputs[i].sigma;
     if (sigma[i] !== 0) offset[i] = varying++;
   }
-  const x = nominal.slice();
+  // f's buffer holds exactly the inputs: f may read its length.
+  const x = nominal.slice(0, k);
   const value = requireFiniteResult(f(x), quantity);
 
   if (keyScratch.length < samples) {
