@@ -176,18 +176,78 @@ interface OrderStatistic {
 }
 
 /**
+ * select for two positions kLow < kHigh at once: both keys in place, with
+ * nothing larger before kLow, nothing smaller after kHigh and everything
+ * between them in between. Partitions serve both until a pivot falls
+ * between them; then each side is selected alone, on about half the entries.
+ */
+function selectBoth(keys: Float64Array, draws: Float64Array, kLow: number, kHigh: number, lo: number, hi: number): void {
+  while (hi > lo) {
+    const first = keys[lo];
+    const middle = keys[(lo + hi) >> 1];
+    const last = keys[hi];
+    const pivot =
+      first < middle ? (middle < last ? middle : first < last ? last : first) : first < last ? first : middle < last ? last : middle;
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (keys[i] < pivot) i++;
+      while (keys[j] > pivot) j--;
+      if (i <= j) {
+        const key = keys[i];
+        keys[i] = keys[j];
+        keys[j] = key;
+        const draw = draws[i];
+        draws[i] = draws[j];
+        draws[j] = draw;
+        i++;
+        j--;
+      }
+    }
+    if (kHigh <= j) hi = j;
+    else if (kLow >= i) lo = i;
+    else {
+      // Entries strictly between j and i equal the pivot and are in place.
+      if (kLow <= j) select(keys, draws, kLow, lo, j);
+      if (kHigh >= i) select(keys, draws, kHigh, i, hi);
+      return;
+    }
+  }
+}
+
+/**
  * The four order statistics the central 68.27% interval is read from: the
  * 15.87th and 84.13th percentile positions of the n accepted draws and the
- * next ones up, with their neighbours (keys and draws are rearranged). The
- * upper one is selected first, the lower one then among the entries below
- * it only; the scans of the three parts this leaves find each one's
- * neighbours. Order statistics are unique, so the keys are those of a full sort.
+ * next ones up, with their neighbours (keys and draws are rearranged). Both
+ * positions are selected together; scans of the three parts around them
+ * then find each one's neighbours. Order statistics are unique, so the keys
+ * are those of a full sort.
  */
 function orderStatistics(keys: Float64Array, draws: Float64Array, n: number): OrderStatistic[] {
+  const kLow = Math.floor(0.158655 * (n - 1));
   const kHigh = Math.floor(0.841345 * (n - 1));
-  select(keys, draws, kHigh, 0, n - 1);
+  selectBoth(keys, draws, kLow, kHigh, 0, n - 1);
+  const low = keys[kLow];
   const high = keys[kHigh];
-  const highDraw = draws[kHigh];
+  // Before kLow: the largest.
+  let belowLow = -Infinity;
+  for (let i = 0; i < kLow; i++) if (keys[i] > belowLow) belowLow = keys[i];
+  // Between kLow and kHigh: the two smallest and the largest.
+  let middle1 = Infinity;
+  let middle1At = -1;
+  let middle2 = Infinity;
+  let belowHigh = low;
+  for (let i = kLow + 1; i < kHigh; i++) {
+    const key = keys[i];
+    if (key < middle2) {
+      if (key < middle1) {
+        middle2 = middle1;
+        middle1 = key;
+        middle1At = i;
+      } else middle2 = key;
+    }
+    if (key > belowHigh) belowHigh = key;
+  }
   // Past kHigh: the two smallest.
   let above1 = Infinity;
   let above1At = -1;
@@ -202,43 +262,18 @@ function orderStatistics(keys: Float64Array, draws: Float64Array, n: number): Or
       } else above2 = key;
     }
   }
-  const aboveHighDraw = above1At >= 0 ? draws[above1At] : highDraw;
-
-  const kLow = Math.floor(0.158655 * (n - 1));
-  select(keys, draws, kLow, 0, kHigh);
-  // Between kLow and kHigh, which now holds the upper order statistic somewhere: the two smallest and the two largest.
-  let middle1 = Infinity;
-  let middle1At = -1;
-  let middle2 = Infinity;
-  let largest1 = -Infinity;
-  let largest2 = -Infinity;
-  for (let i = kLow + 1; i <= kHigh; i++) {
-    const key = keys[i];
-    if (key < middle2) {
-      if (key < middle1) {
-        middle2 = middle1;
-        middle1 = key;
-        middle1At = i;
-      } else middle2 = key;
-    }
-    if (key > largest2) {
-      if (key > largest1) {
-        largest2 = largest1;
-        largest1 = key;
-      } else largest2 = key;
-    }
-  }
-  // Before kLow: the largest.
-  let below = -Infinity;
-  for (let i = 0; i < kLow; i++) if (keys[i] > below) below = keys[i];
-  const low = keys[kLow];
+  // kLow's neighbour above is the smallest past it, kHigh's own key when nothing lies between.
+  const lowNext =
+    middle1At >= 0
+      ? { position: kLow + 1, key: middle1, draw: draws[middle1At], below: low, above: Math.min(middle2, high) }
+      : { position: kLow + 1, key: high, draw: draws[kHigh], below: low, above: above1 };
   return [
-    { position: kLow, key: low, draw: draws[kLow], below, above: middle1 },
-    { position: kLow + 1, key: middle1, draw: draws[middle1At], below: low, above: middle2 },
-    { position: kHigh, key: high, draw: highDraw, below: largest2, above: above1 },
+    { position: kLow, key: low, draw: draws[kLow], below: belowLow, above: lowNext.key },
+    lowNext,
+    { position: kHigh, key: high, draw: draws[kHigh], below: belowHigh, above: above1 },
     above1At >= 0
-      ? { position: kHigh + 1, key: above1, draw: aboveHighDraw, below: high, above: above2 }
-      : { position: kHigh, key: high, draw: highDraw, below: largest2, above: Infinity },
+      ? { position: kHigh + 1, key: above1, draw: draws[above1At], below: high, above: above2 }
+      : { position: kHigh, key: high, draw: draws[kHigh], below: belowHigh, above: Infinity },
   ];
 }
 
