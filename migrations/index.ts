@@ -1,6 +1,7 @@
 import type { Knex } from 'knex';
 import * as init from './20261201000000_init';
 import * as measurements from './20261201010000_measurements';
+import * as uploadSummary from './20261201020000_upload_summary';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -11,6 +12,7 @@ import * as measurements from './20261201010000_measurements';
 const migrations: Record<string, Knex.Migration> = {
   '20261201000000_init': init,
   '20261201010000_measurements': measurements,
+  '20261201020000_upload_summary': uploadSummary,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -28,7 +28,7 @@ export function readSpectrum(
   table: CsvTable,
   targetId: number,
   givenUnit: UnitName | undefined,
-): { spectrum: SpectrumPreview; sigma: number[] | null; errors: RowError[]; rowCount: number } {
+): { spectrum: SpectrumPreview; errors: RowError[]; rowCount: number } {
   const errors: RowError[] = [];
   const [wHeader, fHeader, sHeader] = table.headers;
   if (!fHeader) errors.push({ row: 1, column: wHeader ?? '', message: 'A spectrum needs two columns: wavelength and flux.' });
@@ -74,5 +74,5 @@ export function readSpectrum(
       errors.push({ row: 1, column: fHeader, message: `No Planck fit: ${e.message}.` });
     }
   }
-  return { spectrum, sigma: sHeader ? sigma : null, errors, rowCount: table.records.length };
+  return { spectrum, errors, rowCount: table.records.length };
 }

@@ -3,15 +3,19 @@ import type { ColumnMapping, NormalisedRow, RowError } from '../../../shared/sch
 import type { Caution, SpectrumPreview, Upload } from '../../../shared/schemas/uploads';
 import { parseJson, toIso } from '../../lib/rows';
 
-/** What the preview keeps for the commit and for the history page. */
-export interface PreviewState {
+/** What the preview shows about a file (small; read whenever the upload is shown). */
+export interface PreviewSummary {
   headers: string[];
-  rows: NormalisedRow[];
+  measurementCount: number;
   newTargets: string[];
   cautions: Caution[];
   duplicateOf: number | null;
   spectrum: SpectrumPreview | null;
-  spectrumSigma?: number[] | null;
+}
+
+/** The summary plus the normalised rows the commit imports (large; read only by the commit). */
+export interface PreviewState extends PreviewSummary {
+  rows: NormalisedRow[];
 }
 
 interface UploadRow {
@@ -27,7 +31,7 @@ interface UploadRow {
   error_count: number;
   errors_json: string;
   mapping_json: string;
-  preview_json: string | null;
+  summary_json: string | null;
   target_id: number | null;
   created_at: unknown;
   committed_at: unknown;
@@ -53,7 +57,7 @@ const SUMMARY_COLUMNS = [
   'users.name as uploaded_by',
 ];
 
-function toUpload(r: UploadRow, preview: PreviewState | null): Upload {
+function toUpload(r: UploadRow, preview: PreviewSummary | null): Upload {
   const mapping = parseJson<ColumnMapping | Record<string, never>>(r.mapping_json, {});
   return {
     id: r.id,
@@ -64,7 +68,7 @@ function toUpload(r: UploadRow, preview: PreviewState | null): Upload {
     sha256: r.sha256,
     status: r.status,
     rowCount: r.row_count,
-    measurementCount: preview?.rows.length ?? 0,
+    measurementCount: preview?.measurementCount ?? 0,
     errorCount: r.error_count,
     errors: parseJson<RowError[]>(r.errors_json, []),
     mapping: 'layout' in mapping ? (mapping as ColumnMapping) : null,
@@ -107,6 +111,7 @@ export async function savePreview(
   uploadId: number,
   p: { rowCount: number; errors: RowError[]; mapping: ColumnMapping | null; preview: PreviewState },
 ): Promise<void> {
+  const { rows, ...summary } = p.preview;
   await db('uploads')
     .where({ id: uploadId })
     .update({
@@ -114,17 +119,18 @@ export async function savePreview(
       error_count: p.errors.length,
       errors_json: JSON.stringify(p.errors),
       mapping_json: JSON.stringify(p.mapping ?? {}),
-      preview_json: JSON.stringify(p.preview),
+      summary_json: JSON.stringify(summary),
+      preview_json: JSON.stringify(rows),
     });
 }
 
-export async function findUpload(db: Db, projectId: number, uploadId: number, withPreview = true): Promise<Upload | undefined> {
+export async function findUpload(db: Db, projectId: number, uploadId: number): Promise<Upload | undefined> {
   const row: UploadRow | undefined = await db('uploads as u')
     .leftJoin('users', 'users.id', 'u.user_id')
     .where({ 'u.project_id': projectId, 'u.id': uploadId })
-    .first([...SUMMARY_COLUMNS, ...(withPreview ? ['u.preview_json'] : [])]);
+    .first([...SUMMARY_COLUMNS, 'u.summary_json']);
   if (!row) return undefined;
-  const upload = toUpload(row, withPreview ? parseJson<PreviewState | null>(row.preview_json, null) : null);
+  const upload = toUpload(row, parseJson<PreviewSummary | null>(row.summary_json, null));
   if (upload.status === 'committed') {
     upload.targets = await db('targets')
       .whereIn('id', db('measurements').where({ upload_id: uploadId }).distinct('target_id'))
@@ -135,8 +141,9 @@ export async function findUpload(db: Db, projectId: number, uploadId: number, wi
 }
 
 export async function loadPreviewState(db: Db, uploadId: number): Promise<PreviewState | null> {
-  const row = await db('uploads').where({ id: uploadId }).first('preview_json');
-  return parseJson<PreviewState | null>(row?.preview_json, null);
+  const row = await db('uploads').where({ id: uploadId }).first('summary_json', 'preview_json');
+  const summary = parseJson<PreviewSummary | null>(row?.summary_json, null);
+  return summary ? { ...summary, rows: parseJson<NormalisedRow[]>(row?.preview_json, []) } : null;
 }
 
 export async function loadContent(db: Db, projectId: number, uploadId: number): Promise<{ filename: string; content: Buffer; sha256: string } | undefined> {

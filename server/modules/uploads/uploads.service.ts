@@ -101,7 +101,7 @@ export function createUploadsService(db: Db, clock: Clock) {
     if (kind === 'spectrum') {
       const target = options.targetId ? await findTarget(db, projectId, options.targetId) : undefined;
       if (!target) throw validationFailed([{ path: 'targetId', message: 'Choose the target this spectrum belongs to.' }]);
-      const { spectrum, sigma, errors, rowCount } = readSpectrum(table, target.id, options.wavelengthUnit);
+      const { spectrum, errors, rowCount } = readSpectrum(table, target.id, options.wavelengthUnit);
       const caution = sunCaution(target, null);
       await savePreview(db, uploadId, {
         rowCount,
@@ -112,9 +112,9 @@ export function createUploadsService(db: Db, clock: Clock) {
           rows: [],
           newTargets: [],
           cautions: caution ? [{ row: null, target: target.designation, message: caution.message }] : [],
+          measurementCount: 0,
           duplicateOf,
           spectrum,
-          spectrumSigma: sigma,
         },
       });
       return;
@@ -127,7 +127,7 @@ export function createUploadsService(db: Db, clock: Clock) {
       rowCount: table.records.length,
       errors,
       mapping,
-      preview: { headers: table.headers, rows, newTargets, cautions, duplicateOf, spectrum: null },
+      preview: { headers: table.headers, rows, measurementCount: rows.length, newTargets, cautions, duplicateOf, spectrum: null },
     });
   }
 
