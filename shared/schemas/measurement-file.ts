@@ -236,15 +236,43 @@ function toRawMeasurements(headers: string[], record: string[], rowNumber: numbe
   return out;
 }
 
-function normalise(raw: RawMeasurement, errors: RowError[]): NormalisedRow | null {
+/**
+ * A file names each target and night on many rows; what a designation or a
+ * time reads as is worked out once per distinct text.
+ */
+class ReadCache {
+  private designations = new Map<string, { key: string; problem: string | null }>();
+  private times = new Map<string, string | null>();
+
+  designation(text: string) {
+    let hit = this.designations.get(text);
+    if (!hit) {
+      const parsed = designationSchema.safeParse(text);
+      hit = { key: designationKey(text), problem: parsed.success ? null : parsed.error.issues[0].message };
+      this.designations.set(text, hit);
+    }
+    return hit;
+  }
+
+  /** ISO 8601 text → the instant in UTC, or null when it is not one. A time without a zone is read as UTC. */
+  time(text: string): string | null {
+    if (!this.times.has(text)) {
+      const ms = ISO_8601.test(text) ? Date.parse(/[zZ]|[+-]\d{2}:?\d{2}$/.test(text) || text.length === 10 ? text : `${text}Z`) : Number.NaN;
+      this.times.set(text, Number.isNaN(ms) ? null : new Date(ms).toISOString());
+    }
+    return this.times.get(text)!;
+  }
+}
+
+function normalise(raw: RawMeasurement, errors: RowError[], cache: ReadCache): NormalisedRow | null {
   const before = errors.length;
   const err = (field: Field, message: string) => errors.push({ row: raw.row, column: raw.cells[field]?.column ?? field, message });
   const text = (field: Field) => raw.cells[field]?.text.trim() ?? '';
 
   const target = text('target');
-  const designation = designationSchema.safeParse(target);
+  const designation = target ? cache.designation(target) : null;
   if (!target) err('target', 'The target designation is missing.');
-  else if (!designation.success) err('target', designation.error.issues[0].message);
+  else if (designation?.problem) err('target', designation.problem);
 
   const quantityText = raw.fixed?.quantity ?? text('quantity').toLowerCase();
   const kind = (FILE_QUANTITIES as readonly string[]).includes(quantityText) ? (quantityText as FileQuantity) : null;
@@ -295,9 +323,8 @@ function normalise(raw: RawMeasurement, errors: RowError[]): NormalisedRow | nul
   let observedAt: string | null = null;
   if (text('observed_at')) {
     const t = text('observed_at');
-    const ms = ISO_8601.test(t) ? Date.parse(/[zZ]|[+-]\d{2}:?\d{2}$/.test(t) || t.length === 10 ? t : `${t}Z`) : Number.NaN;
-    if (Number.isNaN(ms)) err('observed_at', `observed_at must be an ISO 8601 time in UTC, like 2026-11-30T22:14:05Z (got "${t}").`);
-    else observedAt = new Date(ms).toISOString();
+    observedAt = cache.time(t);
+    if (observedAt === null) err('observed_at', `observed_at must be an ISO 8601 time in UTC, like 2026-11-30T22:14:05Z (got "${t}").`);
   }
 
   let raDeg: number | null = null;
@@ -331,7 +358,7 @@ function normalise(raw: RawMeasurement, errors: RowError[]): NormalisedRow | nul
   return {
     row: raw.row,
     target,
-    targetKey: designationKey(target),
+    targetKey: designation!.key,
     raDeg,
     decDeg,
     kind,
@@ -365,6 +392,7 @@ export function readMeasurementRecords(headers: string[], records: string[][], m
   if (errors.length) return { rows: [], errors };
   const rows: NormalisedRow[] = [];
   const seen = new Map<string, number>();
+  const cache = new ReadCache();
   records.forEach((record, i) => {
     const rowNumber = i + 2;
     if (record.length > headers.length && record.slice(headers.length).some((c) => c.trim() !== '')) {
@@ -372,7 +400,7 @@ export function readMeasurementRecords(headers: string[], records: string[][], m
       return;
     }
     for (const raw of toRawMeasurements(headers, record, rowNumber, mapping)) {
-      const row = normalise(raw, errors);
+      const row = normalise(raw, errors, cache);
       if (!row) continue;
       const key = duplicateKey(row);
       const first = seen.get(key);
