@@ -435,8 +435,8 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
         const mc = mcResult('bolometric_flux', flux.fluxWm2);
         record('bolometric_flux', {
           value: mc.value,
-        uncertainty: mc.uncertainty,
-        interval: mc.interval,
+          uncertainty: mc.uncertainty,
+          interval: mc.interval,
           method: {
             id: 'v_magnitude_bc_flower_torres',
             label: `V − A_V (R_V = ${opts.rV}) + BC_V(T) (Flower 1996, Torres 2010) + ${BC_SHIFT_TO_IAU_2015_MAG.toFixed(3)} mag to the IAU 2015 scale, flux from the IAU 2015 B2 zero point; σ by Monte Carlo`,
