@@ -5,7 +5,7 @@
  * statements in one transaction. Prints wall times, rows per second, the
  * ratio, and the server's peak resident memory (VmHWM).
  */
-import { spawn } from 'node:child_process';
+import { execFileSync, spawn } from 'node:child_process';
 import fs from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
@@ -59,7 +59,9 @@ function peakRssMb(pid: number): number {
 
 async function throughApi(file: string) {
   const port = await freePort();
-  const server = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  // The production bundle, as `npm start` runs it.
+  execFileSync('npm', ['run', 'build:server', '--silent'], { cwd: root, stdio: 'ignore' });
+  const server = spawn(process.execPath, [...(process.env.BENCH_NODE_OPTIONS?.split(' ') ?? []), 'build/server.js'], {
     cwd: root,
     env: { ...process.env, PORT: String(port), DATA_DIR: dir, DATABASE_URL: `file:${path.join(dir, 'api.sqlite')}`, SESSION_SECRET: 'bench', SEED_DEMO: 'true' },
     stdio: ['ignore', 'pipe', 'inherit'],
