@@ -38,3 +38,17 @@ describe('sun caution', () => {
     expect(sunCaution({ designation: 'X', raDeg: 5, decDeg: 2 }, new Date('2024-09-22T12:00:00Z'))).toBeNull();
   });
 });
+
+describe('solar position against an independent reference library', () => {
+  it('agrees with astronomy-engine (apparent, equinox of date) within 0.02° from 2000 to 2040', async () => {
+    const { Body, Equator, Observer } = await import('astronomy-engine');
+    const geocentre = new Observer(0, 0, 0);
+    for (let day = 0; day < 40 * 365.25; day += 97.3) {
+      const date = new Date(Date.UTC(2000, 0, 1) + day * 86_400_000);
+      const ref = Equator(Body.Sun, date, geocentre, true, true);
+      const ours = sunPosition(date);
+      // The almanac's low-precision formula is good to about 0.01° (Astronomical Almanac, section C; from memory).
+      expect(angularSeparationDeg(ours.raDeg, ours.decDeg, ref.ra * 15, ref.dec), date.toISOString()).toBeLessThan(0.02);
+    }
+  });
+});
