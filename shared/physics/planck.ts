@@ -243,16 +243,49 @@ function median(values: number[]): number {
   return sorted.length % 2 ? sorted[m] : (sorted[m - 1] + sorted[m]) / 2;
 }
 
+/** Solves the 4 × 4 normal equations in place (Gauss–Jordan with partial pivoting); returns the inverse, or null when singular. */
+function invert4(m: number[][]): number[][] | null {
+  const n = 4;
+  const a = m.map((row, i) => [...row, ...Array.from({ length: n }, (_, j) => (i === j ? 1 : 0))]);
+  for (let c = 0; c < n; c++) {
+    let p = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(a[r][c]) > Math.abs(a[p][c])) p = r;
+    if (Math.abs(a[p][c]) < 1e-300) return null;
+    [a[c], a[p]] = [a[p], a[c]];
+    const pivot = a[c][c];
+    for (let j = 0; j < 2 * n; j++) a[c][j] /= pivot;
+    for (let r = 0; r < n; r++) {
+      if (r === c) continue;
+      const f = a[r][c];
+      for (let j = 0; j < 2 * n; j++) a[r][j] -= f * a[c][j];
+    }
+  }
+  return a.map((row) => row.slice(n));
+}
+
+/** Share of the smoothed maximum that bounds the region fitted around the peak. */
+const PEAK_REGION_FRACTION = 0.8;
+
 /**
  * Wavelength in m of the continuum peak of a spectrum sorted or unsorted by
- * wavelength. The flux is smoothed with a running median (window of
- * `windowPoints`, default one twentieth of the points, at least 5) so that
- * absorption lines and noise do not move the peak, the highest smoothed
- * point is refined with a parabola through its neighbours, and σ is the
- * half-width of the region whose smoothed flux lies within one noise level
- * (1.4826 × the median absolute residual) of the peak, at least half a
- * sampling step. This uncertainty is Starledger's own estimate.
- * Throws PhysicsError('peak_at_edge') when the peak is at either end.
+ * wavelength, with its 1-sigma uncertainty.
+ *
+ * The flux is smoothed with a running median (window of `windowPoints`,
+ * default one twentieth of the points, at least 5) to find the top of the
+ * continuum without being pulled by noise or absorption lines. A cubic in
+ * wavelength is then fitted by least squares to the measured points where
+ * the smoothed flux is at least 80 % of its maximum, leaving out line cores
+ * (points more than three noise levels below the smoothed curve); a cubic
+ * rather than a parabola because a blackbody's peak is lopsided, steeper on
+ * the blue side. The peak is where the cubic's slope is zero, and σ follows
+ * from the fit's covariance (scaled by its residual variance, or weighted by
+ * the flux uncertainties when given) by first-order propagation through that
+ * root, never below half a sampling step. The window and the cubic are
+ * Starledger's own choices; the least-squares and propagation steps are
+ * textbook (Bevington & Robinson, Data Reduction and Error Analysis, 3rd ed.,
+ * ch. 7 and 3; from memory).
+ * Throws PhysicsError('peak_at_edge') when the peak is at either end, and
+ * ('fit_failed') when the region around it is too small to fit.
  * @see REFERENCES.md "Limits of the simple models"
  */
 export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Measured {
@@ -262,6 +295,7 @@ export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Me
   const order = Array.from({ length: n }, (_, i) => i).sort((p, q) => spectrum.wavelengthM[p] - spectrum.wavelengthM[q]);
   const lambda = order.map((i) => spectrum.wavelengthM[i]);
   const flux = order.map((i) => spectrum.flux[i]);
+  const fluxSigma = spectrum.fluxSigma ? order.map((i) => spectrum.fluxSigma![i]) : null;
   let w = windowPoints ?? Math.max(5, Math.floor(n / 20));
   if (w % 2 === 0) w += 1;
   const half = Math.min(w >> 1, Math.floor((n - 1) / 2));
@@ -281,22 +315,63 @@ export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Me
       `${(lambda[0] * 1e9).toFixed(1)}–${(lambda[n - 1] * 1e9).toFixed(1)} nm`,
     );
   }
-  const [x0, x1, x2] = [lambda[top - 1], lambda[top], lambda[top + 1]];
-  const [y0, y1, y2] = [smooth[top - 1], smooth[top], smooth[top + 1]];
-  const denom = (x0 - x1) * (x0 - x2) * (x1 - x2);
-  const pa = (x2 * (y1 - y0) + x1 * (y0 - y2) + x0 * (y2 - y1)) / denom;
-  const pb = (x2 * x2 * (y0 - y1) + x1 * x1 * (y2 - y0) + x0 * x0 * (y1 - y2)) / denom;
-  let peak = x1;
-  if (pa < 0) {
-    const vertex = -pb / (2 * pa);
-    if (vertex > x0 && vertex < x2) peak = vertex;
-  }
   const noise = 1.4826 * median(flux.map((f, i) => Math.abs(f - smooth[i])));
   let left = top;
-  while (left > 0 && smooth[left - 1] >= smooth[top] - noise) left--;
+  while (left > 0 && smooth[left - 1] >= PEAK_REGION_FRACTION * smooth[top]) left--;
   let right = top;
-  while (right < n - 1 && smooth[right + 1] >= smooth[top] - noise) right++;
-  const step = (x2 - x0) / 2;
-  const sigma = Math.max((lambda[right] - lambda[left]) / 2, step / 2);
-  return { value: peak, sigma };
+  while (right < n - 1 && smooth[right + 1] >= PEAK_REGION_FRACTION * smooth[top]) right++;
+  const step = (lambda[Math.min(top + 1, n - 1)] - lambda[Math.max(top - 1, 0)]) / 2;
+
+  // Centred and scaled wavelength keeps the normal equations well conditioned.
+  const centre = lambda[top];
+  const span = Math.max(lambda[right] - lambda[left], step);
+  const rows: { x: number; y: number; weight: number }[] = [];
+  for (let i = left; i <= right; i++) {
+    if (flux[i] < smooth[i] - 3 * noise) continue;
+    rows.push({ x: (lambda[i] - centre) / span, y: flux[i], weight: fluxSigma ? 1 / (fluxSigma[i] * fluxSigma[i]) : 1 });
+  }
+  const fail = () =>
+    new PhysicsError('fit_failed', 'peak_wavelength', `too few points around the continuum peak to locate it (${rows.length} within 80 % of the maximum)`, '≥ 6 points');
+  if (rows.length < 6) throw fail();
+  const normal = Array.from({ length: 4 }, () => [0, 0, 0, 0]);
+  const rhs = [0, 0, 0, 0];
+  for (const { x, y, weight } of rows) {
+    const powers = [1, x, x * x, x * x * x];
+    for (let a = 0; a < 4; a++) {
+      rhs[a] += weight * powers[a] * y;
+      for (let b = 0; b < 4; b++) normal[a][b] += weight * powers[a] * powers[b];
+    }
+  }
+  const inverse = invert4(normal);
+  if (!inverse) throw fail();
+  const coef = inverse.map((row) => row.reduce((sum, v, j) => sum + v * rhs[j], 0));
+  let chi2 = 0;
+  for (const { x, y, weight } of rows) {
+    const model = coef[0] + coef[1] * x + coef[2] * x * x + coef[3] * x * x * x;
+    chi2 += weight * (y - model) ** 2;
+  }
+  // Without flux uncertainties the weights are 1 and the scatter sets the scale; with them, χ²/dof scales a poor fit up, never down.
+  const scale = fluxSigma ? Math.max(1, chi2 / (rows.length - 4)) : chi2 / (rows.length - 4);
+
+  // Slope zero: c1 + 2 c2 x + 3 c3 x² = 0, the root nearest the smoothed top with a maximum there.
+  const [, c1, c2, c3] = coef;
+  const candidates: number[] = [];
+  if (Math.abs(c3) < 1e-12 * Math.max(Math.abs(c1), Math.abs(c2), 1e-300)) {
+    if (c2 < 0) candidates.push(-c1 / (2 * c2));
+  } else {
+    const disc = 4 * c2 * c2 - 12 * c3 * c1;
+    if (disc >= 0) for (const sign of [1, -1]) candidates.push((-2 * c2 + sign * Math.sqrt(disc)) / (6 * c3));
+  }
+  const xMin = (lambda[left] - centre) / span;
+  const xMax = (lambda[right] - centre) / span;
+  const roots = candidates.filter((x) => 2 * c2 + 6 * c3 * x < 0 && x >= xMin && x <= xMax).sort((p, q) => Math.abs(p) - Math.abs(q));
+  if (roots.length === 0) throw fail();
+  const x = roots[0];
+  const curvature = 2 * c2 + 6 * c3 * x;
+  // ∂x/∂cₖ = −(∂slope/∂cₖ) / curvature, with ∂slope/∂(c0, c1, c2, c3) = (0, 1, 2x, 3x²).
+  const g = [0, 1, 2 * x, 3 * x * x].map((d) => -d / curvature);
+  let variance = 0;
+  for (let a = 0; a < 4; a++) for (let b = 0; b < 4; b++) variance += g[a] * inverse[a][b] * g[b];
+  const sigma = Math.max(Math.sqrt(Math.max(0, variance * scale)) * span, step / 2);
+  return { value: centre + x * span, sigma };
 }

@@ -139,6 +139,29 @@ describe('continuum peak', () => {
     expect(peak.sigma).toBeGreaterThan(0);
   });
 
+  it('has an honest σ: over 60 noisy 5200 K spectra the peak lies within 2σ of b / T in most and within 3σ in nearly all (CODATA 2018 b)', () => {
+    const expected = CONSTANTS.b.value / 5200;
+    let within2 = 0;
+    let within3 = 0;
+    for (let seed = 1; seed <= 60; seed++) {
+      // 1 % noise on 131 points over 350–1000 nm, the shape of a small spectrograph's calibrated output.
+      const { wavelengthM, flux } = syntheticSpectrum(5200, 0.01, seed, 350e-9, 1000e-9, 131);
+      const peak = findContinuumPeak({ wavelengthM, flux });
+      const z = Math.abs(peak.value - expected) / peak.sigma;
+      if (z < 2) within2++;
+      if (z < 3) within3++;
+    }
+    // A Gaussian puts 95.4 % within 2σ and 99.7 % within 3σ; allow for the cubic's small model error.
+    expect(within2).toBeGreaterThanOrEqual(50);
+    expect(within3).toBeGreaterThanOrEqual(57);
+  });
+
+  it('uses the flux uncertainties when the spectrum gives them', () => {
+    const { wavelengthM, flux, fluxSigma } = syntheticSpectrum(5200, 0.01, 7, 350e-9, 1000e-9, 131);
+    const weighted = findContinuumPeak({ wavelengthM, flux, fluxSigma });
+    expect(Math.abs(weighted.value - CONSTANTS.b.value / 5200)).toBeLessThan(3 * weighted.sigma);
+  });
+
   it('refuses a spectrum whose continuum rises to one end (the peak lies outside it)', () => {
     const { wavelengthM, flux } = syntheticSpectrum(3000, 0.001, 5, 400e-9, 700e-9, 100);
     try {
