@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
@@ -7,14 +6,14 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { useLogin } from '@/lib/auth';
-import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+import { formParseOptions } from '@/lib/form-errors';
+import { useServerErrors } from '@/hooks/use-server-errors';
 
 const FIELDS = ['email', 'password'] as const;
 
 /** E-mail and password; the server's own words when they are refused (wrong password, too many attempts). */
 export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   const login = useLogin();
-  const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
     handleSubmit,
@@ -26,14 +25,14 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
     resolver: zodResolver(loginBody, formParseOptions),
     defaultValues: { email: '', password: '' },
   });
+  const { formError, send } = useServerErrors(setError, FIELDS);
 
   const onSubmit = handleSubmit(async (body) => {
-    setFormError(null);
-    try {
+    const signedIn = await send(async () => {
       await login.mutateAsync(body);
       onSignedIn();
-    } catch (error) {
-      setFormError(serverErrorMessage(error, setError, FIELDS));
+    });
+    if (!signedIn) {
       resetField('password');
       setFocus('password');
     }

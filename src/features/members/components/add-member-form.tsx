@@ -7,7 +7,8 @@ import { projectRoles, roleLabels } from '@shared/schemas/roles';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
-import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+import { formParseOptions } from '@/lib/form-errors';
+import { useServerErrors } from '@/hooks/use-server-errors';
 import { useAddMember } from '../api/add-member';
 
 const FIELDS = ['email', 'role'] as const;
@@ -16,7 +17,6 @@ const FIELDS = ['email', 'role'] as const;
 export function AddMemberForm({ projectId, onAdded }: { projectId: number; onAdded?: (member: Member) => void }) {
   const addMember = useAddMember(projectId);
   const [added, setAdded] = useState<Member | null>(null);
-  const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
     handleSubmit,
@@ -27,18 +27,16 @@ export function AddMemberForm({ projectId, onAdded }: { projectId: number; onAdd
     resolver: zodResolver(addMemberBody, formParseOptions),
     defaultValues: { email: '', role: 'observer' },
   });
+  const { formError, send } = useServerErrors(setError, FIELDS);
 
   const onSubmit = handleSubmit(async (body) => {
-    setFormError(null);
     setAdded(null);
-    try {
+    await send(async () => {
       const member = await addMember.mutateAsync(body);
       setAdded(member);
       reset({ email: '', role: body.role });
       onAdded?.(member);
-    } catch (error) {
-      setFormError(serverErrorMessage(error, setError, FIELDS));
-    }
+    });
   });
 
   return (

@@ -8,7 +8,8 @@ import { paths } from '@/config/paths';
 import { Button, linkClasses } from '@/components/ui/button';
 import { FieldGroup, TextAreaField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
-import { formParseOptions, serverErrorMessage, toOptionalNumber, toOptionalText } from '@/lib/form-errors';
+import { formParseOptions, toOptionalNumber, toOptionalText } from '@/lib/form-errors';
+import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateProject } from '../api/create-project';
 
 type FormInput = z.input<typeof createProjectBody>;
@@ -30,7 +31,6 @@ const FIELDS = [
 export function CreateProjectForm() {
   const createProject = useCreateProject();
   const [created, setCreated] = useState<Project | null>(null);
-  const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
     handleSubmit,
@@ -41,17 +41,15 @@ export function CreateProjectForm() {
     resolver: zodResolver(createProjectBody, formParseOptions),
     defaultValues: { name: '', code: '', description: '', site: { name: '', timeZone: '' } },
   });
+  const { formError, send } = useServerErrors(setError, FIELDS);
 
   const onSubmit = handleSubmit(async (values) => {
-    setFormError(null);
     setCreated(null);
-    try {
+    await send(async () => {
       const project = await createProject.mutateAsync(values);
       setCreated(project);
       reset();
-    } catch (error) {
-      setFormError(serverErrorMessage(error, setError, FIELDS));
-    }
+    });
   });
 
   return (

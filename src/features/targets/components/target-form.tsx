@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import type { FormEventHandler } from 'react';
 import { useForm, useWatch, type Control, type FieldErrors, type FieldValues, type UseFormRegister } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
@@ -14,7 +14,8 @@ import { ButtonLink, Button } from '@/components/ui/button';
 import { TextAreaField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { formatDegrees } from '@/lib/format';
-import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+import { formParseOptions } from '@/lib/form-errors';
+import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateTarget } from '../api/create-target';
 import { useUpdateTarget } from '../api/update-target';
 
@@ -140,6 +141,48 @@ function TargetFields<Out extends FieldValues>({
   );
 }
 
+/** The boxes, the refusal above them and the buttons below, as both target forms show them. */
+function TargetFormLayout<Out extends FieldValues>({
+  label,
+  onSubmit,
+  formError,
+  failedTitle,
+  register,
+  errors,
+  control,
+  isSubmitting,
+  submitLabel,
+  submittingLabel,
+  cancelHref,
+}: {
+  label: string;
+  onSubmit: FormEventHandler<HTMLFormElement>;
+  formError: string | null;
+  failedTitle: string;
+  register: UseFormRegister<TargetFormValues>;
+  errors: FieldErrors<TargetFormValues>;
+  control: Control<TargetFormValues, unknown, Out>;
+  isSubmitting: boolean;
+  submitLabel: string;
+  submittingLabel: string;
+  cancelHref: string;
+}) {
+  return (
+    <form onSubmit={onSubmit} noValidate aria-label={label} className="max-w-3xl space-y-5">
+      {formError ? <Alert title={failedTitle}>{formError}</Alert> : null}
+      <TargetFields register={register} errors={errors} control={control} />
+      <div className="flex gap-3">
+        <Button type="submit" disabled={isSubmitting}>
+          {isSubmitting ? submittingLabel : submitLabel}
+        </Button>
+        <ButtonLink to={cancelHref} variant="secondary">
+          Cancel
+        </ButtonLink>
+      </div>
+    </form>
+  );
+}
+
 /** A new target. */
 export function CreateTargetForm({
   projectId,
@@ -151,7 +194,6 @@ export function CreateTargetForm({
   onCreated: (target: Target) => void;
 }) {
   const createTarget = useCreateTarget(projectId);
-  const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
     control,
@@ -162,29 +204,28 @@ export function CreateTargetForm({
     resolver: zodResolver(createTargetForm, formParseOptions),
     defaultValues: { designation: '', ra: '', dec: '', notes: '', tags: '' },
   });
+  const { formError, send } = useServerErrors(setError, FIELDS);
 
-  const onSubmit = handleSubmit(async (body) => {
-    setFormError(null);
-    try {
+  const onSubmit = handleSubmit((body) =>
+    send(async () => {
       onCreated(await createTarget.mutateAsync(body));
-    } catch (error) {
-      setFormError(serverErrorMessage(error, setError, FIELDS));
-    }
-  });
+    }),
+  );
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label="New target" className="max-w-3xl space-y-5">
-      {formError ? <Alert title="The target was not added.">{formError}</Alert> : null}
-      <TargetFields register={register} errors={errors} control={control} />
-      <div className="flex gap-3">
-        <Button type="submit" disabled={isSubmitting}>
-          {isSubmitting ? 'Adding…' : 'Add target'}
-        </Button>
-        <ButtonLink to={cancelHref} variant="secondary">
-          Cancel
-        </ButtonLink>
-      </div>
-    </form>
+    <TargetFormLayout
+      label="New target"
+      onSubmit={onSubmit}
+      formError={formError}
+      failedTitle="The target was not added."
+      register={register}
+      errors={errors}
+      control={control}
+      isSubmitting={isSubmitting}
+      submitLabel="Add target"
+      submittingLabel="Adding…"
+      cancelHref={cancelHref}
+    />
   );
 }
 
@@ -201,7 +242,6 @@ export function EditTargetForm({
   onSaved: (target: Target) => void;
 }) {
   const updateTarget = useUpdateTarget(projectId, target.id);
-  const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
     control,
@@ -218,36 +258,31 @@ export function EditTargetForm({
       tags: target.tags.join(', '),
     },
   });
+  const { formError, send } = useServerErrors(setError, FIELDS);
 
-  const onSubmit = handleSubmit(async (values) => {
-    setFormError(null);
-    const body: UpdateTargetBody = {};
-    for (const field of FIELDS) {
-      if (dirtyFields[field]) Object.assign(body, { [field]: values[field] });
-    }
-    if (Object.keys(body).length === 0) {
-      onSaved(target);
-      return;
-    }
-    try {
-      onSaved(await updateTarget.mutateAsync(body));
-    } catch (error) {
-      setFormError(serverErrorMessage(error, setError, FIELDS));
-    }
-  });
+  const onSubmit = handleSubmit((values) =>
+    send(async () => {
+      const body: UpdateTargetBody = {};
+      for (const field of FIELDS) {
+        if (dirtyFields[field]) Object.assign(body, { [field]: values[field] });
+      }
+      onSaved(Object.keys(body).length === 0 ? target : await updateTarget.mutateAsync(body));
+    }),
+  );
 
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={`Edit ${target.designation}`} className="max-w-3xl space-y-5">
-      {formError ? <Alert title="The changes were not saved.">{formError}</Alert> : null}
-      <TargetFields register={register} errors={errors} control={control} />
-      <div className="flex gap-3">
-        <Button type="submit" disabled={isSubmitting}>
-          {isSubmitting ? 'Saving…' : 'Save changes'}
-        </Button>
-        <ButtonLink to={cancelHref} variant="secondary">
-          Cancel
-        </ButtonLink>
-      </div>
-    </form>
+    <TargetFormLayout
+      label={`Edit ${target.designation}`}
+      onSubmit={onSubmit}
+      formError={formError}
+      failedTitle="The changes were not saved."
+      register={register}
+      errors={errors}
+      control={control}
+      isSubmitting={isSubmitting}
+      submitLabel="Save changes"
+      submittingLabel="Saving…"
+      cancelHref={cancelHref}
+    />
   );
 }

@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
@@ -6,7 +5,8 @@ import { createTokenBody, type CreateTokenBody } from '@shared/schemas/tokens';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
-import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+import { formParseOptions } from '@/lib/form-errors';
+import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateToken, type CreatedToken } from '../api/create-token';
 
 const FIELDS = ['name'] as const;
@@ -14,7 +14,6 @@ const FIELDS = ['name'] as const;
 /** Names a new token after what will use it; the token itself is handed to `onCreated` to be shown once. */
 export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedToken) => void }) {
   const createToken = useCreateToken();
-  const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
     handleSubmit,
@@ -25,17 +24,15 @@ export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedTok
     resolver: zodResolver(createTokenBody, formParseOptions),
     defaultValues: { name: '' },
   });
+  const { formError, send } = useServerErrors(setError, FIELDS);
 
-  const onSubmit = handleSubmit(async (body) => {
-    setFormError(null);
-    try {
+  const onSubmit = handleSubmit((body) =>
+    send(async () => {
       const created = await createToken.mutateAsync(body);
       reset({ name: '' });
       onCreated(created);
-    } catch (error) {
-      setFormError(serverErrorMessage(error, setError, FIELDS));
-    }
-  });
+    }),
+  );
 
   return (
     <form onSubmit={onSubmit} noValidate aria-label="Create a token" className="space-y-3">

@@ -6,7 +6,8 @@ import { createUserBody, type CreateUserBody, type User } from '@shared/schemas/
 import { Button } from '@/components/ui/button';
 import { CheckboxField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
-import { formParseOptions, serverErrorMessage } from '@/lib/form-errors';
+import { formParseOptions } from '@/lib/form-errors';
+import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateUser } from '../api/create-user';
 
 const FIELDS = ['email', 'name', 'password', 'isSiteAdmin'] as const;
@@ -18,7 +19,6 @@ const FIELDS = ['email', 'name', 'password', 'isSiteAdmin'] as const;
 export function CreateUserForm() {
   const createUser = useCreateUser();
   const [created, setCreated] = useState<User | null>(null);
-  const [formError, setFormError] = useState<string | null>(null);
   const {
     register,
     handleSubmit,
@@ -29,16 +29,14 @@ export function CreateUserForm() {
     resolver: zodResolver(createUserBody, formParseOptions),
     defaultValues: { email: '', name: '', password: '', isSiteAdmin: false },
   });
+  const { formError, send } = useServerErrors(setError, FIELDS);
 
   const onSubmit = handleSubmit(async (body) => {
-    setFormError(null);
     setCreated(null);
-    try {
+    await send(async () => {
       setCreated(await createUser.mutateAsync(body));
       reset();
-    } catch (error) {
-      setFormError(serverErrorMessage(error, setError, FIELDS));
-    }
+    });
   });
 
   return (
