@@ -14,18 +14,63 @@ const controlClasses = (invalid: boolean) =>
     invalid ? 'border-2 border-alert' : 'border-rule hover:border-ink-soft',
   );
 
-function useFieldIds(id: string | undefined, hint: ReactNode, error: string | undefined) {
+/** What a Field hands its control so that the label names it and the hint and error describe it. */
+export interface FieldControlProps {
+  id: string;
+  'aria-invalid'?: true;
+  'aria-describedby'?: string;
+}
+
+/**
+ * One labelled control with its hint and its error under it. The control is
+ * drawn by `children` from the ids and ARIA attributes it is given, so one
+ * wiring serves text boxes, selects, checkboxes and compound controls.
+ * `inline` puts the control before its label on one line, as checkboxes are
+ * read.
+ */
+export function Field({
+  label,
+  hint,
+  error,
+  className,
+  id,
+  inline = false,
+  children,
+}: {
+  label: ReactNode;
+  hint?: ReactNode;
+  error?: ReactNode;
+  className?: string;
+  id?: string;
+  inline?: boolean;
+  children: (control: FieldControlProps) => ReactNode;
+}) {
   const generated = useId();
   const controlId = id ?? generated;
   const hintId = hint ? `${controlId}-hint` : undefined;
   const errorId = error ? `${controlId}-error` : undefined;
-  const describedBy = [hintId, errorId].filter(Boolean).join(' ') || undefined;
-  return { controlId, hintId, errorId, describedBy };
-}
-
-function FieldText({ hint, hintId, error, errorId }: { hint?: ReactNode; hintId?: string; error?: string; errorId?: string }) {
+  const control = children({
+    id: controlId,
+    'aria-invalid': error ? true : undefined,
+    'aria-describedby': [hintId, errorId].filter(Boolean).join(' ') || undefined,
+  });
   return (
-    <>
+    <div className={className}>
+      {inline ? (
+        <div className="flex items-center gap-2">
+          {control}
+          <label htmlFor={controlId} className="text-sm font-semibold text-ink">
+            {label}
+          </label>
+        </div>
+      ) : (
+        <>
+          <label htmlFor={controlId} className="mb-1 block text-sm font-semibold text-ink">
+            {label}
+          </label>
+          {control}
+        </>
+      )}
       {hint ? (
         <p id={hintId} className="mt-1 text-xs text-ink-soft">
           {hint}
@@ -36,90 +81,43 @@ function FieldText({ hint, hintId, error, errorId }: { hint?: ReactNode; hintId?
           {error}
         </p>
       ) : null}
-    </>
+    </div>
   );
 }
 
-const labelClasses = 'mb-1 block text-sm font-semibold text-ink';
-
 export function TextField({ label, hint, error, className, id, ...input }: FieldShellProps & ComponentProps<'input'>) {
-  const ids = useFieldIds(id, hint, error);
   return (
-    <div className={className}>
-      <label htmlFor={ids.controlId} className={labelClasses}>
-        {label}
-      </label>
-      <input
-        id={ids.controlId}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={ids.describedBy}
-        className={controlClasses(Boolean(error))}
-        {...input}
-      />
-      <FieldText hint={hint} hintId={ids.hintId} error={error} errorId={ids.errorId} />
-    </div>
+    <Field label={label} hint={hint} error={error} className={className} id={id}>
+      {(control) => <input {...control} className={controlClasses(Boolean(error))} {...input} />}
+    </Field>
   );
 }
 
 export function TextAreaField({ label, hint, error, className, id, ...textarea }: FieldShellProps & ComponentProps<'textarea'>) {
-  const ids = useFieldIds(id, hint, error);
   return (
-    <div className={className}>
-      <label htmlFor={ids.controlId} className={labelClasses}>
-        {label}
-      </label>
-      <textarea
-        id={ids.controlId}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={ids.describedBy}
-        className={cn(controlClasses(Boolean(error)), 'min-h-24')}
-        {...textarea}
-      />
-      <FieldText hint={hint} hintId={ids.hintId} error={error} errorId={ids.errorId} />
-    </div>
+    <Field label={label} hint={hint} error={error} className={className} id={id}>
+      {(control) => <textarea {...control} className={cn(controlClasses(Boolean(error)), 'min-h-24')} {...textarea} />}
+    </Field>
   );
 }
 
 export function SelectField({ label, hint, error, className, id, children, ...select }: FieldShellProps & ComponentProps<'select'>) {
-  const ids = useFieldIds(id, hint, error);
   return (
-    <div className={className}>
-      <label htmlFor={ids.controlId} className={labelClasses}>
-        {label}
-      </label>
-      <select
-        id={ids.controlId}
-        aria-invalid={error ? true : undefined}
-        aria-describedby={ids.describedBy}
-        className={controlClasses(Boolean(error))}
-        {...select}
-      >
-        {children}
-      </select>
-      <FieldText hint={hint} hintId={ids.hintId} error={error} errorId={ids.errorId} />
-    </div>
+    <Field label={label} hint={hint} error={error} className={className} id={id}>
+      {(control) => (
+        <select {...control} className={controlClasses(Boolean(error))} {...select}>
+          {children}
+        </select>
+      )}
+    </Field>
   );
 }
 
 export function CheckboxField({ label, hint, error, className, id, ...input }: FieldShellProps & Omit<ComponentProps<'input'>, 'type'>) {
-  const ids = useFieldIds(id, hint, error);
   return (
-    <div className={className}>
-      <div className="flex items-center gap-2">
-        <input
-          id={ids.controlId}
-          type="checkbox"
-          aria-invalid={error ? true : undefined}
-          aria-describedby={ids.describedBy}
-          className="size-4 accent-[var(--sl-brass)]"
-          {...input}
-        />
-        <label htmlFor={ids.controlId} className="text-sm font-semibold text-ink">
-          {label}
-        </label>
-      </div>
-      <FieldText hint={hint} hintId={ids.hintId} error={error} errorId={ids.errorId} />
-    </div>
+    <Field label={label} hint={hint} error={error} className={className} id={id} inline>
+      {(control) => <input {...control} type="checkbox" className="size-4 accent-[var(--sl-brass)]" {...input} />}
+    </Field>
   );
 }
 

@@ -1,4 +1,5 @@
-import { useId, type ReactNode } from 'react';
+import type { ReactNode } from 'react';
+import { Field } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
 import type { ValueEntry } from './calculator-inputs';
 
@@ -31,56 +32,50 @@ export function MeasuredField({
   error?: string;
   placeholder?: string;
 }) {
-  const id = useId();
-  const hintId = hint ? `${id}-hint` : undefined;
-  const errorId = error ? `${id}-error` : undefined;
-  const describedBy = [hintId, errorId].filter(Boolean).join(' ') || undefined;
   return (
-    <div className="py-2">
-      <label htmlFor={`${id}-value`} className="mb-1 block text-sm font-semibold text-ink">
-        {label}
-      </label>
-      <div className="grid grid-cols-[minmax(0,1fr)_auto_minmax(0,0.8fr)_auto] items-center gap-2">
-        <input
-          id={`${id}-value`}
-          inputMode="decimal"
-          autoComplete="off"
-          spellCheck={false}
-          placeholder={placeholder}
-          value={entry.value}
-          onChange={(e) => onChange({ ...entry, value: e.target.value })}
-          aria-invalid={error ? true : undefined}
-          aria-describedby={describedBy}
-          className={inputClasses(Boolean(error))}
-        />
-        <span aria-hidden="true" className="text-ink-soft">
-          ±
-        </span>
-        <input
-          id={`${id}-sigma`}
-          inputMode="decimal"
-          autoComplete="off"
-          spellCheck={false}
-          placeholder="σ"
-          value={entry.sigma}
-          onChange={(e) => onChange({ ...entry, sigma: e.target.value })}
-          aria-label={`Uncertainty (1σ) of ${typeof label === 'string' ? label : 'the value'}`}
-          aria-describedby={describedBy}
-          className={inputClasses(false)}
-        />
-        <span className="min-w-12 text-sm text-ink-soft">{unit}</span>
-      </div>
-      {hint ? (
-        <p id={hintId} className="mt-1 text-xs text-ink-soft">
-          {hint}
-        </p>
-      ) : null}
-      {error ? (
-        <p id={errorId} className="mt-1 text-sm font-medium text-alert">
-          <span className="font-semibold">Not used:</span> {error}
-        </p>
-      ) : null}
-    </div>
+    <Field
+      label={label}
+      hint={hint}
+      error={
+        error ? (
+          <>
+            <span className="font-semibold">Not used:</span> {error}
+          </>
+        ) : undefined
+      }
+      className="py-2"
+    >
+      {(control) => (
+        <div className="grid grid-cols-[minmax(0,1fr)_auto_minmax(0,0.8fr)_auto] items-center gap-2">
+          <input
+            {...control}
+            inputMode="decimal"
+            autoComplete="off"
+            spellCheck={false}
+            placeholder={placeholder}
+            value={entry.value}
+            onChange={(e) => onChange({ ...entry, value: e.target.value })}
+            className={inputClasses(Boolean(error))}
+          />
+          <span aria-hidden="true" className="text-ink-soft">
+            ±
+          </span>
+          <input
+            id={`${control.id}-sigma`}
+            inputMode="decimal"
+            autoComplete="off"
+            spellCheck={false}
+            placeholder="σ"
+            value={entry.sigma}
+            onChange={(e) => onChange({ ...entry, sigma: e.target.value })}
+            aria-label={`Uncertainty (1σ) of ${typeof label === 'string' ? label : 'the value'}`}
+            aria-describedby={control['aria-describedby']}
+            className={inputClasses(false)}
+          />
+          <span className="min-w-12 text-sm text-ink-soft">{unit}</span>
+        </div>
+      )}
+    </Field>
   );
 }
 
