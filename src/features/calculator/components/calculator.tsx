@@ -9,6 +9,7 @@ import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { FieldGroup } from '@/components/ui/field';
 import { PageHeader } from '@/components/ui/page-header';
+import { QUANTITY_SECTIONS, type QuantitySection } from '@/lib/quantity-sections';
 import {
   emptyForm,
   readForm,
@@ -52,27 +53,18 @@ const NEEDS: Readonly<Record<QuantityId, string>> = {
   magnetic_field: 'a Zeeman shift and the line’s Landé g',
 };
 
-const SECTIONS: ReadonlyArray<{ title: string; quantities: readonly QuantityId[]; note?: string }> = [
-  {
-    title: 'Temperature and spectral class',
-    quantities: ['temperature_wien', 'temperature_colour', 'temperature_planck', 'temperature', 'spectral_class'],
-    note: 'Wien’s law on a real spectrum is rough: absorption lines, the instrument’s response and reddening move the apparent peak; prefer a Planck fit to a flux-calibrated spectrum or the colour temperature. Temperature alone gives no luminosity class: giants and dwarfs of one temperature differ in luminosity by orders of magnitude.',
-  },
-  {
-    title: 'Flux, distance and size',
-    quantities: ['bolometric_flux', 'distance_parallax', 'luminosity', 'radius', 'absolute_bolometric_magnitude', 'luminosity_class'],
-  },
-  {
-    title: 'Spectroscopic parallax',
-    quantities: ['luminosity_hr', 'distance_photometric'],
-    note: 'This route assumes a luminosity class; its distance is only as good as that assumption.',
-  },
-  {
-    title: 'Lines',
-    quantities: ['radial_velocity', 'rotation_velocity', 'magnetic_field'],
-    note: 'No barycentric or gravitational-redshift correction is applied.',
-  },
-];
+/*
+ * Here the peak wavelength is whatever was typed, often read off a plot, so
+ * the temperatures come with Wien's law's limits spelled out.
+ */
+const SECTIONS: readonly QuantitySection[] = QUANTITY_SECTIONS.map((section) =>
+  section.quantities.includes('temperature_wien')
+    ? {
+        ...section,
+        note: 'Wien’s law on a real spectrum is rough: absorption lines, the instrument’s response and reddening move the apparent peak; prefer a Planck fit to a flux-calibrated spectrum or the colour temperature. Temperature alone gives no luminosity class: giants and dwarfs of one temperature differ in luminosity by orders of magnitude.',
+      }
+    : section,
+);
 
 /** How the page names each measurement when the engine's texts refer to it by id. */
 const FIELD_LABELS: Readonly<Record<FieldId, string>> = {

@@ -4,27 +4,7 @@ import type { QuantityId } from '@shared/physics/quantities';
 import { Alert } from '@/components/ui/alert';
 import { formatDateTime } from '@/lib/format';
 import { measurementKindName } from '@/lib/measurement-words';
-
-const SECTIONS: ReadonlyArray<{ title: string; quantities: readonly QuantityId[]; note?: string }> = [
-  {
-    title: 'Temperature and spectral class',
-    quantities: ['temperature_wien', 'temperature_colour', 'temperature_planck', 'temperature', 'spectral_class'],
-  },
-  {
-    title: 'Flux, distance and size',
-    quantities: ['bolometric_flux', 'distance_parallax', 'luminosity', 'radius', 'absolute_bolometric_magnitude', 'luminosity_class'],
-  },
-  {
-    title: 'Spectroscopic parallax',
-    quantities: ['luminosity_hr', 'distance_photometric'],
-    note: 'This route assumes a luminosity class; its distance is only as good as that assumption.',
-  },
-  {
-    title: 'Lines',
-    quantities: ['radial_velocity', 'rotation_velocity', 'magnetic_field'],
-    note: 'No barycentric or gravitational-redshift correction is applied.',
-  },
-];
+import { QUANTITY_SECTIONS } from '@/lib/quantity-sections';
 
 export const DERIVED_STATUS_WORDS: Readonly<Record<DerivedStatus, string>> = {
   proposed: 'Proposed',
@@ -143,9 +123,9 @@ export function ModelCaution({ className }: { className?: string }) {
  */
 export function DerivedValues({ derived, measurements }: { derived: DerivedValue[]; measurements: Measurement[] }) {
   const byId = new Map(measurements.map((m) => [m.id, m]));
-  const placed = new Set(SECTIONS.flatMap((s) => s.quantities as readonly string[]));
+  const placed = new Set(QUANTITY_SECTIONS.flatMap((s) => s.quantities as readonly string[]));
   const sections = [
-    ...SECTIONS.map((s) => ({ ...s, values: s.quantities.flatMap((q) => derived.filter((d) => d.quantity === q)) })),
+    ...QUANTITY_SECTIONS.map((s) => ({ ...s, values: s.quantities.flatMap((q) => derived.filter((d) => d.quantity === q)) })),
     { title: 'Other quantities', quantities: [], note: undefined, values: derived.filter((d) => !placed.has(d.quantity)) },
   ].filter((s) => s.values.length > 0);
 
