@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { linkClasses } from '@/components/ui/button';
@@ -8,16 +9,14 @@ import { linkClasses } from '@/components/ui/button';
  * might exist.
  */
 
-export function NotFoundMessage() {
+/** The page shape both share: status code, heading, what to do, and the way back. */
+function StatusMessage({ status, pageTitle, heading, children }: { status: number; pageTitle: string; heading: string; children: ReactNode }) {
   return (
     <div className="py-10">
-      <title>Not found · Starledger</title>
-      <p className="text-xs font-semibold tracking-[0.18em] text-brass-deep uppercase">404</p>
-      <h1 className="mt-1 text-3xl font-semibold">Nothing recorded here</h1>
-      <p className="mt-3 max-w-prose text-ink-soft">
-        This page does not exist, or it belongs to a project you are not a member of. Check the address, or ask the project’s lead
-        astronomer to add you.
-      </p>
+      <title>{`${pageTitle} · Starledger`}</title>
+      <p className="text-xs font-semibold tracking-[0.18em] text-brass-deep uppercase">{status}</p>
+      <h1 className="mt-1 text-3xl font-semibold">{heading}</h1>
+      <p className="mt-3 max-w-prose text-ink-soft">{children}</p>
       <p className="mt-6">
         <Link to={paths.home.getHref()} className={linkClasses}>
           Back to your projects
@@ -27,21 +26,20 @@ export function NotFoundMessage() {
   );
 }
 
+export function NotFoundMessage() {
+  return (
+    <StatusMessage status={404} pageTitle="Not found" heading="Nothing recorded here">
+      This page does not exist, or it belongs to a project you are not a member of. Check the address, or ask the project’s lead
+      astronomer to add you.
+    </StatusMessage>
+  );
+}
+
 export function ForbiddenMessage({ detail }: { detail?: string }) {
   return (
-    <div className="py-10">
-      <title>Not allowed · Starledger</title>
-      <p className="text-xs font-semibold tracking-[0.18em] text-brass-deep uppercase">403</p>
-      <h1 className="mt-1 text-3xl font-semibold">Your role does not allow this</h1>
-      <p className="mt-3 max-w-prose text-ink-soft">
-        {detail ?? 'You can see this project, but your role in it does not include this page or action.'} If you need it, ask the
-        project’s lead astronomer (or a site administrator for account matters).
-      </p>
-      <p className="mt-6">
-        <Link to={paths.home.getHref()} className={linkClasses}>
-          Back to your projects
-        </Link>
-      </p>
-    </div>
+    <StatusMessage status={403} pageTitle="Not allowed" heading="Your role does not allow this">
+      {detail ?? 'You can see this project, but your role in it does not include this page or action.'} If you need it, ask the
+      project’s lead astronomer (or a site administrator for account matters).
+    </StatusMessage>
   );
 }
