@@ -27,6 +27,13 @@ const FIELDS = [
   'leadEmail',
 ] as const;
 
+/** The site's numeric boxes: an empty one is "not given", not zero. */
+const SITE_NUMBERS = [
+  { name: 'latitudeDeg', label: 'Latitude (°)', hint: 'Decimal degrees, north positive.' },
+  { name: 'longitudeDeg', label: 'Longitude (°)', hint: 'Decimal degrees, east positive.' },
+  { name: 'elevationM', label: 'Elevation (m)', hint: 'Metres above sea level.' },
+] as const;
+
 /** A site administrator opens a new observing programme and, optionally, names its lead astronomer. */
 export function CreateProjectForm() {
   const createProject = useCreateProject();
@@ -87,33 +94,18 @@ export function CreateProjectForm() {
             error={errors.site?.timeZone?.message}
             {...register('site.timeZone')}
           />
-          <TextField
-            label="Latitude (°)"
-            type="number"
-            step="any"
-            inputMode="decimal"
-            hint="Decimal degrees, north positive."
-            error={errors.site?.latitudeDeg?.message}
-            {...register('site.latitudeDeg', { setValueAs: toOptionalNumber })}
-          />
-          <TextField
-            label="Longitude (°)"
-            type="number"
-            step="any"
-            inputMode="decimal"
-            hint="Decimal degrees, east positive."
-            error={errors.site?.longitudeDeg?.message}
-            {...register('site.longitudeDeg', { setValueAs: toOptionalNumber })}
-          />
-          <TextField
-            label="Elevation (m)"
-            type="number"
-            step="any"
-            inputMode="decimal"
-            hint="Metres above sea level."
-            error={errors.site?.elevationM?.message}
-            {...register('site.elevationM', { setValueAs: toOptionalNumber })}
-          />
+          {SITE_NUMBERS.map(({ name, label, hint }) => (
+            <TextField
+              key={name}
+              label={label}
+              type="number"
+              step="any"
+              inputMode="decimal"
+              hint={hint}
+              error={errors.site?.[name]?.message}
+              {...register(`site.${name}`, { setValueAs: toOptionalNumber })}
+            />
+          ))}
         </div>
       </FieldGroup>
       <TextField
