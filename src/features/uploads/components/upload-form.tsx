@@ -20,6 +20,21 @@ const WAVELENGTH_UNITS: ReadonlyArray<{ value: SpectrumWavelengthUnit; label: st
   { value: 'm', label: 'm (metres)' },
 ];
 
+type FileKind = 'measurements' | 'spectrum';
+
+const FILE_KINDS: ReadonlyArray<{ kind: FileKind; title: string; description: string }> = [
+  {
+    kind: 'measurements',
+    title: 'Measurements',
+    description: 'a CSV with a header row, one measurement per row (long layout) or a column per quantity (wide layout).',
+  },
+  {
+    kind: 'spectrum',
+    title: 'Spectrum of one target',
+    description: 'two columns, wavelength and flux (a third for the flux uncertainty is read too).',
+  },
+];
+
 type Stage = { name: 'idle' } | { name: 'sending'; progress: UploadProgress } | { name: 'reading' };
 
 /** The byte count sent so far, as a bar and in words; the server's reading time follows as its own stage. */
@@ -68,7 +83,7 @@ export function UploadForm({
   targetsLoading: boolean;
   onUploaded: (upload: Upload) => void;
 }) {
-  const [kind, setKind] = useState<'measurements' | 'spectrum'>('measurements');
+  const [kind, setKind] = useState<FileKind>('measurements');
   const [file, setFile] = useState<File | null>(null);
   const [targetId, setTargetId] = useState('');
   const [wavelengthUnit, setWavelengthUnit] = useState<SpectrumWavelengthUnit>('nm');
@@ -144,36 +159,22 @@ export function UploadForm({
     <form onSubmit={submit} noValidate aria-label="Upload a file" className="space-y-5">
       <FieldGroup legend="What the file holds">
         <div className="mt-2 space-y-2 text-sm" role="radiogroup" aria-label="Kind of file">
-          <label className="flex items-start gap-2">
-            <input
-              type="radio"
-              name="kind"
-              value="measurements"
-              checked={kind === 'measurements'}
-              disabled={busy}
-              onChange={() => setKind('measurements')}
-              className="mt-1 accent-[var(--sl-brass)]"
-            />
-            <span>
-              <span className="font-semibold">Measurements</span>{' '}
-              <span className="text-ink-soft">— a CSV with a header row, one measurement per row (long layout) or a column per quantity (wide layout).</span>
-            </span>
-          </label>
-          <label className="flex items-start gap-2">
-            <input
-              type="radio"
-              name="kind"
-              value="spectrum"
-              checked={kind === 'spectrum'}
-              disabled={busy}
-              onChange={() => setKind('spectrum')}
-              className="mt-1 accent-[var(--sl-brass)]"
-            />
-            <span>
-              <span className="font-semibold">Spectrum of one target</span>{' '}
-              <span className="text-ink-soft">— two columns, wavelength and flux (a third for the flux uncertainty is read too).</span>
-            </span>
-          </label>
+          {FILE_KINDS.map((option) => (
+            <label key={option.kind} className="flex items-start gap-2">
+              <input
+                type="radio"
+                name="kind"
+                value={option.kind}
+                checked={kind === option.kind}
+                disabled={busy}
+                onChange={() => setKind(option.kind)}
+                className="mt-1 accent-[var(--sl-brass)]"
+              />
+              <span>
+                <span className="font-semibold">{option.title}</span> <span className="text-ink-soft">— {option.description}</span>
+              </span>
+            </label>
+          ))}
         </div>
         {kind === 'spectrum' ? (
           <div className="mt-4 grid gap-4 sm:grid-cols-2">
