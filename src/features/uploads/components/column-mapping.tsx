@@ -1,4 +1,4 @@
-import { useState, type FormEvent } from 'react';
+import { useState, type ComponentProps, type FormEvent } from 'react';
 import {
   FIELDS,
   FILE_QUANTITIES,
@@ -95,6 +95,16 @@ function buildMapping(layout: ColumnMapping['layout'], headers: string[], drafts
 }
 
 const inputClasses = 'rounded-sm border border-rule bg-paper px-2 py-1 text-sm text-ink hover:border-ink-soft';
+
+/** A measured column's detail (band, rest wavelength, Landé g) as a text box under its caption. */
+function DetailInput({ label, className, ...input }: { label: string } & ComponentProps<'input'>) {
+  return (
+    <label className="text-xs text-ink-soft">
+      {label}
+      <input className={cn(inputClasses, 'block', className)} {...input} />
+    </label>
+  );
+}
 
 /**
  * Says what each column of the file holds. Prefilled with the server's
@@ -267,40 +277,34 @@ export function ColumnMappingForm({
                         </select>
                       </label>
                       {NEEDS_BAND.includes(d.quantity) ? (
-                        <label className="text-xs text-ink-soft">
-                          Band
-                          <input
-                            className={cn(inputClasses, 'block w-20')}
-                            value={d.band}
-                            disabled={!canEdit || pending}
-                            placeholder={d.quantity === 'colour_index' ? 'B-V' : 'V'}
-                            onChange={(e) => update(header, { band: e.target.value })}
-                          />
-                        </label>
+                        <DetailInput
+                          label="Band"
+                          className="w-20"
+                          value={d.band}
+                          disabled={!canEdit || pending}
+                          placeholder={d.quantity === 'colour_index' ? 'B-V' : 'V'}
+                          onChange={(e) => update(header, { band: e.target.value })}
+                        />
                       ) : null}
                       {NEEDS_REST.includes(d.quantity) ? (
-                        <label className="text-xs text-ink-soft">
-                          Rest wavelength ({unitSymbol(d.unit)})
-                          <input
-                            className={cn(inputClasses, 'block w-28')}
-                            inputMode="decimal"
-                            value={d.rest}
-                            disabled={!canEdit || pending}
-                            onChange={(e) => update(header, { rest: e.target.value })}
-                          />
-                        </label>
+                        <DetailInput
+                          label={`Rest wavelength (${unitSymbol(d.unit)})`}
+                          className="w-28"
+                          inputMode="decimal"
+                          value={d.rest}
+                          disabled={!canEdit || pending}
+                          onChange={(e) => update(header, { rest: e.target.value })}
+                        />
                       ) : null}
                       {d.quantity === 'zeeman_separation' ? (
-                        <label className="text-xs text-ink-soft">
-                          Landé g
-                          <input
-                            className={cn(inputClasses, 'block w-20')}
-                            inputMode="decimal"
-                            value={d.lande}
-                            disabled={!canEdit || pending}
-                            onChange={(e) => update(header, { lande: e.target.value })}
-                          />
-                        </label>
+                        <DetailInput
+                          label="Landé g"
+                          className="w-20"
+                          inputMode="decimal"
+                          value={d.lande}
+                          disabled={!canEdit || pending}
+                          onChange={(e) => update(header, { lande: e.target.value })}
+                        />
                       ) : null}
                     </div>
                   ) : (
