@@ -40,6 +40,7 @@ describe('units', () => {
     expect(() => parseUnit('furlong')).toThrow(PhysicsError);
     try {
       parseUnit('parsecs', 'parallax');
+      expect.unreachable();
     } catch (e) {
       expect(e).toBeInstanceOf(PhysicsError);
       expect((e as PhysicsError).code).toBe('unknown_unit');
