@@ -22,6 +22,7 @@ function solarTwinAt10pc(): MeasurementInput[] {
     { id: 'peak', kind: 'peak_wavelength', valueSi: CONSTANTS.b.value / 5772, uncertaintySi: 10 * NM },
     { id: 'bv', kind: 'colour_index', band: 'B-V', valueSi: 0.65, uncertaintySi: 0.01 },
     { id: 'ebv', kind: 'extinction', valueSi: 0, uncertaintySi: 0.005 },
+    // M_V☉ = 4.81 on Torres 2010's scale (from memory): at 10 pc the apparent magnitude is the absolute one.
     { id: 'v', kind: 'magnitude', band: 'V', valueSi: 4.81, uncertaintySi: 0.01 },
     { id: 'fbol', kind: 'bolometric_flux', valueSi: flux, uncertaintySi: 0.01 * flux },
     { id: 'plx', kind: 'parallax', valueSi: 100 * MAS, uncertaintySi: 0.1 * MAS },
@@ -224,7 +225,7 @@ describe('derivation engine', () => {
     expect(graph.issues).toContainEqual(expect.objectContaining({ measurementId: 'r', code: 'measurement_unused', quantity: null }));
   });
 
-  it('B−V from B and V magnitudes when no colour index is given', () => {
+  it('B−V from B and V magnitudes when no colour index is given: 8.65 − 8.0 = 0.65 gives 5778 K (Ballesteros 2012, EPL 97, 34008, worked value)', () => {
     const { results } = deriveAll([
       { id: 'B', kind: 'magnitude', band: 'B', valueSi: 8.65, uncertaintySi: 0.01 },
       { id: 'V', kind: 'magnitude', band: 'V', valueSi: 8.0, uncertaintySi: 0.01 },

@@ -92,6 +92,7 @@ describe('Planck fit', () => {
     expect(Math.abs(fit.temperatureK.value - 5800)).toBeLessThan(3 * fit.temperatureK.sigma);
     expect(fit.temperatureK.sigma).toBeGreaterThan(1);
     expect(fit.temperatureK.sigma).toBeLessThan(100);
+    // 300 points and 2 parameters: χ²/ν scatters about 1 by √(2/298) ≈ 0.08 (the χ² distribution), so 0.7–1.4 allows about −4 to +5 of that.
     expect(fit.reducedChiSquare).toBeGreaterThan(0.7);
     expect(fit.reducedChiSquare).toBeLessThan(1.4);
     expect(Math.exp(fit.logScale.value) / spectrum.scale).toBeCloseTo(1, 1);
