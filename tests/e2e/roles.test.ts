@@ -86,9 +86,27 @@ describe.skipIf(!chromiumAvailable)('each role in the browser', () => {
     });
   }
 
-  it('site admin: creates a project and sees the accounts', async () => {
+  it('site admin: creates a project, with the server’s refusal shown at its field, and sees the accounts', async () => {
     const page = await pageAs('admin@demo.invalid');
-    await page.getByRole('button', { name: 'Create project' }).waitFor();
+    const form = page.getByRole('form', { name: 'New project' });
+    await form.getByLabel('Name', { exact: true }).fill('Winter photometry');
+    await form.getByLabel('Code').fill('WNT-26');
+    await form.getByLabel('Site name').fill('North Dome');
+    await form.getByLabel('Time zone').fill('Etc/UTC');
+    await form.getByLabel('Latitude (°)').fill('52.1');
+    await form.getByLabel('Longitude (°)').fill('-3.4');
+    await form.getByLabel('Elevation (m)').fill('320');
+    const leadEmail = form.getByLabel('Lead astronomer’s e-mail');
+    await leadEmail.fill('nobody@demo.invalid');
+    await form.getByRole('button', { name: 'Create project' }).click();
+    // Only the server knows which accounts exist: its refusal must land at the field it names.
+    await form.getByText('No account has that e-mail. Create the account first.').waitFor();
+    expect(await leadEmail.getAttribute('aria-invalid')).toBe('true');
+    await screenshot(page, 'admin-project-refused');
+    await leadEmail.fill('');
+    await form.getByRole('button', { name: 'Create project' }).click();
+    await form.getByText('Project WNT-26 created.').waitFor();
+    await screenshot(page, 'admin-project-created');
     await page.goto(`${app.baseUrl}/admin/users`);
     await page.getByRole('table', { name: 'Accounts' }).waitFor();
     expect(await page.getByRole('cell', { name: 'observer@demo.invalid' }).count()).toBe(1);
