@@ -52,7 +52,7 @@ describe.skipIf(!chromiumAvailable)('each role in the browser', () => {
     await page.getByLabel('Declination (J2000)').fill('-31 40 07');
     await page.getByRole('button', { name: /save|add target|create/i }).last().click();
     await page.getByRole('heading', { name: 'GW 125' }).waitFor();
-    expect(await page.getByText('18 02 11.40').count()).toBeGreaterThan(0);
+    await page.getByText('18 02 11.40').first().waitFor();
     await screenshot(page, 'lead-target-created');
     await page.getByRole('link', { name: 'Members', exact: true }).click();
     await page.getByRole('button', { name: 'Add member' }).waitFor();
