@@ -1,30 +1,14 @@
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { demoAccounts } from '../../seeds/01-demo-scenario';
-import { chromiumAvailable, launchBrowser, screenshot, signInAs, startApp, type RunningApp } from './support/harness';
+import { browserSuite, chromiumAvailable, screenshot } from './support/harness';
 
 /** What each demo role sees and can do, as its users would, in Chromium against the production build. */
 describe.skipIf(!chromiumAvailable)('each role in the browser', () => {
-  let app: RunningApp;
-  let browser: Browser;
-
-  beforeAll(async () => {
-    app = await startApp();
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
+  const { baseUrl, newPage, pageAs } = browserSuite();
 
   const account = (email: string) => demoAccounts.find((a) => a.email === email)!;
 
-  async function pageAs(email: string): Promise<Page> {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const page = await context.newPage();
-    await signInAs(page, app.baseUrl, email, account(email).password);
-    return page;
-  }
 
   /** Opens the demo project and waits until the page knows the caller's role, so absent controls are truly absent. */
   async function openProject(page: Page) {
@@ -35,8 +19,8 @@ describe.skipIf(!chromiumAvailable)('each role in the browser', () => {
   }
 
   it('refuses a wrong password without saying whether the account exists', async () => {
-    const page = await (await browser.newContext()).newPage();
-    await page.goto(`${app.baseUrl}/sign-in`);
+    const page = await newPage();
+    await page.goto(`${baseUrl()}/sign-in`);
     await page.getByLabel('E-mail').fill('lead@demo.invalid');
     await page.getByLabel('Password').fill('not-the-password');
     await page.getByRole('button', { name: 'Sign in' }).click();
@@ -85,7 +69,7 @@ describe.skipIf(!chromiumAvailable)('each role in the browser', () => {
       await page.getByRole('heading', { name: 'Derived values' }).waitFor();
       expect(await page.getByRole('link', { name: 'Edit target' }).count()).toBe(0);
       expect(await page.getByRole('button', { name: 'Delete target' }).count()).toBe(0);
-      await page.goto(`${app.baseUrl}/projects/1/targets/new`);
+      await page.goto(`${baseUrl()}/projects/1/targets/new`);
       await page.getByRole('heading', { name: 'Your role does not allow this' }).waitFor();
       await screenshot(page, `${account(email).role}-new-target-forbidden`);
     });
@@ -112,7 +96,7 @@ describe.skipIf(!chromiumAvailable)('each role in the browser', () => {
     await form.getByRole('button', { name: 'Create project' }).click();
     await form.getByText('Project WNT-26 created.').waitFor();
     await screenshot(page, 'admin-project-created');
-    await page.goto(`${app.baseUrl}/admin/users`);
+    await page.goto(`${baseUrl()}/admin/users`);
     await page.getByRole('table', { name: 'Accounts' }).waitFor();
     await page.getByRole('cell', { name: 'observer@demo.invalid' }).waitFor();
     await screenshot(page, 'admin-users');

@@ -1,33 +1,15 @@
 import path from 'node:path';
-import type { Browser, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { describe, expect, it } from 'vitest';
 import { planckSpectralRadiance } from '../../shared/physics/planck';
-import { demoAccounts } from '../../seeds/01-demo-scenario';
-import { chromiumAvailable, launchBrowser, screenshot, signInAs, startApp, type RunningApp } from './support/harness';
+import { browserSuite, chromiumAvailable, screenshot } from './support/harness';
 
 const SAMPLE = path.resolve(import.meta.dirname, '../../public/samples/glasswing-night.csv');
 
 /** A night's file from the observer's computer to proposed values on a target sheet, in Chromium against the production build. */
 describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => {
-  let app: RunningApp;
-  let browser: Browser;
+  const { baseUrl, pageAs } = browserSuite();
 
-  beforeAll(async () => {
-    app = await startApp();
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await app?.stop();
-  });
-
-  async function pageAs(email: string): Promise<Page> {
-    const account = demoAccounts.find((a) => a.email === email)!;
-    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    const page = await context.newPage();
-    await signInAs(page, app.baseUrl, email, account.password);
-    return page;
-  }
 
   async function openProject(page: Page) {
     await page.getByRole('link', { name: /Glasswing Nearby Dwarfs Programme/ }).first().click();
@@ -80,7 +62,7 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     // A 5200 K blackbody, 350–1000 nm, peak inside the range (Wien: 2.897771955e-3 m K / 5200 K ≈ 557 nm, CODATA 2018 b); no flux uncertainties.
     const rows = ['wavelength,flux'];
     for (let nm = 350; nm <= 1000; nm += 5) rows.push(`${nm},${(planckSpectralRadiance(nm * 1e-9, 5200) * 1e-13).toPrecision(8)}`);
-    await page.goto(`${app.baseUrl}/projects/1/upload`);
+    await page.goto(`${baseUrl()}/projects/1/upload`);
     await page.getByRole('radio', { name: /Spectrum of one target/ }).check();
     await page.getByLabel('Target', { exact: true }).selectOption({ label: 'GW 106' });
     await page.getByLabel('Measurement file').setInputFiles({ name: 'gw106-spectrum.csv', mimeType: 'text/csv', buffer: Buffer.from(rows.join('\n')) });
@@ -100,7 +82,7 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
 
   it('observer: a file with errors shows each at its cell and cannot be committed', async () => {
     const page = await pageAs('observer@demo.invalid');
-    await page.goto(`${app.baseUrl}/projects/1/upload`);
+    await page.goto(`${baseUrl()}/projects/1/upload`);
     await page.getByLabel('Measurement file').setInputFiles({
       name: 'bad-night.csv',
       mimeType: 'text/csv',
@@ -126,12 +108,12 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     await page.getByTestId('uploads-table').waitFor();
     expect(await page.getByRole('link', { name: 'Upload a file' }).count()).toBe(0);
     await screenshot(page, 'uploads-07-reader-history');
-    await page.goto(`${app.baseUrl}/projects/1/upload`);
+    await page.goto(`${baseUrl()}/projects/1/upload`);
     await page.getByRole('heading', { name: 'Your role does not allow this' }).waitFor();
     await screenshot(page, 'uploads-08-reader-refused');
 
     // The server sends a reader approved values only; with none yet, the sheet says values under review are not shown.
-    await page.goto(`${app.baseUrl}/projects/1`);
+    await page.goto(`${baseUrl()}/projects/1`);
     await page.getByRole('link', { name: 'GW 101', exact: true }).click();
     await page.getByTestId('derived-withheld').waitFor();
     expect(await page.getByTestId('derived-status').filter({ hasText: 'Proposed' }).count()).toBe(0);

@@ -3,6 +3,8 @@ import fs from 'node:fs';
 import net from 'node:net';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
+import { demoAccounts } from '../../../seeds/01-demo-scenario';
 
 const root = path.resolve(import.meta.dirname, '../../..');
 export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -110,4 +112,32 @@ export async function signInAs(page: Page, baseUrl: string, email: string, passw
   await page.getByLabel(/password/i).fill(password);
   await page.getByRole('button', { name: /sign in/i }).click();
   await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'));
+}
+
+/**
+ * One app and one browser for a describe block: started before its tests,
+ * stopped after. `pageAs` opens a fresh context signed in as a demo account.
+ */
+export function browserSuite() {
+  let app: RunningApp;
+  let browser: Browser;
+  beforeAll(async () => {
+    app = await startApp();
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await app?.stop();
+  });
+  return {
+    baseUrl: () => app.baseUrl,
+    newPage: async () => (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage(),
+    async pageAs(email: string): Promise<Page> {
+      const account = demoAccounts.find((a) => a.email === email);
+      if (!account) throw new Error(`no demo account ${email}`);
+      const page = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
+      await signInAs(page, app.baseUrl, email, account.password);
+      return page;
+    },
+  };
 }
