@@ -2,6 +2,8 @@ import type { Knex } from 'knex';
 import * as init from './20261201000000_init';
 import * as measurements from './20261201010000_measurements';
 import * as uploadSummary from './20261201020000_upload_summary';
+import * as review from './20261202000000_review';
+import * as trailAppendOnly from './20261202010000_trail_append_only';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -13,6 +15,8 @@ const migrations: Record<string, Knex.Migration> = {
   '20261201000000_init': init,
   '20261201010000_measurements': measurements,
   '20261201020000_upload_summary': uploadSummary,
+  '20261202000000_review': review,
+  '20261202010000_trail_append_only': trailAppendOnly,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

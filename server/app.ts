@@ -69,7 +69,7 @@ export function createApp(options: AppOptions): Express {
   api.use(...passportMiddleware(passport));
   api.use(bearerAuth(services.tokens));
   api.use(csrfProtection);
-  api.use(mountRoutes(db, apiRoutes(db, services, passport, loginLimiter)));
+  api.use(mountRoutes(db, apiRoutes(services, passport, loginLimiter)));
   api.use(notFoundHandler);
   api.use(errorHandler);
   app.use('/api', api);

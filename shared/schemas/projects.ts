@@ -32,6 +32,8 @@ export const createProjectBody = z.object({
   code: projectCode,
   description: z.string().trim().max(4000).default(''),
   site: siteSchema,
+  /** R_V = A_V / E(B−V) used to deredden this project's photometry (3.1 for the diffuse interstellar medium, Cardelli, Clayton & Mathis 1989). */
+  rV: z.number({ error: 'Enter R_V as a number, such as 3.1.' }).min(2, 'Use a value of at least 2.').max(6, 'Use a value of at most 6.').default(3.1),
   leadEmail: z.string().trim().toLowerCase().email('Enter the lead astronomer’s e-mail.').optional(),
 });
 export type CreateProjectBody = z.infer<typeof createProjectBody>;
@@ -45,8 +47,11 @@ export const projectSchema = z.object({
   name: z.string(),
   description: z.string(),
   site: siteSchema,
+  rV: z.number(),
   myRole: projectRole.nullable(),
   targetCount: z.number(),
+  /** Proposed values waiting for the lead; null for roles that do not see the queue. */
+  awaitingReview: z.number().nullable(),
   createdAt: z.string(),
 });
 export type Project = z.infer<typeof projectSchema>;

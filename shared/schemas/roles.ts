@@ -12,6 +12,11 @@ export const permissions = {
   upload: ['observer', 'lead'],
   comment: ['observer', 'lead'],
   review: ['lead'],
+  /** See what awaits review (observers read the queue, only the lead decides). */
+  readQueue: ['observer', 'lead'],
+  rederive: ['observer', 'lead'],
+  /** The trail carries proposed values, which readers are not shown. */
+  readTrail: ['observer', 'lead', 'pi'],
   manageMembers: ['lead'],
   manageSettings: ['lead'],
   manageSummary: ['lead', 'pi'],

@@ -5,9 +5,9 @@ import { AppError, conflict, notFound, validationFailed } from '../../lib/errors
 import { sunCaution } from '../../../shared/sun-proximity';
 import { readMeasurementRecords, suggestMapping, type ColumnMapping, type NormalisedRow, type RowError } from '../../../shared/schemas/measurement-file';
 import type { Caution, CreateUploadFields, Upload, UploadRowsPage } from '../../../shared/schemas/uploads';
-import { appendTrail } from '../trail/trail.repository';
+import { appendTrail, appendTrailMany } from '../trail/trail.repository';
 import { insertMeasurements, type NewMeasurement } from '../measurements/measurements.repository';
-import { rederiveTargets } from '../derivations/derivations.service';
+import { rederiveTargets } from '../derived-values/derived-values.service';
 import { findTarget } from '../targets/targets.repository';
 import { decodeText, parseCsv, type CsvTable } from './csv';
 import { readSpectrum } from './spectrum';
@@ -162,6 +162,23 @@ export function createUploadsService(db: Db, clock: Clock) {
     );
     created.push(...toCreate.map((r) => r.target));
     const ids = toCreate.length ? await projectTargets(trx, projectId) : known;
+    // Each target the file creates gets its own trail entry, as one made by hand would.
+    await appendTrailMany(
+      trx,
+      toCreate.map((r) => {
+        const targetId = ids.get(r.targetKey)!.id;
+        return {
+          projectId,
+          actorUserId,
+          action: 'target.created',
+          entityType: 'target',
+          entityId: targetId,
+          targetId,
+          after: { designation: r.target, ra: r.raDeg, dec: r.decDeg, uploadId, row: r.row },
+        };
+      }),
+      now,
+    );
     const measurements: NewMeasurement[] = state.rows.map((r) => {
       const target = ids.get(r.targetKey);
       if (!target) throw new AppError(409, 'conflict', `Target "${r.target}" (row ${r.row}) has no coordinates; preview the file again.`);
@@ -271,7 +288,15 @@ export function createUploadsService(db: Db, clock: Clock) {
       try {
         await analyse(projectId, uploadId, fields.kind, table, { mapping: fields.mapping, targetId: fields.targetId, wavelengthUnit: fields.wavelengthUnit, sha256 });
       } catch (e) {
-        await setUploadStatus(db, uploadId, 'discarded', null);
+        // A file that cannot be read is discarded at once; the trail says so beside its receipt.
+        await db.transaction(async (trx) => {
+          await setUploadStatus(trx, uploadId, 'discarded', null);
+          await appendTrail(
+            trx,
+            { projectId, actorUserId, action: 'upload.discarded', entityType: 'upload', entityId: uploadId, note: e instanceof AppError ? e.message.slice(0, 500) : '' },
+            clock.now(),
+          );
+        });
         throw e;
       }
       return get(projectId, uploadId);
@@ -340,7 +365,9 @@ export function createUploadsService(db: Db, clock: Clock) {
             action: 'upload.committed',
             entityType: 'upload',
             entityId: uploadId,
-            after: { measurementsAdded: imported.measurementsAdded, targetsCreated: imported.createdTargets.length, derivedProposed: proposed },
+            // A spectrum belongs to one target; a measurement file may touch many, each with its own entries.
+            targetId: upload.kind === 'spectrum' ? imported.targetIds[0] : null,
+            after: { filename: upload.filename, measurementsAdded: imported.measurementsAdded, targetsCreated: imported.createdTargets.length, derivedProposed: proposed },
           },
           now,
         );
@@ -355,7 +382,19 @@ export function createUploadsService(db: Db, clock: Clock) {
       if (upload.status !== 'previewed') throw conflict(`This upload is already ${upload.status}.`);
       await db.transaction(async (trx) => {
         await setUploadStatus(trx, uploadId, 'discarded', null);
-        await appendTrail(trx, { projectId, actorUserId, action: 'upload.discarded', entityType: 'upload', entityId: uploadId }, clock.now());
+        await appendTrail(
+          trx,
+          {
+            projectId,
+            actorUserId,
+            action: 'upload.discarded',
+            entityType: 'upload',
+            entityId: uploadId,
+            targetId: upload.spectrum?.targetId ?? null,
+            before: { filename: upload.filename, status: upload.status },
+          },
+          clock.now(),
+        );
       });
       return get(projectId, uploadId);
     },

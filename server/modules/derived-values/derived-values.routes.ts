@@ -1,0 +1,25 @@
+import type { Request, Response } from 'express';
+import { listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../../../shared/schemas/derived';
+import { targetParams } from '../../../shared/schemas/params';
+import { projectAccessOf } from '../../middleware/access';
+import { parsed } from '../../middleware/validate';
+import type { DerivedValuesService } from './derived-values.service';
+
+export function derivedValuesHandlers(derived: DerivedValuesService) {
+  return {
+    async list(_req: Request, res: Response) {
+      const { projectId, role } = projectAccessOf(res);
+      const { targetId } = parsed(res, 'params', targetParams);
+      res.json({ derived: await derived.list(projectId, targetId, parsed(res, 'query', listDerivedQuery).include, role) });
+    },
+    async queue(_req: Request, res: Response) {
+      res.json(await derived.queue(projectAccessOf(res).projectId, parsed(res, 'query', reviewQueueQuery)));
+    },
+    async review(req: Request, res: Response) {
+      res.json(await derived.review(projectAccessOf(res).projectId, req.user!.id, parsed(res, 'body', reviewBody)));
+    },
+    async rederive(req: Request, res: Response) {
+      res.json(await derived.rederive(projectAccessOf(res).projectId, req.user!.id, parsed(res, 'body', rederiveBody).targetId));
+    },
+  };
+}
