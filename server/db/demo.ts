@@ -1,6 +1,7 @@
 import type { Db } from './knex';
 import { seed as seedScenario } from '../../seeds/01-demo-scenario';
 import { seed as seedSeason } from '../../seeds/02-demo-season';
+import { seed as seedReview } from '../../seeds/03-demo-review';
 
 /** Seeds the demo scenario only into a database with no accounts, so a real installation is never touched. */
 export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
@@ -8,5 +9,6 @@ export async function seedDemoIfEmpty(db: Db): Promise<boolean> {
   if (Number(row?.n ?? 0) > 0) return false;
   await seedScenario(db);
   await seedSeason(db);
+  await seedReview(db);
   return true;
 }
