@@ -55,6 +55,10 @@ export const paths = {
       path: '/projects/:projectId/uploads/:uploadId',
       getHref: (projectId: Id, uploadId: Id) => `/projects/${projectId}/uploads/${uploadId}`,
     },
+    review: {
+      path: '/projects/:projectId/review',
+      getHref: (projectId: Id) => `/projects/${projectId}/review`,
+    },
   },
   account: {
     tokens: {

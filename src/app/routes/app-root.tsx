@@ -18,7 +18,13 @@ function useShellProject(projectIdParam: string | undefined) {
     throwOnError: false,
   });
   return projectId !== null && query.data
-    ? { id: query.data.id, code: query.data.code, name: query.data.name, canUpload: roleCan(query.data.myRole, 'upload') }
+    ? {
+        id: query.data.id,
+        code: query.data.code,
+        name: query.data.name,
+        canUpload: roleCan(query.data.myRole, 'upload'),
+        canReadQueue: roleCan(query.data.myRole, 'readQueue'),
+      }
     : null;
 }
 

@@ -11,6 +11,8 @@ export interface ShellProject {
   name: string;
   /** Observers and the lead astronomer see the Upload link; the server refuses everyone else anyway. */
   canUpload: boolean;
+  /** Observers and the lead astronomer see the Review link (permission readQueue). */
+  canReadQueue: boolean;
 }
 
 const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
@@ -49,7 +51,8 @@ export function AppShell({
   const onUploadsList = useMatch(paths.project.uploads.path) !== null;
   const onUploadPreview = useMatch(paths.project.uploadPreview.path) !== null;
   const onUploadsPage = onUploadsList || onUploadPreview;
-  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage;
+  const onReviewPage = useMatch(paths.project.review.path) !== null;
+  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage && !onReviewPage;
 
   return (
     <div className="flex min-h-screen flex-col bg-paper text-ink">
@@ -122,6 +125,11 @@ export function AppShell({
                 >
                   Uploads
                 </Link>
+                {project.canReadQueue ? (
+                  <NavLink to={paths.project.review.getHref(project.id)} className={navLinkClasses}>
+                    Review
+                  </NavLink>
+                ) : null}
                 <NavLink to={paths.project.members.getHref(project.id)} className={navLinkClasses}>
                   Members
                 </NavLink>

@@ -1,0 +1,165 @@
+import type { Ref } from 'react';
+import { Link } from 'react-router-dom';
+import type { InputProvenance, QueueItem } from '@shared/schemas/derived';
+import { readableMessage } from '@shared/physics/display';
+import { paths } from '@/config/paths';
+import { linkClasses } from '@/components/ui/button';
+import { formatDateTime } from '@/lib/format';
+import { DERIVED_STATUS_WORDS, derivedValueTexts, quantityName, quantityNameInText, sigmaChangeText } from '@/lib/derived-words';
+import { measurementKindName } from '@/lib/measurement-words';
+
+/** Input measurements grouped by what was measured and the upload they came from, rows listed together. */
+function groupProvenance(provenance: InputProvenance[]) {
+  const groups = new Map<string, { what: string; uploadId: number | null; filename: string | null; rows: number[] }>();
+  for (const p of provenance) {
+    const what = `${measurementKindName(p.kind)}${p.band ? ` ${p.band}` : ''}`;
+    const key = `${what}\u0000${p.uploadId ?? 'direct'}`;
+    const group = groups.get(key) ?? { what, uploadId: p.uploadId, filename: p.uploadFilename, rows: [] };
+    if (p.rowNumber !== null) group.rows.push(p.rowNumber);
+    groups.set(key, group);
+  }
+  return [...groups.values()].map((g) => ({ ...g, rows: [...g.rows].sort((a, b) => a - b) }));
+}
+
+function Inputs({ projectId, item }: { projectId: number; item: QueueItem }) {
+  const measured = groupProvenance(item.provenance);
+  const computedFrom = item.proposed.dependsOn;
+  if (measured.length === 0 && computedFrom.length === 0) return null;
+  return (
+    <div className="mt-1 text-xs text-ink-soft">
+      {measured.length > 0 ? (
+        <p>
+          <span className="font-semibold">Measured inputs:</span>{' '}
+          {measured.map((g, i) => (
+            <span key={`${g.what}-${g.uploadId}`}>
+              {i > 0 ? ' · ' : ''}
+              {g.what}:{' '}
+              {g.uploadId === null ? (
+                'entered directly'
+              ) : (
+                <>
+                  <Link className={linkClasses} to={paths.project.uploadPreview.getHref(projectId, g.uploadId)}>
+                    {g.filename ?? `upload ${g.uploadId}`}
+                  </Link>
+                  {g.rows.length === 0 ? ', spectrum fit' : ` ${g.rows.length === 1 ? 'row' : 'rows'} ${g.rows.join(', ')}`}
+                </>
+              )}
+            </span>
+          ))}
+        </p>
+      ) : null}
+      {computedFrom.length > 0 ? (
+        <p>
+          <span className="font-semibold">Computed from:</span> {computedFrom.map(quantityNameInText).join(', ')}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/**
+ * One proposed value as a ledger line: quantity, value ± σ, the approved
+ * value it would replace and how σ changes, the method in small type, what
+ * it came from (upload and row), its warnings in words and its revision.
+ * With `onToggle` it carries the checkbox the lead selects it with.
+ */
+export function QueueItemLine({
+  projectId,
+  item,
+  selected,
+  onToggle,
+  checkboxRef,
+}: {
+  projectId: number;
+  item: QueueItem;
+  selected?: boolean;
+  onToggle?: (checked: boolean) => void;
+  checkboxRef?: Ref<HTMLInputElement>;
+}) {
+  const { proposed, approved } = item;
+  const name = quantityName(proposed.quantity);
+  const checkboxId = `queue-item-${proposed.id}`;
+  const texts = derivedValueTexts(proposed);
+  return (
+    <li
+      className="flex gap-3 border-b border-rule/60 py-3"
+      data-testid="queue-item"
+      data-quantity={proposed.quantity}
+      data-value-id={proposed.id}
+    >
+      {onToggle ? (
+        <input
+          ref={checkboxRef}
+          id={checkboxId}
+          type="checkbox"
+          className="mt-1 size-4 shrink-0 accent-[var(--sl-brass)]"
+          checked={selected ?? false}
+          onChange={(e) => onToggle(e.target.checked)}
+        />
+      ) : null}
+      <div className="min-w-0 flex-1">
+        <p className="flex flex-wrap items-baseline justify-between gap-x-3">
+          {onToggle ? (
+            <label htmlFor={checkboxId} className="text-sm font-semibold text-ink">
+              {name}
+              <span className="sr-only">
+                {' '}
+                of {item.target.designation}, revision {proposed.revision}
+              </span>
+            </label>
+          ) : (
+            <span className="text-sm font-semibold text-ink">{name}</span>
+          )}
+          <span className="text-xs text-ink-soft">
+            revision {proposed.revision}
+            {proposed.proposedBy ? ` · proposed by ${proposed.proposedBy}` : ''} · {formatDateTime(proposed.createdAt)}
+          </span>
+        </p>
+        <div className="mt-1 grid gap-x-6 gap-y-1 sm:grid-cols-2">
+          <p className="flex flex-wrap items-baseline gap-x-2 text-base text-ink tabular-nums" data-testid="queue-proposed">
+            {texts.map((t, i) => (
+              <span key={i} className={i === 0 ? 'font-semibold' : 'text-sm text-ink-soft'}>
+                {i > 0 ? '= ' : ''}
+                {t}
+              </span>
+            ))}
+            <span className="rounded-sm border border-rule px-1.5 text-xs font-semibold tracking-wide text-ink uppercase">
+              {DERIVED_STATUS_WORDS[proposed.status]}
+            </span>
+          </p>
+          <p className="text-sm text-ink-soft tabular-nums" data-testid="queue-approved">
+            {approved ? (
+              <>
+                <span className="text-xs">Would replace </span>
+                <span className="text-ink">{derivedValueTexts(approved)[0]}</span>
+                <span className="text-xs"> approved, revision {approved.revision}</span>
+                <span className="block text-xs text-ink" data-testid="queue-sigma-change">
+                  {sigmaChangeText(approved, proposed)}
+                </span>
+              </>
+            ) : (
+              <span className="text-xs italic">None approved yet.</span>
+            )}
+          </p>
+        </div>
+        <p className="mt-1 text-xs text-ink-soft">{readableMessage(proposed.methodLabel)}</p>
+        <Inputs projectId={projectId} item={item} />
+        {item.upstream.length > 0 ? (
+          <p className="mt-1 text-xs text-ink">
+            <span className="font-semibold">Approving it also approves:</span>{' '}
+            {item.upstream.map((u) => `${quantityNameInText(u.quantity)} r${u.revision}`).join(', ')}
+          </p>
+        ) : null}
+        {proposed.warnings.length > 0 ? (
+          <ul className="mt-1 space-y-0.5 text-xs" data-testid="queue-warnings">
+            {proposed.warnings.map((w, i) => (
+              <li key={i} className="text-alert">
+                <span className="font-semibold">Warning:</span> {readableMessage(w.message)}
+              </li>
+            ))}
+          </ul>
+        ) : null}
+      </div>
+    </li>
+  );
+}
