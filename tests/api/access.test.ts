@@ -20,6 +20,7 @@ type Rule = 'public' | 'signed-in' | 'site-admin' | readonly ('lead' | 'observer
 const everyone = ['lead', 'observer', 'reader', 'pi'] as const;
 const editors = ['lead', 'observer'] as const;
 const leads = ['lead'] as const;
+const trailReaders = ['lead', 'observer', 'pi'] as const;
 
 interface Case {
   rule: Rule;
@@ -71,6 +72,9 @@ const cases: Record<string, Case> = {
   },
   'POST /projects/:projectId/uploads/:uploadId/commit': { rule: editors, body: () => ({}) },
   'POST /projects/:projectId/uploads/:uploadId/discard': { rule: editors },
+  'GET /activity': { rule: 'signed-in' },
+  'GET /projects/:projectId/trail': { rule: trailReaders, query: '?page=1&pageSize=10' },
+  'GET /projects/:projectId/trail/export': { rule: trailReaders, query: '?format=csv' },
 };
 
 const SAMPLE_FILE = 'target,quantity,value,unit\nT 1,parallax,12.5,mas\n';

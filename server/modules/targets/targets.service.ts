@@ -32,7 +32,7 @@ export function createTargetsService(db: Db, clock: Clock) {
           { projectId, designation: input.designation, designationKey: key, raDeg: input.ra, decDeg: input.dec, notes: input.notes, tags: input.tags },
           now,
         );
-        await appendTrail(trx, { projectId, actorUserId, action: 'target.created', entityType: 'target', entityId: newId, after: input }, now);
+        await appendTrail(trx, { projectId, actorUserId, action: 'target.created', entityType: 'target', entityId: newId, targetId: newId, after: input }, now);
         return newId;
       });
       return get(projectId, id);
@@ -56,7 +56,7 @@ export function createTargetsService(db: Db, clock: Clock) {
         }
         const now = clock.now();
         await updateTargetRow(trx, targetId, cols, now);
-        await appendTrail(trx, { projectId, actorUserId, action: 'target.updated', entityType: 'target', entityId: targetId, before, after: input }, now);
+        await appendTrail(trx, { projectId, actorUserId, action: 'target.updated', entityType: 'target', entityId: targetId, targetId, before, after: input }, now);
       });
       return get(projectId, targetId);
     },
@@ -65,7 +65,7 @@ export function createTargetsService(db: Db, clock: Clock) {
       const before = await get(projectId, targetId);
       await db.transaction(async (trx) => {
         await deleteTargetRow(trx, targetId);
-        await appendTrail(trx, { projectId, actorUserId, action: 'target.deleted', entityType: 'target', entityId: targetId, before }, clock.now());
+        await appendTrail(trx, { projectId, actorUserId, action: 'target.deleted', entityType: 'target', entityId: targetId, targetId, before }, clock.now());
       });
     },
   };

@@ -4,6 +4,7 @@ import type { Clock } from '../../lib/clock';
 import type { User } from '../../../shared/schemas/auth';
 import { notFound } from '../../lib/errors';
 import { findUserById } from '../users/users.repository';
+import { appendTrail } from '../trail/trail.repository';
 import { findTokenOwner, insertToken, listTokens, revokeToken, touchToken } from './tokens.repository';
 
 const PREFIX = 'slt_';
@@ -14,14 +15,28 @@ export function createTokensService(db: Db, clock: Clock) {
     /** Makes a token; the plain text is returned once and only its hash is kept. */
     async create(userId: number, name: string) {
       const token = PREFIX + randomBytes(32).toString('base64url');
-      const apiToken = await insertToken(db, { userId, name, hash: hashOf(token), prefix: token.slice(0, 10) }, clock.now());
+      const apiToken = await db.transaction(async (trx) => {
+        const now = clock.now();
+        const made = await insertToken(trx, { userId, name, hash: hashOf(token), prefix: token.slice(0, 10) }, now);
+        // A token acts with its owner's roles in every project, so its entry belongs to no one project.
+        await appendTrail(
+          trx,
+          { projectId: null, actorUserId: userId, action: 'token.created', entityType: 'token', entityId: made.id, after: { name: made.name, prefix: made.prefix } },
+          now,
+        );
+        return made;
+      });
       return { token, apiToken };
     },
 
     list: (userId: number) => listTokens(db, userId),
 
     async revoke(userId: number, tokenId: number): Promise<void> {
-      if ((await revokeToken(db, userId, tokenId, clock.now())) === 0) throw notFound('No such active token.');
+      await db.transaction(async (trx) => {
+        const now = clock.now();
+        if ((await revokeToken(trx, userId, tokenId, now)) === 0) throw notFound('No such active token.');
+        await appendTrail(trx, { projectId: null, actorUserId: userId, action: 'token.revoked', entityType: 'token', entityId: tokenId }, now);
+      });
     },
 
     /** The owner of a live token, or undefined. */
