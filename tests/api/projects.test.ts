@@ -66,4 +66,102 @@ describe('projects and members', () => {
     await lead.agent.delete(`/api/projects/${world.projectId}/members/${world.userIds.observer}`).set('X-CSRF-Token', lead.csrf).expect(204);
     await observer.agent.get(`/api/projects/${world.projectId}`).expect(404);
   });
+
+  it('keeps R_V, refuses one out of range by its field, and tells the queue’s size only to roles that read the queue', async () => {
+    world = await makeWorld();
+    const admin = await signIn(world.app, 'admin');
+    const created = await admin.agent
+      .post('/api/projects')
+      .set('X-CSRF-Token', admin.csrf)
+      .send({ name: 'Dusty', code: 'DUSTY', site, rV: 5.0, leadEmail: emails.lead })
+      .expect(201);
+    expect(created.body.project.rV).toBe(5);
+    const defaulted = await admin.agent.post('/api/projects').set('X-CSRF-Token', admin.csrf).send({ name: 'Plain', code: 'PLAIN', site }).expect(201);
+    expect(defaulted.body.project.rV).toBe(3.1);
+
+    const lead = await signIn(world.app, 'lead');
+    const url = `/api/projects/${world.projectId}`;
+    for (const rV of [1.5, 7, 'three']) {
+      const bad = await lead.agent.patch(url).set('X-CSRF-Token', lead.csrf).send({ rV });
+      expect(bad.status).toBe(400);
+      expect(bad.body.error.details[0].path).toBe('rV');
+    }
+    expect((await world.db('projects').where({ id: world.projectId }).first()).r_v).toBe(3.1);
+
+    // Two proposed revisions and one approved (invented rows: the count is what is checked).
+    for (const [revision, status] of [[1, 'approved'], [2, 'proposed'], [3, 'proposed']] as const) {
+      await world.db('derived_values').insert({
+        project_id: world.projectId,
+        target_id: world.targetId,
+        quantity: 'temperature',
+        value: 5000 + revision,
+        uncertainty: 50,
+        unit: 'K',
+        method: 'invented',
+        method_label: 'invented for the test',
+        inputs_json: '[]',
+        constants_json: '[]',
+        warnings_json: '[]',
+        revision,
+        status,
+        version: 1,
+        depends_on_json: '[]',
+        created_at: '2026-11-30T23:00:00.000Z',
+      });
+    }
+    for (const who of ['lead', 'observer', 'reader', 'pi'] as const) {
+      const s = await signIn(world.app, who);
+      const expected = who === 'lead' || who === 'observer' ? 2 : null;
+      expect((await s.agent.get(url).expect(200)).body.project.awaitingReview).toBe(expected);
+      const mine = (await s.agent.get('/api/projects').expect(200)).body.projects.find((p: { id: number }) => p.id === world.projectId);
+      expect(mine.awaitingReview).toBe(expected);
+    }
+  });
+
+  it('a changed R_V re-derives every target of the project in the same request, with the setting before and after in the trail', async () => {
+    world = await makeWorld();
+    const [second] = await world
+      .db('targets')
+      .insert({ project_id: world.projectId, designation: 'T 2', designation_key: 't2', ra_deg: 2, dec_deg: 2, notes: '', tags: '[]', created_at: '2026-11-30T22:00:00.000Z', updated_at: '2026-11-30T22:00:00.000Z' })
+      .returning('id');
+    // Invented measurements in SI: a continuum peak, a V magnitude and E(B−V), so the flux from V depends on R_V.
+    for (const targetId of [world.targetId, second.id]) {
+      for (const [kind, value, sigma, unit, band] of [
+        ['peak_wavelength', 5e-7, 5e-9, 'm', null],
+        ['magnitude', 8.2, 0.02, 'mag', 'V'],
+        ['extinction', 0.3, 0.02, 'mag', null],
+      ] as const) {
+        await world.db('measurements').insert({
+          project_id: world.projectId,
+          target_id: targetId,
+          kind,
+          value_si: value,
+          uncertainty_si: sigma,
+          unit_si: unit,
+          value_as_sent: value,
+          band,
+          created_at: '2026-11-30T23:00:00.000Z',
+        });
+      }
+    }
+    const lead = await signIn(world.app, 'lead');
+    const url = `/api/projects/${world.projectId}`;
+    const fluxes = () => world.db('derived_values').where({ quantity: 'bolometric_flux' }).orderBy(['target_id', 'revision']);
+
+    await lead.agent.patch(url).set('X-CSRF-Token', lead.csrf).send({ rV: 3.1, name: 'Renamed' }).expect(200);
+    expect(await fluxes()).toHaveLength(0);
+
+    const res = await lead.agent.patch(url).set('X-CSRF-Token', lead.csrf).send({ rV: 4.0 }).expect(200);
+    expect(res.body.project.rV).toBe(4);
+    const rows = await fluxes();
+    expect(rows.map((r: { target_id: number }) => r.target_id)).toEqual([world.targetId, second.id]);
+    for (const r of rows) expect(r.method_label).toContain('R_V = 4');
+
+    const entries = await world.db('trail_events').where({ action: 'project.updated' }).orderBy('id');
+    expect(entries).toHaveLength(2);
+    expect(JSON.parse(entries[0].before_json)).toMatchObject({ name: 'Test programme', rV: 3.1 });
+    expect(JSON.parse(entries[0].after_json)).toMatchObject({ name: 'Renamed', rV: 3.1 });
+    expect(JSON.parse(entries[1].before_json)).toMatchObject({ name: 'Renamed', rV: 3.1 });
+    expect(JSON.parse(entries[1].after_json)).toMatchObject({ name: 'Renamed', rV: 4, site: { name: 'Test Site' } });
+  });
 });

@@ -1,6 +1,6 @@
 import type { Db } from '../../db/knex';
 import type { Project, Site } from '../../../shared/schemas/projects';
-import type { ProjectRole } from '../../../shared/schemas/roles';
+import { roleCan, type ProjectRole } from '../../../shared/schemas/roles';
 import { toIso } from '../../lib/rows';
 
 interface ProjectRow {
@@ -13,8 +13,10 @@ interface ProjectRow {
   site_longitude_deg: number;
   site_elevation_m: number;
   site_time_zone: string;
+  r_v: number;
   created_at: unknown;
   target_count?: number | string;
+  awaiting_review?: number | string;
   my_role?: ProjectRole | null;
 }
 
@@ -31,8 +33,11 @@ function toProject(row: ProjectRow): Project {
       elevationM: row.site_elevation_m,
       timeZone: row.site_time_zone,
     },
+    rV: row.r_v,
     myRole: row.my_role ?? null,
     targetCount: Number(row.target_count ?? 0),
+    // The count is the queue's size, so only roles that read the queue are told it.
+    awaitingReview: roleCan(row.my_role, 'readQueue') ? Number(row.awaiting_review ?? 0) : null,
     createdAt: toIso(row.created_at),
   };
 }
@@ -56,6 +61,7 @@ function projectsWithRole(db: Db, userId: number) {
       'p.*',
       'm.role as my_role',
       db('targets as t').count('*').whereRaw('t.project_id = p.id').as('target_count'),
+      db('derived_values as d').count('*').whereRaw('d.project_id = p.id').andWhere('d.status', 'proposed').as('awaiting_review'),
     );
 }
 
@@ -80,7 +86,7 @@ export async function findProjectByCode(db: Db, code: string): Promise<{ id: num
 
 export async function insertProject(
   db: Db,
-  input: { code: string; name: string; description: string; site: Site },
+  input: { code: string; name: string; description: string; site: Site; rV: number },
   at: Date,
 ): Promise<number> {
   const [row] = await db('projects')
@@ -89,6 +95,7 @@ export async function insertProject(
       name: input.name,
       description: input.description,
       ...siteColumns(input.site),
+      r_v: input.rV,
       created_at: at.toISOString(),
       updated_at: at.toISOString(),
     })

@@ -8,7 +8,8 @@ import type { TargetsService } from './targets.service';
 export function targetsHandlers(targets: TargetsService) {
   return {
     async list(_req: Request, res: Response) {
-      res.json(await targets.list(projectAccessOf(res).projectId, parsed(res, 'query', listTargetsQuery)));
+      const { projectId, role } = projectAccessOf(res);
+      res.json(await targets.list(projectId, role, parsed(res, 'query', listTargetsQuery)));
     },
     async create(req: Request, res: Response) {
       const target = await targets.create(projectAccessOf(res).projectId, parsed(res, 'body', createTargetBody), req.user!.id);

@@ -1,15 +1,38 @@
 import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
-import type { CreateTargetBody, ListTargetsQuery, Target, UpdateTargetBody } from '../../../shared/schemas/targets';
+import type { CreateTargetBody, ListTargetsQuery, Target, TargetRow, UpdateTargetBody } from '../../../shared/schemas/targets';
+import type { ProjectRole } from '../../../shared/schemas/roles';
+import type { Page } from '../../../shared/schemas/common';
 import { designationKey } from '../../../shared/coordinates';
 import { conflict, notFound } from '../../lib/errors';
 import { appendTrail } from '../trail/trail.repository';
-import { deleteTargetRow, findTarget, findTargetIdByKey, insertTarget, listTargets, updateTargetRow } from './targets.repository';
+import { rederiveTargets } from '../derived-values/derived-values.service';
+import {
+  deleteTargetRow,
+  findTarget,
+  findTargetIdByKey,
+  insertTarget,
+  listTargets,
+  updateTargetRow,
+  type ValueView,
+} from './targets.repository';
 
 const duplicate = (designation: string) =>
   conflict(`A target called "${designation}" already exists in this project (designations ignore case and spaces).`, [
     { path: 'designation', message: 'Already used in this project.' },
   ]);
+
+/**
+ * What a role sees of the derived values in the target table. Readers see
+ * only what the lead astronomer signed (PRODUCT.md, roles); every other
+ * member also sees the newest proposal, marked "proposed", so the team
+ * works on fresh numbers while the sign-off is pending.
+ */
+export function valueViewFor(role: ProjectRole): ValueView {
+  return role === 'reader'
+    ? { shownStatuses: ['approved'], countProposals: false }
+    : { shownStatuses: ['proposed', 'approved'], countProposals: true };
+}
 
 export function createTargetsService(db: Db, clock: Clock) {
   async function get(projectId: number, targetId: number): Promise<Target> {
@@ -19,7 +42,16 @@ export function createTargetsService(db: Db, clock: Clock) {
   }
 
   return {
-    list: (projectId: number, query: ListTargetsQuery) => listTargets(db, projectId, query),
+    /**
+     * A page of targets with their adopted values as `role` may see them.
+     * A reader asking for targets awaiting review gets none: proposals are
+     * not shown to readers, so none of their rows awaits anything.
+     */
+    async list(projectId: number, role: ProjectRole, query: ListTargetsQuery): Promise<Page<TargetRow>> {
+      const view = valueViewFor(role);
+      if (query.awaiting && !view.countProposals) return { items: [], total: 0, page: query.page, pageSize: query.pageSize };
+      return listTargets(db, projectId, query, view);
+    },
     get,
 
     async create(projectId: number, input: CreateTargetBody, actorUserId: number): Promise<Target> {
@@ -29,15 +61,34 @@ export function createTargetsService(db: Db, clock: Clock) {
         const now = clock.now();
         const newId = await insertTarget(
           trx,
-          { projectId, designation: input.designation, designationKey: key, raDeg: input.ra, decDeg: input.dec, notes: input.notes, tags: input.tags },
+          {
+            projectId,
+            designation: input.designation,
+            designationKey: key,
+            raDeg: input.ra,
+            decDeg: input.dec,
+            notes: input.notes,
+            tags: input.tags,
+            assumedClass: input.assumedClass,
+          },
           now,
         );
-        await appendTrail(trx, { projectId, actorUserId, action: 'target.created', entityType: 'target', entityId: newId, targetId: newId, after: input }, now);
+        await appendTrail(
+          trx,
+          { projectId, actorUserId, action: 'target.created', entityType: 'target', entityId: newId, targetId: newId, after: input },
+          now,
+        );
         return newId;
       });
       return get(projectId, id);
     },
 
+    /**
+     * Edits a target. A changed assumed luminosity class changes what the
+     * spectroscopic-parallax route derives (luminosity for the class, the
+     * photometric distance), so the target is re-derived in the same
+     * transaction: the edit and its new proposals land together or not at all.
+     */
     async update(projectId: number, targetId: number, input: UpdateTargetBody, actorUserId: number): Promise<Target> {
       const before = await get(projectId, targetId);
       const cols: Record<string, unknown> = {};
@@ -49,6 +100,8 @@ export function createTargetsService(db: Db, clock: Clock) {
       if (input.dec !== undefined) cols.dec_deg = input.dec;
       if (input.notes !== undefined) cols.notes = input.notes;
       if (input.tags !== undefined) cols.tags = JSON.stringify(input.tags);
+      if (input.assumedClass !== undefined) cols.assumed_class = input.assumedClass;
+      const classChanged = input.assumedClass !== undefined && input.assumedClass !== before.assumedClass;
       await db.transaction(async (trx) => {
         if (cols.designation_key) {
           const clash = await findTargetIdByKey(trx, projectId, cols.designation_key as string);
@@ -56,7 +109,12 @@ export function createTargetsService(db: Db, clock: Clock) {
         }
         const now = clock.now();
         await updateTargetRow(trx, targetId, cols, now);
-        await appendTrail(trx, { projectId, actorUserId, action: 'target.updated', entityType: 'target', entityId: targetId, targetId, before, after: input }, now);
+        await appendTrail(
+          trx,
+          { projectId, actorUserId, action: 'target.updated', entityType: 'target', entityId: targetId, targetId, before, after: input },
+          now,
+        );
+        if (classChanged) await rederiveTargets(trx, projectId, [targetId], actorUserId, now);
       });
       return get(projectId, targetId);
     },
@@ -65,7 +123,11 @@ export function createTargetsService(db: Db, clock: Clock) {
       const before = await get(projectId, targetId);
       await db.transaction(async (trx) => {
         await deleteTargetRow(trx, targetId);
-        await appendTrail(trx, { projectId, actorUserId, action: 'target.deleted', entityType: 'target', entityId: targetId, targetId, before }, clock.now());
+        await appendTrail(
+          trx,
+          { projectId, actorUserId, action: 'target.deleted', entityType: 'target', entityId: targetId, targetId, before },
+          clock.now(),
+        );
       });
     },
   };
