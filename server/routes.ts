@@ -17,9 +17,10 @@ import { targetsHandlers } from './modules/targets/targets.routes';
 import { tokenParams, tokensHandlers } from './modules/tokens/tokens.routes';
 import { createTokenBody } from '../shared/schemas/tokens';
 import { commitBody, createUploadFields, remapBody, uploadParams, uploadRowsQuery } from '../shared/schemas/uploads';
-import { listDerivedQuery } from '../shared/schemas/derived';
+import { listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../shared/schemas/derived';
 import { uploadsHandlers } from './modules/uploads/uploads.routes';
-import { derivationsHandlers } from './modules/derivations/derivations.routes';
+import { derivedValuesHandlers } from './modules/derived-values/derived-values.routes';
+import { measurementsHandlers } from './modules/measurements/measurements.routes';
 import { uploadFile } from './middleware/upload-file';
 import { activityQuery, exportTrailQuery, listTrailQuery } from '../shared/schemas/trail';
 import { trailHandlers } from './modules/trail/trail.routes';
@@ -45,7 +46,7 @@ export interface RouteDef {
  * test walks this list, so a new route cannot be added without saying who
  * may call it.
  */
-export function apiRoutes(db: Db, services: Services, passport: StarledgerPassport, loginLimiter: RequestHandler): RouteDef[] {
+export function apiRoutes(services: Services, passport: StarledgerPassport, loginLimiter: RequestHandler): RouteDef[] {
   const auth = authHandlers(passport, services.users);
   const users = usersHandlers(services.users);
   const projects = projectsHandlers(services.projects);
@@ -53,7 +54,8 @@ export function apiRoutes(db: Db, services: Services, passport: StarledgerPasspo
   const targets = targetsHandlers(services.targets);
   const tokens = tokensHandlers(services.tokens);
   const uploads = uploadsHandlers(services.uploads);
-  const derivations = derivationsHandlers(db);
+  const derived = derivedValuesHandlers(services.derivedValues);
+  const measurements = measurementsHandlers(services.measurements);
   const trail = trailHandlers(services.trail);
   const P = '/projects/:projectId';
 
@@ -90,9 +92,14 @@ export function apiRoutes(db: Db, services: Services, passport: StarledgerPasspo
     { method: 'get', path: `${P}/targets/:targetId`, access: inProject('read'), params: targetParams, handler: targets.get },
     { method: 'patch', path: `${P}/targets/:targetId`, access: inProject('editTargets'), params: targetParams, body: updateTargetBody, handler: targets.update },
     { method: 'delete', path: `${P}/targets/:targetId`, access: inProject('editTargets'), params: targetParams, handler: targets.remove },
-    { method: 'get', path: `${P}/targets/:targetId/derived`, access: inProject('read'), params: targetParams, query: listDerivedQuery, handler: derivations.derived },
-    { method: 'get', path: `${P}/targets/:targetId/measurements`, access: inProject('read'), params: targetParams, handler: derivations.measurements },
-    { method: 'get', path: `${P}/targets/:targetId/spectra`, access: inProject('read'), params: targetParams, handler: derivations.spectra },
+    { method: 'get', path: `${P}/targets/:targetId/derived`, access: inProject('read'), params: targetParams, query: listDerivedQuery, handler: derived.list },
+    { method: 'get', path: `${P}/targets/:targetId/measurements`, access: inProject('read'), params: targetParams, handler: measurements.list },
+    { method: 'get', path: `${P}/targets/:targetId/spectra`, access: inProject('read'), params: targetParams, handler: measurements.spectra },
+
+    // Derived values: the review queue, the lead's decisions, re-runs
+    { method: 'get', path: `${P}/review-queue`, access: inProject('readQueue'), params: projectParams, query: reviewQueueQuery, handler: derived.queue },
+    { method: 'post', path: `${P}/review`, access: inProject('review'), params: projectParams, body: reviewBody, handler: derived.review },
+    { method: 'post', path: `${P}/rederive`, access: inProject('rederive'), params: projectParams, body: rederiveBody, handler: derived.rederive },
 
     // Uploads
     { method: 'get', path: `${P}/uploads`, access: inProject('read'), params: projectParams, handler: uploads.list },

@@ -6,6 +6,8 @@ import { createMembersService } from './modules/members/members.service';
 import { createTargetsService } from './modules/targets/targets.service';
 import { createTokensService } from './modules/tokens/tokens.service';
 import { createUploadsService } from './modules/uploads/uploads.service';
+import { createDerivedValuesService } from './modules/derived-values/derived-values.service';
+import { createMeasurementsService } from './modules/measurements/measurements.service';
 import { createTrailService } from './modules/trail/trail.service';
 
 /** Services are built once per app, with the app's database and clock. */
@@ -17,6 +19,8 @@ export function createServices(db: Db, clock: Clock) {
     targets: createTargetsService(db, clock),
     tokens: createTokensService(db, clock),
     uploads: createUploadsService(db, clock),
+    derivedValues: createDerivedValuesService(db, clock),
+    measurements: createMeasurementsService(db),
     trail: createTrailService(db),
   };
 }

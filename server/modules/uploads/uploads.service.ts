@@ -7,7 +7,7 @@ import { readMeasurementRecords, suggestMapping, type ColumnMapping, type Normal
 import type { Caution, CreateUploadFields, Upload, UploadRowsPage } from '../../../shared/schemas/uploads';
 import { appendTrail, appendTrailMany } from '../trail/trail.repository';
 import { insertMeasurements, type NewMeasurement } from '../measurements/measurements.repository';
-import { rederiveTargets } from '../derivations/derivations.service';
+import { rederiveTargets } from '../derived-values/derived-values.service';
 import { findTarget } from '../targets/targets.repository';
 import { decodeText, parseCsv, type CsvTable } from './csv';
 import { readSpectrum } from './spectrum';
