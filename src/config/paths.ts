@@ -57,7 +57,8 @@ export const paths = {
     },
     review: {
       path: '/projects/:projectId/review',
-      getHref: (projectId: Id) => `/projects/${projectId}/review`,
+      /** With a target, the queue opens filtered to that target's values. */
+      getHref: (projectId: Id, targetId?: Id) => `/projects/${projectId}/review${targetId === undefined ? '' : `?target=${targetId}`}`,
     },
   },
   account: {

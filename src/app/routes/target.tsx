@@ -20,6 +20,7 @@ import { useSpectra } from '@/features/targets/api/get-spectra';
 import { DerivedValues, ModelCaution } from '@/features/targets/components/derived-values';
 import { TargetMeasurements } from '@/features/targets/components/target-measurements';
 import { TargetSpectra } from '@/features/targets/components/target-spectra';
+import { RederiveButton } from '@/features/review/components/rederive-button';
 import type { ProjectPageNotice } from './project';
 
 /** The target's derived values, spectra and the measurements behind them; they load after the sheet's head so it shows at once. */
@@ -28,16 +29,23 @@ function TargetReadings({
   targetId,
   designation,
   canUpload,
+  canRederive,
+  canReadQueue,
   isReader,
 }: {
   projectId: number;
   targetId: number;
   designation: string;
   canUpload: boolean;
+  canRederive: boolean;
+  /** Observers and the lead are pointed to this target's values in the review queue. */
+  canReadQueue: boolean;
   /** Readers (students, guests) are sent approved values only, so an empty list may still hide values under review. */
   isReader: boolean;
 }) {
-  const derived = useDerived(projectId, targetId);
+  // Every revision: the sheet shows the approved value and any newer proposal at a glance, and each quantity's review history.
+  const derived = useDerived(projectId, targetId, 'all');
+  const awaiting = derived.data?.filter((d) => d.status === 'proposed').length ?? 0;
   const spectra = useSpectra(projectId, targetId);
   const measurements = useMeasurements(projectId, targetId);
   const uploadLink = canUpload ? (
@@ -48,13 +56,25 @@ function TargetReadings({
 
   return (
     <>
-      <Section title="Derived values" className="mt-10">
+      <Section
+        title="Derived values"
+        className="mt-10"
+        actions={canRederive ? <RederiveButton projectId={projectId} targetId={targetId} className="text-right" /> : null}
+      >
         <ModelCaution className="mb-4" />
+        {canReadQueue && awaiting > 0 ? (
+          <p className="mb-4 text-sm text-ink" data-testid="awaiting-review">
+            {awaiting === 1 ? '1 value awaits' : `${awaiting} values await`} the lead astronomer’s review.{' '}
+            <Link className={linkClasses} to={paths.project.review.getHref(projectId, targetId)}>
+              Open them in the review queue
+            </Link>
+          </p>
+        ) : null}
         {derived.isPending || measurements.isPending ? <StatusLine>Loading the derived values…</StatusLine> : null}
         {derived.isError ? <QueryError what="The derived values" error={derived.error} onRetry={() => void derived.refetch()} /> : null}
         {derived.data && measurements.data ? (
           derived.data.length > 0 ? (
-            <DerivedValues derived={derived.data} measurements={measurements.data} />
+            <DerivedValues revisions={derived.data} measurements={measurements.data} />
           ) : isReader ? (
             <EmptyState title="No approved values yet">
               <p data-testid="derived-withheld">
@@ -143,6 +163,8 @@ function TargetPage({ projectId, targetId }: { projectId: number; targetId: numb
         targetId={targetId}
         designation={data.designation}
         canUpload={roleCan(project.data.myRole, 'upload')}
+        canRederive={roleCan(project.data.myRole, 'rederive')}
+        canReadQueue={roleCan(project.data.myRole, 'readQueue')}
         isReader={project.data.myRole === 'reader'}
       />
     </>

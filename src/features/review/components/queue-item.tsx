@@ -8,17 +8,22 @@ import { formatDateTime } from '@/lib/format';
 import { DERIVED_STATUS_WORDS, derivedValueTexts, quantityName, quantityNameInText, sigmaChangeText } from '@/lib/derived-words';
 import { measurementKindName } from '@/lib/measurement-words';
 
-/** Input measurements grouped by what was measured and the upload they came from, rows listed together. */
+/** Input measurements grouped by what was measured, then by the upload they came from, rows listed together. */
 function groupProvenance(provenance: InputProvenance[]) {
-  const groups = new Map<string, { what: string; uploadId: number | null; filename: string | null; rows: number[] }>();
+  const groups = new Map<string, Map<string, { uploadId: number | null; filename: string | null; rows: number[] }>>();
   for (const p of provenance) {
     const what = `${measurementKindName(p.kind)}${p.band ? ` ${p.band}` : ''}`;
-    const key = `${what}\u0000${p.uploadId ?? 'direct'}`;
-    const group = groups.get(key) ?? { what, uploadId: p.uploadId, filename: p.uploadFilename, rows: [] };
-    if (p.rowNumber !== null) group.rows.push(p.rowNumber);
-    groups.set(key, group);
+    const sources = groups.get(what) ?? new Map<string, { uploadId: number | null; filename: string | null; rows: number[] }>();
+    const key = String(p.uploadId ?? 'direct');
+    const source = sources.get(key) ?? { uploadId: p.uploadId, filename: p.uploadFilename, rows: [] };
+    if (p.rowNumber !== null) source.rows.push(p.rowNumber);
+    sources.set(key, source);
+    groups.set(what, sources);
   }
-  return [...groups.values()].map((g) => ({ ...g, rows: [...g.rows].sort((a, b) => a - b) }));
+  return [...groups].map(([what, sources]) => ({
+    what,
+    sources: [...sources.values()].map((s) => ({ ...s, rows: [...s.rows].sort((a, b) => a - b) })),
+  }));
 }
 
 function Inputs({ projectId, item }: { projectId: number; item: QueueItem }) {
@@ -31,19 +36,24 @@ function Inputs({ projectId, item }: { projectId: number; item: QueueItem }) {
         <p>
           <span className="font-semibold">Measured inputs:</span>{' '}
           {measured.map((g, i) => (
-            <span key={`${g.what}-${g.uploadId}`}>
+            <span key={g.what}>
               {i > 0 ? ' · ' : ''}
               {g.what}:{' '}
-              {g.uploadId === null ? (
-                'entered directly'
-              ) : (
-                <>
-                  <Link className={linkClasses} to={paths.project.uploadPreview.getHref(projectId, g.uploadId)}>
-                    {g.filename ?? `upload ${g.uploadId}`}
-                  </Link>
-                  {g.rows.length === 0 ? ', spectrum fit' : ` ${g.rows.length === 1 ? 'row' : 'rows'} ${g.rows.join(', ')}`}
-                </>
-              )}
+              {g.sources.map((source, j) => (
+                <span key={source.uploadId ?? 'direct'}>
+                  {j > 0 ? '; ' : ''}
+                  {source.uploadId === null ? (
+                    'entered directly'
+                  ) : (
+                    <>
+                      <Link className={linkClasses} to={paths.project.uploadPreview.getHref(projectId, source.uploadId)}>
+                        {source.filename ?? `upload ${source.uploadId}`}
+                      </Link>
+                      {source.rows.length === 0 ? ', spectrum fit' : ` ${source.rows.length === 1 ? 'row' : 'rows'} ${source.rows.join(', ')}`}
+                    </>
+                  )}
+                </span>
+              ))}
             </span>
           ))}
         </p>

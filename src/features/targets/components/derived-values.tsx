@@ -1,29 +1,11 @@
-import type { DerivedStatus, DerivedValue, Measurement } from '@shared/schemas/derived';
-import { formatResult, QUANTITY_NAMES, readableMessage } from '@shared/physics/display';
-import type { QuantityId } from '@shared/physics/quantities';
+import type { DerivedValue, Measurement } from '@shared/schemas/derived';
+import { QUANTITY_NAMES, readableMessage } from '@shared/physics/display';
 import { Alert } from '@/components/ui/alert';
+import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
+import { DERIVED_STATUS_WORDS, derivedValueTexts, isKnownQuantity, quantityName, sigmaChangeText } from '@/lib/derived-words';
 import { formatDateTime } from '@/lib/format';
 import { measurementKindName } from '@/lib/measurement-words';
 import { QUANTITY_SECTIONS } from '@/lib/quantity-sections';
-
-export const DERIVED_STATUS_WORDS: Readonly<Record<DerivedStatus, string>> = {
-  proposed: 'Proposed',
-  approved: 'Approved',
-  rejected: 'Rejected',
-  superseded: 'Superseded',
-};
-
-const isKnownQuantity = (q: string): q is QuantityId => Object.prototype.hasOwnProperty.call(QUANTITY_NAMES, q);
-
-/** The value in astronomers' units, or the stored SI figures when the quantity is not one the display knows. */
-function valueTexts(d: DerivedValue): string[] {
-  if (!isKnownQuantity(d.quantity) || !Number.isFinite(d.value) || !Number.isFinite(d.uncertainty) || d.uncertainty < 0) {
-    return [`${d.value} ± ${d.uncertainty} ${d.unit}`];
-  }
-  const line = formatResult({ quantity: d.quantity, value: d.value, uncertainty: d.uncertainty, label: d.label ?? undefined });
-  const texts = line.values.map((v) => v.text);
-  return d.quantity === 'luminosity_class' && line.label ? [`${line.label}: ${texts[0]}`] : texts;
-}
 
 /**
  * What a value was computed from, in words and compactly: measurements
@@ -63,44 +45,149 @@ function inputWords(inputs: DerivedValue['inputs'], measurements: ReadonlyMap<nu
   return [...described, ...others];
 }
 
-function DerivedLine({ value, measurements }: { value: DerivedValue; measurements: ReadonlyMap<number, Measurement> }) {
-  const texts = valueTexts(value);
-  const name = isKnownQuantity(value.quantity) ? QUANTITY_NAMES[value.quantity] : value.quantity;
+/** Who decided and when, with the note, in one line ("Approved by T. Ferrand, 2026-11-30 21:14 UTC: first sign-off"). */
+function reviewWords(value: DerivedValue): string | null {
+  if (!value.reviewedAt && !value.reviewNote) return null;
+  const verb = value.status === 'rejected' ? 'Rejected' : value.status === 'superseded' ? 'Reviewed' : 'Approved';
+  const who = value.reviewer ? ` by ${value.reviewer}` : '';
+  const when = value.reviewedAt ? `, ${formatDateTime(value.reviewedAt)}` : '';
+  return `${verb}${who}${when}${value.reviewNote ? `: ${value.reviewNote}` : ', without a note'}`;
+}
+
+/** One revision as a ledger line: value ± σ, status word, method in small type, inputs, review and warnings. */
+function ValueLine({
+  value,
+  measurements,
+  replaces,
+}: {
+  value: DerivedValue;
+  measurements: ReadonlyMap<number, Measurement>;
+  /** The approved revision a newer proposal would replace, for the change in σ. */
+  replaces?: DerivedValue;
+}) {
+  const texts = derivedValueTexts(value);
   const inputs = inputWords(value.inputs, measurements);
+  const review = reviewWords(value);
   return (
-    <div className="border-b border-rule/60 py-2 break-inside-avoid" data-quantity={value.quantity} data-status={value.status}>
+    <div className="min-w-0" data-quantity={value.quantity} data-status={value.status} data-testid="derived-line">
+      <p className="flex flex-wrap items-baseline gap-x-3 text-base text-ink tabular-nums">
+        {texts.map((t, i) => (
+          <span key={i} className={i === 0 ? 'font-semibold' : 'text-ink-soft'}>
+            {i > 0 ? '= ' : ''}
+            {t}
+          </span>
+        ))}
+        <span className="rounded-sm border border-rule px-1.5 text-xs font-semibold tracking-wide text-ink uppercase" data-testid="derived-status">
+          {DERIVED_STATUS_WORDS[value.status]}
+        </span>
+      </p>
+      {replaces ? <p className="text-xs text-ink">{sigmaChangeText(replaces, value)}</p> : null}
+      <p className="mt-0.5 text-xs text-ink-soft">
+        {readableMessage(value.methodLabel)} · revision {value.revision} · {formatDateTime(value.createdAt)}
+      </p>
+      {inputs.length > 0 ? <p className="mt-0.5 text-xs text-ink-soft">From {inputs.join(' · ')}</p> : null}
+      {review ? <p className="mt-0.5 text-xs text-ink">{review}</p> : null}
+      {value.warnings.length > 0 ? (
+        <ul className="mt-0.5 space-y-0.5 text-xs">
+          {value.warnings.map((w, i) => (
+            <li key={i} className="text-alert">
+              <span className="font-semibold">Warning:</span> {readableMessage(w.message)}
+            </li>
+          ))}
+        </ul>
+      ) : null}
+    </div>
+  );
+}
+
+/** Every revision of one quantity, newest first, behind a disclosure so the sheet stays short. */
+function ReviewHistory({ name, revisions }: { name: string; revisions: readonly DerivedValue[] }) {
+  return (
+    <details className="mt-2 text-sm" data-testid="review-history" data-print="hide">
+      <summary className="cursor-pointer text-brass underline-offset-4 hover:underline">
+        Review history<span className="sr-only"> of {name}</span> ({revisions.length === 1 ? '1 revision' : `${revisions.length} revisions`})
+      </summary>
+      <LedgerTable aria-label={`Review history of ${name}`} className="mt-2">
+        <LedgerHead>
+          <tr>
+            <LedgerHeaderCell numeric>Revision</LedgerHeaderCell>
+            <LedgerHeaderCell>Value</LedgerHeaderCell>
+            <LedgerHeaderCell>Status</LedgerHeaderCell>
+            <LedgerHeaderCell>Proposed by</LedgerHeaderCell>
+            <LedgerHeaderCell>Reviewer</LedgerHeaderCell>
+            <LedgerHeaderCell>When (UTC)</LedgerHeaderCell>
+            <LedgerHeaderCell>Note</LedgerHeaderCell>
+          </tr>
+        </LedgerHead>
+        <LedgerBody>
+          {revisions.map((r) => (
+            <LedgerRow key={r.id} data-status={r.status}>
+              <LedgerCell numeric>{r.revision}</LedgerCell>
+              <LedgerCell className="tabular-nums whitespace-nowrap">{derivedValueTexts(r)[0]}</LedgerCell>
+              <LedgerCell>{DERIVED_STATUS_WORDS[r.status]}</LedgerCell>
+              <LedgerCell>{r.proposedBy ?? 'derivation engine'}</LedgerCell>
+              <LedgerCell>{r.reviewer ?? '—'}</LedgerCell>
+              <LedgerCell className="text-xs whitespace-nowrap">
+                <span className="block">proposed {formatDateTime(r.createdAt).replace(' UTC', '')}</span>
+                {r.reviewedAt ? <span className="block">reviewed {formatDateTime(r.reviewedAt).replace(' UTC', '')}</span> : null}
+              </LedgerCell>
+              <LedgerCell className="max-w-xs whitespace-pre-wrap">{r.reviewNote || '—'}</LedgerCell>
+            </LedgerRow>
+          ))}
+        </LedgerBody>
+      </LedgerTable>
+    </details>
+  );
+}
+
+/** One quantity's revisions (newest first), the approved one in force, and a newer proposal or rejection if there is one. */
+interface QuantityState {
+  quantity: string;
+  approved: DerivedValue | null;
+  newer: DerivedValue | null;
+  revisions: DerivedValue[];
+}
+
+function quantityStates(revisions: readonly DerivedValue[]): Map<string, QuantityState> {
+  const states = new Map<string, QuantityState>();
+  for (const r of revisions) {
+    const state = states.get(r.quantity) ?? { quantity: r.quantity, approved: null, newer: null, revisions: [] };
+    state.revisions.push(r);
+    states.set(r.quantity, state);
+  }
+  for (const state of states.values()) {
+    state.revisions.sort((a, b) => b.revision - a.revision);
+    state.approved = state.revisions.find((r) => r.status === 'approved') ?? null;
+    const after = state.revisions.filter((r) => r.revision > (state.approved?.revision ?? 0));
+    state.newer = after.find((r) => r.status === 'proposed') ?? after.find((r) => r.status === 'rejected') ?? null;
+  }
+  return states;
+}
+
+/**
+ * The state of one quantity at a glance: the approved revision in force
+ * and, when a newer proposal (or a newer rejection) exists, that revision
+ * beside it; then its review history.
+ */
+function QuantityLine({ state, measurements }: { state: QuantityState; measurements: ReadonlyMap<number, Measurement> }) {
+  const name = quantityName(state.quantity);
+  const { approved, newer } = state;
+  return (
+    <div className="border-b border-rule/60 py-2 break-inside-avoid" data-testid="derived-quantity" data-quantity-state={state.quantity}>
       <dt className="text-sm font-semibold text-ink">{name}</dt>
       <dd>
-        <p className="flex flex-wrap items-baseline gap-x-3 text-base text-ink tabular-nums">
-          {texts.map((t, i) => (
-            <span key={i} className={i === 0 ? 'font-semibold' : 'text-ink-soft'}>
-              {i > 0 ? '= ' : ''}
-              {t}
-            </span>
-          ))}
-          <span className="rounded-sm border border-rule px-1.5 text-xs font-semibold tracking-wide text-ink uppercase" data-testid="derived-status">
-            {DERIVED_STATUS_WORDS[value.status]}
-          </span>
-        </p>
-        <p className="mt-0.5 text-xs text-ink-soft">
-          {readableMessage(value.methodLabel)} · revision {value.revision} · {formatDateTime(value.createdAt)}
-        </p>
-        {inputs.length > 0 ? <p className="mt-0.5 text-xs text-ink-soft">From {inputs.join(' · ')}</p> : null}
-        {value.reviewNote || value.reviewedAt ? (
-          <p className="mt-0.5 text-xs text-ink">
-            <span className="font-semibold">Review{value.reviewedAt ? `, ${formatDateTime(value.reviewedAt)}` : ''}:</span>{' '}
-            {value.reviewNote || 'no note'}
-          </p>
-        ) : null}
-        {value.warnings.length > 0 ? (
-          <ul className="mt-0.5 space-y-0.5 text-xs">
-            {value.warnings.map((w, i) => (
-              <li key={i} className="text-alert">
-                <span className="font-semibold">Warning:</span> {readableMessage(w.message)}
-              </li>
-            ))}
-          </ul>
-        ) : null}
+        <div className="grid gap-x-6 gap-y-2 sm:grid-cols-2">
+          {approved ? <ValueLine value={approved} measurements={measurements} /> : null}
+          {newer ? (
+            <div className={approved ? 'border-l-2 border-rule pl-3' : undefined}>
+              {approved ? <p className="text-xs font-semibold text-ink-soft">Newer revision</p> : null}
+              <ValueLine value={newer} measurements={measurements} replaces={approved && newer.status === 'proposed' ? approved : undefined} />
+              {approved ? null : <p className="text-xs text-ink-soft italic">None approved yet.</p>}
+            </div>
+          ) : null}
+          {!approved && !newer && state.revisions[0] ? <ValueLine value={state.revisions[0]} measurements={measurements} /> : null}
+        </div>
+        <ReviewHistory name={name} revisions={state.revisions} />
       </dd>
     </div>
   );
@@ -118,16 +205,20 @@ export function ModelCaution({ className }: { className?: string }) {
 
 /**
  * A target's derived values as ledger lines, grouped as an astronomer reads
- * them: value ± σ in astronomers' units, the method in small type, the
- * revision, the status as a word, then what it came from and its warnings.
+ * them: per quantity the approved value in force and any newer proposal
+ * beside it, value ± σ in astronomers' units, the method in small type, the
+ * revision, the status as a word, then what it came from, its warnings and
+ * its review history. `revisions` is every revision the caller may see
+ * (readers are sent approved ones only).
  */
-export function DerivedValues({ derived, measurements }: { derived: DerivedValue[]; measurements: Measurement[] }) {
+export function DerivedValues({ revisions, measurements }: { revisions: DerivedValue[]; measurements: Measurement[] }) {
   const byId = new Map(measurements.map((m) => [m.id, m]));
+  const states = quantityStates(revisions);
   const placed = new Set(QUANTITY_SECTIONS.flatMap((s) => s.quantities as readonly string[]));
   const sections = [
-    ...QUANTITY_SECTIONS.map((s) => ({ ...s, values: s.quantities.flatMap((q) => derived.filter((d) => d.quantity === q)) })),
-    { title: 'Other quantities', quantities: [], note: undefined, values: derived.filter((d) => !placed.has(d.quantity)) },
-  ].filter((s) => s.values.length > 0);
+    ...QUANTITY_SECTIONS.map((s) => ({ ...s, states: s.quantities.flatMap((q) => states.get(q) ?? []) })),
+    { title: 'Other quantities', quantities: [], note: undefined, states: [...states.values()].filter((st) => !placed.has(st.quantity)) },
+  ].filter((s) => s.states.length > 0);
 
   return (
     <div className="space-y-6">
@@ -136,8 +227,8 @@ export function DerivedValues({ derived, measurements }: { derived: DerivedValue
           <h3 className="text-lg font-semibold text-ink">{s.title}</h3>
           {s.note ? <p className="text-xs text-ink-soft">{s.note}</p> : null}
           <dl>
-            {s.values.map((v) => (
-              <DerivedLine key={v.id} value={v} measurements={byId} />
+            {s.states.map((st) => (
+              <QuantityLine key={st.quantity} state={st} measurements={byId} />
             ))}
           </dl>
         </section>
