@@ -29,12 +29,15 @@ export const trailFilters = z.object({
   from: isoDate.optional(),
   to: isoDate.optional(),
 });
+export type TrailFilters = z.output<typeof trailFilters>;
 export const listTrailQuery = paginationQuery.extend(trailFilters.shape);
 export type ListTrailQuery = z.output<typeof listTrailQuery>;
 export const exportTrailQuery = trailFilters.extend({ format: z.enum(['csv', 'json']).default('csv') });
 
 export const trailPageSchema = z.object({ items: z.array(trailEntrySchema), total: z.number(), page: z.number(), pageSize: z.number() });
+export type TrailPage = z.infer<typeof trailPageSchema>;
 
 /** Recent activity across the caller's projects (home page). */
 export const activityQuery = z.object({ limit: z.coerce.number().int().min(1).max(50).default(15) });
 export const activityEntrySchema = trailEntrySchema.extend({ projectCode: z.string().nullable() });
+export type ActivityEntry = z.infer<typeof activityEntrySchema>;

@@ -43,6 +43,7 @@ export const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('./routes/upload-preview')).UploadPreviewRoute }),
           },
           { path: paths.project.review.path, lazy: async () => ({ Component: (await import('./routes/review')).ReviewRoute }) },
+          { path: paths.project.trail.path, lazy: async () => ({ Component: (await import('./routes/trail')).TrailRoute }) },
           { path: paths.account.tokens.path, lazy: async () => ({ Component: (await import('./routes/account-tokens')).AccountTokensRoute }) },
           { path: paths.admin.users.path, lazy: async () => ({ Component: (await import('./routes/admin-users')).AdminUsersRoute }) },
           { path: paths.calculator.path, lazy: async () => ({ Component: (await import('./routes/calculator')).CalculatorRoute }) },

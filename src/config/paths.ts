@@ -60,6 +60,11 @@ export const paths = {
       /** With a target, the queue opens filtered to that target's values. */
       getHref: (projectId: Id, targetId?: Id) => `/projects/${projectId}/review${targetId === undefined ? '' : `?target=${targetId}`}`,
     },
+    trail: {
+      path: '/projects/:projectId/trail',
+      /** With a target, the trail opens filtered to that target's entries. */
+      getHref: (projectId: Id, targetId?: Id) => `/projects/${projectId}/trail${targetId === undefined ? '' : `?target=${targetId}`}`,
+    },
   },
   account: {
     tokens: {

@@ -24,6 +24,7 @@ function useShellProject(projectIdParam: string | undefined) {
         name: query.data.name,
         canUpload: roleCan(query.data.myRole, 'upload'),
         canReadQueue: roleCan(query.data.myRole, 'readQueue'),
+        canReadTrail: roleCan(query.data.myRole, 'readTrail'),
       }
     : null;
 }

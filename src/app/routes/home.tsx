@@ -6,6 +6,7 @@ import { QueryError } from '@/components/errors/query-error';
 import { useProjects } from '@/features/projects/api/get-projects';
 import { ProjectList } from '@/features/projects/components/project-list';
 import { CreateProjectForm } from '@/features/projects/components/create-project-form';
+import { RecentActivity } from '@/features/trail/components/recent-activity';
 
 export function HomeRoute() {
   const user = useUser();
@@ -29,6 +30,12 @@ export function HomeRoute() {
         </EmptyState>
       ) : null}
       {projects.data && projects.data.length > 0 ? <ProjectList projects={projects.data} /> : null}
+      {projects.data && projects.data.length > 0 ? (
+        <Section title="Recent activity" className="mt-12">
+          <p className="mb-3 text-sm text-ink-soft">The newest entries of the review trail in your projects. Times in UTC.</p>
+          <RecentActivity />
+        </Section>
+      ) : null}
       {user.isSiteAdmin ? (
         <Section title="New project" className="mt-12 max-w-3xl">
           <CreateProjectForm />

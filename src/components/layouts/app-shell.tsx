@@ -13,6 +13,8 @@ export interface ShellProject {
   canUpload: boolean;
   /** Observers and the lead astronomer see the Review link (permission readQueue). */
   canReadQueue: boolean;
+  /** Observers, the lead astronomer and the PI see the Trail link (permission readTrail). */
+  canReadTrail: boolean;
 }
 
 const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
@@ -52,7 +54,8 @@ export function AppShell({
   const onUploadPreview = useMatch(paths.project.uploadPreview.path) !== null;
   const onUploadsPage = onUploadsList || onUploadPreview;
   const onReviewPage = useMatch(paths.project.review.path) !== null;
-  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage && !onReviewPage;
+  const onTrailPage = useMatch(paths.project.trail.path) !== null;
+  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage && !onReviewPage && !onTrailPage;
 
   return (
     <div className="flex min-h-screen flex-col bg-paper text-ink">
@@ -105,7 +108,7 @@ export function AppShell({
                 <span className="text-xs font-semibold tracking-[0.18em] text-brass-deep uppercase">{project.code}</span>{' '}
                 <span className="font-serif font-semibold">{project.name}</span>
               </p>
-              <nav aria-label="Project" className="flex items-center gap-5">
+              <nav aria-label="Project" className="flex flex-wrap items-center gap-x-5 gap-y-1">
                 <Link
                   to={paths.project.root.getHref(project.id)}
                   className={navLinkClasses({ isActive: onTargetsPage })}
@@ -128,6 +131,11 @@ export function AppShell({
                 {project.canReadQueue ? (
                   <NavLink to={paths.project.review.getHref(project.id)} className={navLinkClasses}>
                     Review
+                  </NavLink>
+                ) : null}
+                {project.canReadTrail ? (
+                  <NavLink to={paths.project.trail.getHref(project.id)} className={navLinkClasses}>
+                    Trail
                   </NavLink>
                 ) : null}
                 <NavLink to={paths.project.members.getHref(project.id)} className={navLinkClasses}>
