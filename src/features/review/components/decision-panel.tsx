@@ -1,5 +1,6 @@
 import { useEffect, useRef, useState } from 'react';
 import { reviewBody, type QueueItem, type ReviewResult, type StaleValueDetail } from '@shared/schemas/derived';
+import { readableMessage } from '@shared/physics/display';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { TextAreaField } from '@/components/ui/field';
@@ -147,7 +148,7 @@ export function DecisionPanel({
 
   return (
     <section aria-labelledby="decision-heading" className="rounded-sm border border-rule bg-paper-deep/60 p-4" data-testid="decision-panel">
-      <h2 id="decision-heading" className="text-lg font-semibold text-ink">
+      <h2 id="decision-heading" tabIndex={-1} className="text-lg font-semibold text-ink">
         Decide
       </h2>
       <p className="mt-1 text-sm text-ink" data-testid="selection-count">
@@ -202,10 +203,10 @@ export function DecisionPanel({
               <ul className="list-disc pl-5">
                 {problem.details.map((d) => (
                   <li key={d.id}>
-                    {designationOf(d.targetId)}, {quantityNameInText(d.quantity)}: {d.message}{' '}
+                    {designationOf(d.targetId)}, {quantityNameInText(d.quantity)}: {readableMessage(d.message)}{' '}
                     {d.current
-                      ? `Now revision ${d.current.revision}, ${DERIVED_STATUS_WORDS[d.current.status].toLowerCase()}.`
-                      : 'It is no longer in the queue.'}
+                      ? `(current: revision ${d.current.revision}, ${DERIVED_STATUS_WORDS[d.current.status].toLowerCase()})`
+                      : '(no longer in the queue)'}
                   </li>
                 ))}
               </ul>
@@ -216,7 +217,7 @@ export function DecisionPanel({
               <ul className="list-disc pl-5">
                 {problem.details.map((d) => (
                   <li key={d.id}>
-                    {quantityNameInText(d.quantity)}: {d.message}
+                    {quantityNameInText(d.quantity)}: {readableMessage(d.message)}
                   </li>
                 ))}
               </ul>

@@ -338,6 +338,15 @@ export function ReviewQueue({
                 </Button>
               </nav>
             ) : null}
+            {canReview && selected.length > 0 ? (
+              // On a narrow screen the decision panel comes after the whole list; this bar keeps it one step away.
+              <div className="sticky bottom-0 mt-4 flex items-center justify-between gap-3 border-t border-rule bg-paper-deep px-3 py-2 text-sm lg:hidden">
+                <span>{formatCount(selected.length, 'value')} selected</span>
+                <a href="#decision-heading" className={linkClasses}>
+                  Go to the decision
+                </a>
+              </div>
+            ) : null}
           </div>
           {canReview ? (
             <div className="self-start lg:sticky lg:top-4">

@@ -107,7 +107,7 @@ function ReviewHistory({ name, revisions }: { name: string; revisions: readonly 
       <summary className="cursor-pointer text-brass underline-offset-4 hover:underline">
         Review history<span className="sr-only"> of {name}</span> ({revisions.length === 1 ? '1 revision' : `${revisions.length} revisions`})
       </summary>
-      <LedgerTable aria-label={`Review history of ${name}`} className="mt-2">
+      <LedgerTable aria-label={`Review history of ${name}`} className="mt-2 min-w-[46rem]">
         <LedgerHead>
           <tr>
             <LedgerHeaderCell numeric>Revision</LedgerHeaderCell>
