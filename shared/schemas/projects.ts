@@ -27,18 +27,31 @@ export const projectCode = z
   .trim()
   .regex(/^[A-Z0-9][A-Z0-9-]{1,15}$/, 'Use 2–16 capital letters, digits or hyphens.');
 
-export const createProjectBody = z.object({
+/** A project's settings, as the lead changes them; create adds defaults, update makes each optional. */
+const settingFields = {
   name: z.string().trim().min(1, 'Enter a name.').max(120),
-  code: projectCode,
-  description: z.string().trim().max(4000).default(''),
+  description: z.string().trim().max(4000),
   site: siteSchema,
   /** R_V = A_V / E(B−V) used to deredden this project's photometry (3.1 for the diffuse interstellar medium, Cardelli, Clayton & Mathis 1989). */
-  rV: z.number({ error: 'Enter R_V as a number, such as 3.1.' }).min(2, 'Use a value of at least 2.').max(6, 'Use a value of at most 6.').default(3.1),
+  rV: z.number({ error: 'Enter a number, such as 3.1.' }).min(2, 'Use a value of at least 2.').max(6, 'Use a value of at most 6.'),
+};
+
+export const createProjectBody = z.object({
+  name: settingFields.name,
+  code: projectCode,
+  description: settingFields.description.default(''),
+  site: settingFields.site,
+  rV: settingFields.rV.default(3.1),
   leadEmail: z.string().trim().toLowerCase().email('Enter the lead astronomer’s e-mail.').optional(),
 });
 export type CreateProjectBody = z.infer<typeof createProjectBody>;
 
-export const updateProjectBody = createProjectBody.omit({ leadEmail: true, code: true }).partial();
+/*
+ * Built from the fields without their defaults: zod fills a default even
+ * inside optional(), so a partial of createProjectBody would reset the
+ * description and R_V on every PATCH that leaves them out.
+ */
+export const updateProjectBody = z.object(settingFields).partial();
 export type UpdateProjectBody = z.infer<typeof updateProjectBody>;
 
 export const projectSchema = z.object({

@@ -32,10 +32,10 @@ export const designation = z
   .max(64, 'Use at most 64 characters.')
   .regex(/^[\p{L}\p{N}][\p{L}\p{N} .+\-_*'/]*$/u, 'Start with a letter or digit; use letters, digits, spaces and . + - _ * \' / only.');
 
-const tags = z
+const tagList = z
   .array(z.string().trim().min(1).max(32).regex(/^[\p{L}\p{N}_-]+$/u, 'Tags are single words (letters, digits, - or _).'))
-  .max(20)
-  .default([]);
+  .max(20);
+const tags = tagList.default([]);
 
 /** Coordinates come as strings or numbers; the parsed value is in degrees. */
 export const createTargetBody = z.object({
@@ -54,7 +54,8 @@ export const updateTargetBody = z.object({
   ra: raInput.optional(),
   dec: decInput.optional(),
   notes: z.string().max(4000).optional(),
-  tags: tags.optional(),
+  // Not `tags.optional()`: zod fills a default even inside optional, so a PATCH without tags would clear them.
+  tags: tagList.optional(),
   assumedClass: assumedClass.optional(),
 });
 export type UpdateTargetBody = z.output<typeof updateTargetBody>;

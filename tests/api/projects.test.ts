@@ -150,18 +150,23 @@ describe('projects and members', () => {
 
     await lead.agent.patch(url).set('X-CSRF-Token', lead.csrf).send({ rV: 3.1, name: 'Renamed' }).expect(200);
     expect(await fluxes()).toHaveLength(0);
+    await lead.agent.patch(url).set('X-CSRF-Token', lead.csrf).send({ description: 'Dusty field' }).expect(200);
+
 
     const res = await lead.agent.patch(url).set('X-CSRF-Token', lead.csrf).send({ rV: 4.0 }).expect(200);
-    expect(res.body.project.rV).toBe(4);
+    // What a PATCH leaves out stays as it was.
+    expect(res.body.project).toMatchObject({ rV: 4, name: 'Renamed', description: 'Dusty field' });
+    const renamed = await lead.agent.patch(url).set('X-CSRF-Token', lead.csrf).send({ name: 'Renamed again' }).expect(200);
+    expect(renamed.body.project).toMatchObject({ rV: 4, description: 'Dusty field' });
     const rows = await fluxes();
     expect(rows.map((r: { target_id: number }) => r.target_id)).toEqual([world.targetId, second.id]);
     for (const r of rows) expect(r.method_label).toContain('R_V = 4');
 
     const entries = await world.db('trail_events').where({ action: 'project.updated' }).orderBy('id');
-    expect(entries).toHaveLength(2);
+    expect(entries).toHaveLength(4);
     expect(JSON.parse(entries[0].before_json)).toMatchObject({ name: 'Test programme', rV: 3.1 });
     expect(JSON.parse(entries[0].after_json)).toMatchObject({ name: 'Renamed', rV: 3.1 });
-    expect(JSON.parse(entries[1].before_json)).toMatchObject({ name: 'Renamed', rV: 3.1 });
-    expect(JSON.parse(entries[1].after_json)).toMatchObject({ name: 'Renamed', rV: 4, site: { name: 'Test Site' } });
+    expect(JSON.parse(entries[2].before_json)).toMatchObject({ name: 'Renamed', description: 'Dusty field', rV: 3.1 });
+    expect(JSON.parse(entries[2].after_json)).toMatchObject({ name: 'Renamed', description: 'Dusty field', rV: 4, site: { name: 'Test Site' } });
   });
 });

@@ -258,6 +258,20 @@ async function measure(w: World, targetId: number, kind: string, valueSi: number
 }
 
 describe('the assumed luminosity class', () => {
+  it('an edit that leaves out tags or the class keeps them', async () => {
+    world = await makeWorld();
+    const { agent, csrf } = await signIn(world.app, 'observer');
+    const created = await agent
+      .post(targetsUrl(world))
+      .set('X-CSRF-Token', csrf)
+      .send({ designation: 'Kept 1', ra: 1, dec: 1, tags: ['dwarf', 'priority'], assumedClass: 'subgiant' })
+      .expect(201);
+    const url = `${targetsUrl(world)}/${created.body.target.id}`;
+    const edited = await agent.patch(url).set('X-CSRF-Token', csrf).send({ notes: 'seen again' }).expect(200);
+    expect(edited.body.target).toMatchObject({ notes: 'seen again', tags: ['dwarf', 'priority'], assumedClass: 'subgiant' });
+  });
+
+
   it('round-trips, defaults to the main sequence, and is refused by name when unknown', async () => {
     world = await makeWorld();
     const { agent, csrf } = await signIn(world.app, 'observer');
