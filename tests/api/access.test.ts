@@ -24,8 +24,8 @@ const trailReaders = ['lead', 'observer', 'pi'] as const;
 
 interface Case {
   rule: Rule;
-  /** A request body a permitted caller would send. */
-  body?: (w: World) => object;
+  /** A request body a permitted caller would send (it may first put what it names into the world's database). */
+  body?: (w: World) => object | Promise<object>;
   query?: string;
   /** Send SAMPLE_FILE as the multipart field `file`. */
   file?: boolean;
@@ -59,6 +59,9 @@ const cases: Record<string, Case> = {
   'GET /projects/:projectId/targets/:targetId/derived': { rule: everyone },
   'GET /projects/:projectId/targets/:targetId/measurements': { rule: everyone },
   'GET /projects/:projectId/targets/:targetId/spectra': { rule: everyone },
+  'GET /projects/:projectId/review-queue': { rule: editors },
+  'POST /projects/:projectId/review': { rule: leads, body: async (w) => ({ decision: 'reject', note: 'Wrong star.', items: [{ id: await proposeValue(w), version: 1 }] }) },
+  'POST /projects/:projectId/rederive': { rule: editors, body: () => ({}) },
   'GET /projects/:projectId/uploads': { rule: everyone },
   'POST /projects/:projectId/uploads': { rule: editors, file: true },
   'GET /projects/:projectId/uploads/templates/long.csv': { rule: everyone },
@@ -77,13 +80,36 @@ const cases: Record<string, Case> = {
   'GET /projects/:projectId/trail/export': { rule: trailReaders, query: '?format=csv' },
 };
 
+/** One proposed value of the world's target, written straight into the table, for the review route to decide on. */
+async function proposeValue(w: World): Promise<number> {
+  const [row] = await w.db('derived_values')
+    .insert({
+      project_id: w.projectId,
+      target_id: w.targetId,
+      quantity: 'distance_parallax',
+      value: 3.0857e17,
+      uncertainty: 3e15,
+      unit: 'm',
+      method: 'inverse_parallax',
+      method_label: 'd = 1/p',
+      inputs_json: '[]',
+      constants_json: '[]',
+      warnings_json: '[]',
+      revision: 1,
+      status: 'proposed',
+      created_at: '2026-12-01T00:00:00.000Z',
+    })
+    .returning('id');
+  return row.id;
+}
+
 const SAMPLE_FILE = 'target,quantity,value,unit\nT 1,parallax,12.5,mas\n';
 
 function declaredRoutes() {
   const db = createDb('file::memory:');
   const services = createServices(db, systemClock);
   const noop: RequestHandler = (_q, _s, n) => n();
-  const routes = apiRoutes(db, services, createPassport(services.users), noop);
+  const routes = apiRoutes(services, createPassport(services.users), noop);
   void db.destroy();
   return routes.map((r) => `${r.method.toUpperCase()} ${r.path}`);
 }
@@ -142,7 +168,7 @@ describe('access to every API route', () => {
         const agent = session?.agent ?? request(world.app);
         let req = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](path);
         if (session) req = req.set('X-CSRF-Token', session.csrf);
-        const body = key === 'POST /auth/login' ? { email: emails.reader, password: 'correct-horse-battery' } : c.body?.(world);
+        const body = key === 'POST /auth/login' ? { email: emails.reader, password: 'correct-horse-battery' } : await c.body?.(world);
         const res = c.file ? await req.attach('file', Buffer.from(SAMPLE_FILE), 'night.csv') : body ? await req.send(body) : await req;
         if (want === 'ok') {
           expect(res.status, JSON.stringify(res.body)).toBeGreaterThanOrEqual(200);
