@@ -36,6 +36,10 @@ export const router = createBrowserRouter([
             lazy: async () => ({ Component: (await import('./routes/target-edit')).EditTargetRoute }),
           },
           { path: paths.project.members.path, lazy: async () => ({ Component: (await import('./routes/members')).MembersRoute }) },
+          {
+            path: paths.project.settings.path,
+            lazy: async () => ({ Component: (await import('./routes/project-settings')).ProjectSettingsRoute }),
+          },
           { path: paths.project.upload.path, lazy: async () => ({ Component: (await import('./routes/upload')).UploadRoute }) },
           { path: paths.project.uploads.path, lazy: async () => ({ Component: (await import('./routes/uploads')).UploadsRoute }) },
           {

@@ -55,6 +55,10 @@ export const paths = {
       path: '/projects/:projectId/uploads/:uploadId',
       getHref: (projectId: Id, uploadId: Id) => `/projects/${projectId}/uploads/${uploadId}`,
     },
+    settings: {
+      path: '/projects/:projectId/settings',
+      getHref: (projectId: Id) => `/projects/${projectId}/settings`,
+    },
     review: {
       path: '/projects/:projectId/review',
       /** With a target, the queue opens filtered to that target's values. */

@@ -25,6 +25,7 @@ function useShellProject(projectIdParam: string | undefined) {
         canUpload: roleCan(query.data.myRole, 'upload'),
         canReadQueue: roleCan(query.data.myRole, 'readQueue'),
         canReadTrail: roleCan(query.data.myRole, 'readTrail'),
+        canManageSettings: roleCan(query.data.myRole, 'manageSettings'),
       }
     : null;
 }

@@ -6,6 +6,7 @@ import { QueryError } from '@/components/errors/query-error';
 import { useProjects } from '@/features/projects/api/get-projects';
 import { ProjectList } from '@/features/projects/components/project-list';
 import { CreateProjectForm } from '@/features/projects/components/create-project-form';
+import { AwaitingReview } from '@/features/projects/components/awaiting-review';
 import { RecentActivity } from '@/features/trail/components/recent-activity';
 
 export function HomeRoute() {
@@ -28,6 +29,11 @@ export function HomeRoute() {
             ? 'Projects you create appear here only if you are a member: name yourself as lead astronomer, or ask the project’s lead to add you.'
             : 'A project’s lead astronomer adds you to it; once they have, it appears here.'}
         </EmptyState>
+      ) : null}
+      {projects.data?.some((p) => p.awaitingReview !== null) ? (
+        <Section title="Awaiting review" className="mb-10">
+          <AwaitingReview projects={projects.data} />
+        </Section>
       ) : null}
       {projects.data && projects.data.length > 0 ? <ProjectList projects={projects.data} /> : null}
       {projects.data && projects.data.length > 0 ? (

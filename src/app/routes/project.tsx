@@ -48,7 +48,7 @@ function ProjectPage({ projectId }: { projectId: number }) {
       />
       {notice ? <Alert kind="done" title={notice} className="mb-4" /> : null}
       <h2 className="sr-only">Targets</h2>
-      <TargetsTable projectId={projectId} canEdit={canEdit} />
+      <TargetsTable projectId={projectId} canEdit={canEdit} canReadQueue={roleCan(data.myRole, 'readQueue')} />
     </>
   );
 }

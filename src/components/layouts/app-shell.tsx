@@ -15,6 +15,8 @@ export interface ShellProject {
   canReadQueue: boolean;
   /** Observers, the lead astronomer and the PI see the Trail link (permission readTrail). */
   canReadTrail: boolean;
+  /** The lead astronomer sees the Settings link (permission manageSettings). */
+  canManageSettings: boolean;
 }
 
 const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
@@ -55,7 +57,8 @@ export function AppShell({
   const onUploadsPage = onUploadsList || onUploadPreview;
   const onReviewPage = useMatch(paths.project.review.path) !== null;
   const onTrailPage = useMatch(paths.project.trail.path) !== null;
-  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage && !onReviewPage && !onTrailPage;
+  const onSettingsPage = useMatch(paths.project.settings.path) !== null;
+  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage && !onReviewPage && !onTrailPage && !onSettingsPage;
 
   return (
     <div className="flex min-h-screen flex-col bg-paper text-ink">
@@ -141,6 +144,11 @@ export function AppShell({
                 <NavLink to={paths.project.members.getHref(project.id)} className={navLinkClasses}>
                   Members
                 </NavLink>
+                {project.canManageSettings ? (
+                  <NavLink to={paths.project.settings.getHref(project.id)} className={navLinkClasses}>
+                    Settings
+                  </NavLink>
+                ) : null}
               </nav>
             </div>
           </div>

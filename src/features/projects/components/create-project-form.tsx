@@ -6,11 +6,12 @@ import type { z } from 'zod';
 import { createProjectBody, type CreateProjectBody, type Project } from '@shared/schemas/projects';
 import { paths } from '@/config/paths';
 import { Button, linkClasses } from '@/components/ui/button';
-import { FieldGroup, TextAreaField, TextField } from '@/components/ui/field';
+import { TextAreaField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { formParseOptions, toOptionalNumber, toOptionalText } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateProject } from '../api/create-project';
+import { SITE_NUMBER_FIELDS, SiteFields } from './site-fields';
 
 type FormInput = z.input<typeof createProjectBody>;
 
@@ -25,13 +26,6 @@ const FIELDS = [
   'site.elevationM',
   'site.timeZone',
   'leadEmail',
-] as const;
-
-/** The site's numeric boxes: an empty one is "not given", not zero. */
-const SITE_NUMBERS = [
-  { name: 'latitudeDeg', label: 'Latitude (°)', hint: 'Decimal degrees, north positive.' },
-  { name: 'longitudeDeg', label: 'Longitude (°)', hint: 'Decimal degrees, east positive.' },
-  { name: 'elevationM', label: 'Elevation (m)', hint: 'Metres above sea level.' },
 ] as const;
 
 /** A site administrator opens a new observing programme and, optionally, names its lead astronomer. */
@@ -84,30 +78,12 @@ export function CreateProjectForm() {
         />
       </div>
       <TextAreaField label="Description" rows={3} error={errors.description?.message} {...register('description')} />
-      <FieldGroup legend="Site">
-        <div className="grid gap-4 sm:grid-cols-2">
-          <TextField label="Site name" autoComplete="off" error={errors.site?.name?.message} {...register('site.name')} />
-          <TextField
-            label="Time zone"
-            autoComplete="off"
-            hint="IANA name, such as America/Santiago or Etc/UTC."
-            error={errors.site?.timeZone?.message}
-            {...register('site.timeZone')}
-          />
-          {SITE_NUMBERS.map(({ name, label, hint }) => (
-            <TextField
-              key={name}
-              label={label}
-              type="number"
-              step="any"
-              inputMode="decimal"
-              hint={hint}
-              error={errors.site?.[name]?.message}
-              {...register(`site.${name}`, { setValueAs: toOptionalNumber })}
-            />
-          ))}
-        </div>
-      </FieldGroup>
+      <SiteFields
+        bind={(name) => ({
+          registration: register(`site.${name}`, SITE_NUMBER_FIELDS.has(name) ? { setValueAs: toOptionalNumber } : undefined),
+          error: errors.site?.[name]?.message,
+        })}
+      />
       <TextField
         label="Lead astronomer’s e-mail"
         type="email"

@@ -1,11 +1,11 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { Page } from '@shared/schemas/common';
-import type { Target } from '@shared/schemas/targets';
+import type { TargetRow } from '@shared/schemas/targets';
 import { api } from '@/lib/api-client';
 import { targetKeys, type TargetListParams } from './keys';
 
-export function getTargets(projectId: number, params: TargetListParams, { signal }: { signal?: AbortSignal } = {}): Promise<Page<Target>> {
-  return api.get<Page<Target>>(`/projects/${projectId}/targets`, { params, signal });
+export function getTargets(projectId: number, params: TargetListParams, { signal }: { signal?: AbortSignal } = {}): Promise<Page<TargetRow>> {
+  return api.get<Page<TargetRow>>(`/projects/${projectId}/targets`, { params, signal });
 }
 
 export const targetsQueryOptions = (projectId: number, params: TargetListParams) =>

@@ -1,7 +1,7 @@
 import type { ListTargetsQuery } from '@shared/schemas/targets';
 
 /** The list filters a target table sends; every one is part of the query key. */
-export type TargetListParams = Pick<ListTargetsQuery, 'page' | 'pageSize' | 'sort' | 'order'> & { q?: string; tag?: string };
+export type TargetListParams = Pick<ListTargetsQuery, 'page' | 'pageSize' | 'sort' | 'order'> & { q?: string; tag?: string; awaiting?: true };
 
 /** Query keys for targets, from general to specific; every key under a project starts with its id. */
 export const targetKeys = {

@@ -14,7 +14,11 @@ export function useUpdateTarget(projectId: number, targetId: number) {
     mutationFn: (body: UpdateTargetBody) => updateTarget(projectId, targetId, body),
     onSuccess: (target) => {
       queryClient.setQueryData(targetKeys.detail(projectId, targetId), target);
-      return queryClient.invalidateQueries({ queryKey: targetKeys.lists(projectId) });
+      // A changed assumed luminosity class re-derives the target, so its values (under the detail key) and the table change too.
+      return Promise.all([
+        queryClient.invalidateQueries({ queryKey: targetKeys.detail(projectId, targetId), predicate: (q) => q.queryKey.length > 4 }),
+        queryClient.invalidateQueries({ queryKey: targetKeys.lists(projectId) }),
+      ]);
     },
   });
 }

@@ -10,8 +10,9 @@ import {
   type CoordinateResult,
 } from '@shared/coordinates';
 import { createTargetBody, updateTargetBody, type CreateTargetBody, type Target, type UpdateTargetBody } from '@shared/schemas/targets';
+import { LUMINOSITY_CLASSES, LUMINOSITY_CLASS_LABELS } from '@shared/physics/main-sequence';
 import { ButtonLink, Button } from '@/components/ui/button';
-import { TextAreaField, TextField } from '@/components/ui/field';
+import { SelectField, TextAreaField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { formatDegrees } from '@/lib/format';
 import { formParseOptions } from '@/lib/form-errors';
@@ -55,6 +56,7 @@ const targetFormText = z.object({
   dec: z.string().transform(asciiMinus),
   notes: z.string(),
   tags: z.string(),
+  assumedClass: z.string(),
 });
 type TargetFormValues = z.infer<typeof targetFormText>;
 
@@ -71,7 +73,7 @@ function readWith<Out>(schema: z.ZodType<Out, unknown>) {
 const createTargetForm = readWith(createTargetBody.extend({ tags: tagsText }));
 const updateTargetForm = readWith(updateTargetBody.extend({ tags: tagsText }));
 
-const FIELDS = ['designation', 'ra', 'dec', 'notes', 'tags'] as const;
+const FIELDS = ['designation', 'ra', 'dec', 'notes', 'tags', 'assumedClass'] as const;
 
 function readBack(result: CoordinateResult, format: (deg: number) => string, unit: string): string | null {
   if (!result.ok) return null;
@@ -137,6 +139,19 @@ function TargetFields<Out extends FieldValues>({
         error={errors.tags?.message}
         {...register('tags')}
       />
+      <SelectField
+        label="Assumed luminosity class (for the spectroscopic parallax)"
+        hint="The luminosity for this class at the star’s temperature gives the photometric distance. Changing it re-derives this target’s photometric distance; the new values wait for the lead astronomer’s review."
+        error={errors.assumedClass?.message}
+        className="max-w-md"
+        {...register('assumedClass')}
+      >
+        {LUMINOSITY_CLASSES.map((c) => (
+          <option key={c} value={c}>
+            {LUMINOSITY_CLASS_LABELS[c].replace(/^./, (ch) => ch.toUpperCase())}
+          </option>
+        ))}
+      </SelectField>
     </>
   );
 }
@@ -202,7 +217,7 @@ export function CreateTargetForm({
     formState: { errors, isSubmitting },
   } = useForm<TargetFormValues, unknown, CreateTargetBody>({
     resolver: zodResolver(createTargetForm, formParseOptions),
-    defaultValues: { designation: '', ra: '', dec: '', notes: '', tags: '' },
+    defaultValues: { designation: '', ra: '', dec: '', notes: '', tags: '', assumedClass: 'main_sequence' },
   });
   const { formError, send } = useServerErrors(setError, FIELDS);
 
@@ -256,6 +271,7 @@ export function EditTargetForm({
       dec: formatDeclination(target.decDeg),
       notes: target.notes,
       tags: target.tags.join(', '),
+      assumedClass: target.assumedClass,
     },
   });
   const { formError, send } = useServerErrors(setError, FIELDS);

@@ -1,4 +1,4 @@
-import { useEffect, useEffectEvent, useMemo, useState } from 'react';
+import { useEffect, useEffectEvent, useMemo, useState, type ReactNode } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
 import {
   createColumnHelper,
@@ -10,14 +10,15 @@ import {
   type Updater,
 } from '@tanstack/react-table';
 import { formatDeclination, formatRightAscension } from '@shared/coordinates';
-import { targetSortKeys, type Target } from '@shared/schemas/targets';
+import { targetSortKeys, type TableQuantity, type TableValue, type TargetRow } from '@shared/schemas/targets';
 import { paths } from '@/config/paths';
 import { Button, linkClasses } from '@/components/ui/button';
-import { SelectField, TextField } from '@/components/ui/field';
+import { CheckboxField, SelectField, TextField } from '@/components/ui/field';
 import { Alert, StatusLine } from '@/components/ui/alert';
 import { EmptyState } from '@/components/ui/empty-state';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
+import { DERIVED_STATUS_WORDS, derivedValueTexts } from '@/lib/derived-words';
 import { formatCount, formatDateTime } from '@/lib/format';
 import { useTargets } from '../api/get-targets';
 import type { TargetListParams } from '../api/keys';
@@ -41,6 +42,7 @@ function readParams(search: URLSearchParams): TargetListParams {
     order: order === 'desc' ? 'desc' : 'asc',
     q: search.get('q')?.trim() || undefined,
     tag: search.get('tag')?.trim() || undefined,
+    awaiting: search.get('awaiting') === 'true' ? true : undefined,
   };
 }
 
@@ -52,6 +54,7 @@ function writeParams(params: TargetListParams): URLSearchParams {
   if (params.order !== 'asc') search.set('order', params.order);
   if (params.q) search.set('q', params.q);
   if (params.tag) search.set('tag', params.tag);
+  if (params.awaiting) search.set('awaiting', 'true');
   return search;
 }
 
@@ -59,7 +62,7 @@ function resolve<T>(updater: Updater<T>, current: T): T {
   return typeof updater === 'function' ? (updater as (old: T) => T)(current) : updater;
 }
 
-const column = createColumnHelper<Target>();
+const column = createColumnHelper<TargetRow>();
 
 /** Actions the cells call, passed through the table so the column definitions stay stable between renders. */
 interface TableActions {
@@ -71,13 +74,68 @@ const sortLabels: Record<SortKey, string> = {
   raDeg: 'right ascension',
   decDeg: 'declination',
   updatedAt: 'last update',
+  temperature: 'effective temperature',
+  spectral_class: 'spectral class',
+  luminosity: 'luminosity',
+  radius: 'radius',
+  distance: 'distance',
 };
 
+/** Where the distance column's value came from, since it holds either route's result. */
+const distanceRoutes: Record<string, string> = { distance_parallax: 'parallax', distance_photometric: 'photometric' };
+
 /**
- * A project's targets, paged, sorted and filtered on the server. Readers get
- * the same table without the add button.
+ * One adopted value as a ledger entry: value ± σ in the unit astronomers
+ * read (the same conversion as the target sheet), and under it in small
+ * type the route for a distance and the status as a word. Two lines rather
+ * than one keep five value columns within a laptop's width.
  */
-export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdit: boolean }) {
+function ValueCell({ value }: { value: TableValue | undefined }) {
+  if (!value) {
+    return (
+      <>
+        <span className="text-ink-soft" aria-hidden="true">
+          —
+        </span>
+        <span className="sr-only">no value</span>
+      </>
+    );
+  }
+  const [text] = derivedValueTexts(value);
+  const route = distanceRoutes[value.quantity];
+  return (
+    <>
+      <span className="block tabular-nums">{text}</span>
+      <span className="block text-[0.7rem] leading-tight text-ink-soft">
+        {route ? `${route} · ` : ''}
+        <span className="font-semibold tracking-wide uppercase">{DERIVED_STATUS_WORDS[value.status]}</span>
+      </span>
+    </>
+  );
+}
+
+const valueColumns: { quantity: TableQuantity; header: ReactNode }[] = [
+  {
+    quantity: 'temperature',
+    header: (
+      <>
+        T<sub>eff</sub>
+      </>
+    ),
+  },
+  { quantity: 'spectral_class', header: 'Spectral class' },
+  { quantity: 'luminosity', header: 'Luminosity (L☉)' },
+  { quantity: 'radius', header: 'Radius (R☉)' },
+  { quantity: 'distance', header: 'Distance (pc)' },
+];
+
+/**
+ * A project's targets with their adopted values, paged, sorted and filtered
+ * on the server. The server decides which revision each role sees (readers:
+ * approved values only); roles that read the review queue also get the
+ * "awaiting review" filter and, per target, a link to its proposals.
+ */
+export function TargetsTable({ projectId, canEdit, canReadQueue }: { projectId: number; canEdit: boolean; canReadQueue: boolean }) {
   const [searchParams, setSearchParams] = useSearchParams();
   const params = readParams(searchParams);
   const update = (next: Partial<TargetListParams>, { resetPage = true } = {}) =>
@@ -111,12 +169,34 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
     () => [
       column.accessor('designation', {
         header: 'Designation',
-        cell: (info) => (
-          <Link to={paths.project.target.getHref(projectId, info.row.original.id)} className={`${linkClasses} font-semibold`}>
-            {info.getValue()}
-          </Link>
-        ),
+        cell: (info) => {
+          const awaiting = info.row.original.awaitingReview;
+          return (
+            <>
+              <Link to={paths.project.target.getHref(projectId, info.row.original.id)} className={`${linkClasses} font-semibold whitespace-nowrap`}>
+                {info.getValue()}
+              </Link>
+              {canReadQueue && awaiting > 0 ? (
+                <Link
+                  to={paths.project.review.getHref(projectId, info.row.original.id)}
+                  className={`${linkClasses} block text-xs whitespace-nowrap`}
+                >
+                  {awaiting} awaiting review<span className="sr-only"> for {info.getValue()}</span>
+                </Link>
+              ) : null}
+            </>
+          );
+        },
       }),
+      ...valueColumns.map(({ quantity, header }) =>
+        // An accessor (not a display column) so the table offers the sort; the server does the sorting.
+        column.accessor((row) => row.values[quantity]?.value, {
+          id: quantity,
+          header: () => header,
+          cell: (info) => <ValueCell value={info.row.original.values[quantity]} />,
+          meta: { numeric: true },
+        }),
+      ),
       column.accessor('raDeg', {
         header: 'RA (J2000, h m s)',
         cell: (info) => formatRightAscension(info.getValue()),
@@ -137,7 +217,7 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
                 <button
                   type="button"
                   onClick={() => (info.table.options.meta as TableActions).filterByTag(t)}
-                  className="rounded-sm border border-rule px-1.5 py-0.5 text-xs text-ink-soft hover:border-brass hover:text-ink"
+                  className="rounded-sm border border-rule px-1.5 py-0.5 text-xs whitespace-nowrap text-ink-soft hover:border-brass hover:text-ink"
                   aria-label={`Show only targets tagged ${t}`}
                 >
                   {t}
@@ -153,7 +233,7 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
         meta: { numeric: true },
       }),
     ],
-    [projectId],
+    [projectId, canReadQueue],
   );
 
   const sorting: SortingState = [{ id: params.sort, desc: params.order === 'desc' }];
@@ -185,7 +265,7 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
     },
   });
 
-  const filtered = Boolean(params.q || params.tag);
+  const filtered = Boolean(params.q || params.tag || params.awaiting);
 
   return (
     <div className="space-y-4">
@@ -199,6 +279,15 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
           className="w-64"
         />
         <TextField label="Tag" value={tagDraft} onChange={(e) => setTagDraft(e.target.value)} hint="One tag, exactly." className="w-44" />
+        {canReadQueue ? (
+          <CheckboxField
+            label="Awaiting review"
+            hint="Only targets with proposed values."
+            checked={params.awaiting === true}
+            onChange={(e) => update({ awaiting: e.target.checked ? true : undefined })}
+            className="mb-0.5"
+          />
+        ) : null}
         {filtered ? (
           <Button
             variant="secondary"
@@ -206,7 +295,7 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
             onClick={() => {
               setQDraft('');
               setTagDraft('');
-              update({ q: undefined, tag: undefined });
+              update({ q: undefined, tag: undefined, awaiting: undefined });
             }}
           >
             Clear filters
@@ -226,7 +315,11 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
 
       {data && data.total === 0 ? (
         filtered ? (
-          <EmptyState title="No targets match these filters">Change the search text or tag, or clear the filters.</EmptyState>
+          <EmptyState title="No targets match these filters">
+            {params.awaiting
+              ? 'No target has values awaiting review under these filters. Clear the filters to see every target.'
+              : 'Change the search text or tag, or clear the filters.'}
+          </EmptyState>
         ) : (
           <EmptyState
             title="No targets yet"
@@ -245,6 +338,9 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
 
       {data && data.total > 0 ? (
         <>
+          <p className="text-xs text-ink-soft sm:hidden">
+            The table is wider than the screen: scroll it sideways for the values.
+          </p>
           <LedgerTable aria-label="Targets" aria-busy={query.isFetching} className={query.isPlaceholderData ? 'opacity-60' : undefined}>
             <LedgerHead>
               {table.getHeaderGroups().map((group) => (
@@ -300,7 +396,7 @@ export function TargetsTable({ projectId, canEdit }: { projectId: number; canEdi
               {filtered ? ' match' : ''} · page {data.page} of {pageCount}
               {query.isFetching ? ' · updating…' : ''}
             </p>
-            <div className="flex items-end gap-3">
+            <div className="flex flex-wrap items-end gap-3">
               <SelectField
                 label="Rows per page"
                 value={params.pageSize}
