@@ -14,9 +14,10 @@ export const reviewKeys = {
 /*
  * A decision or a re-run changes what other pages show: target sheets and
  * the project's table (their keys start with ['targets', projectId]), the
- * project and home pages (['projects']). Features do not import each other's
+ * project and home pages' counts (['projects']), the trail and the home
+ * page's recent activity (['trail']). Features do not import each other's
  * key factories, so these prefixes are named here by the shape those
  * factories give them.
  */
 export const keysTouchedByReview = (projectId: number) =>
-  [reviewKeys.project(projectId), ['targets', projectId], ['projects'], ['trail', projectId], ['home']] as const;
+  [reviewKeys.project(projectId), ['targets', projectId], ['projects'], ['trail']] as const;
