@@ -229,7 +229,15 @@ export function ReviewQueue({
         ) : null}
       </div>
 
-      {canReview ? null : (
+      {canReview ? (
+        // The list can be long; keyboard users jump from here to the note and the two decisions.
+        <a
+          href="#decision-heading"
+          className="sr-only rounded-sm bg-paper px-2 py-1 text-sm text-brass focus:not-sr-only focus:inline-block"
+        >
+          Skip to the decision
+        </a>
+      ) : (
         <p className="text-sm text-ink" data-testid="read-only-line">
           Only the lead astronomer approves or rejects values; this list shows what awaits their review.
         </p>
