@@ -7,7 +7,7 @@ import { useRederive } from '../api/rederive';
 function outcomeWords(result: RederiveResult, wholeProject: boolean): string {
   if (result.proposed === 0) {
     return wholeProject
-      ? `Nothing changed: no new proposals across ${formatCount(result.targets, 'target')}.`
+      ? `Nothing changed in ${formatCount(result.targets, 'target')}: no new proposals.`
       : 'Nothing changed: no new proposals.';
   }
   return `${formatCount(result.proposed, 'new proposal')} across ${formatCount(result.targets, 'target')}.`;

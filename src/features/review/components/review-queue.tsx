@@ -270,7 +270,8 @@ export function ReviewQueue({
               <>
                 <p className="text-sm text-ink-soft">
                   {formatCount(data.total, 'proposed value')}
-                  {filtered ? ' match' : ' await review'} · page {data.page} of {pageCount}
+                  {filtered ? (data.total === 1 ? ' matches' : ' match') : data.total === 1 ? ' awaits review' : ' await review'} · page{' '}
+                  {data.page} of {pageCount}
                   {query.isFetching ? ' · updating…' : ''}
                 </p>
                 {groups.map((g) => {
