@@ -45,7 +45,8 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
 
     await page.getByTestId('upload-targets').getByRole('link', { name: 'GW 101' }).click();
     await page.getByRole('heading', { name: 'GW 101' }).waitFor();
-    const adopted = page.locator('[data-quantity="temperature"]').first();
+    // GW 101's temperature was approved in the demo; the night's new one stands beside it as a proposal.
+    const adopted = page.locator('[data-quantity="temperature"][data-status="proposed"]').first();
     await adopted.waitFor();
     expect(await adopted.textContent()).toMatch(/\d+ ± \d+ K/);
     expect(await adopted.getByTestId('derived-status').textContent()).toBe('Proposed');
@@ -112,11 +113,17 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     await page.getByRole('heading', { name: 'Your role does not allow this' }).waitFor();
     await screenshot(page, 'uploads-08-reader-refused');
 
-    // The server sends a reader approved values only; with none yet, the sheet says values under review are not shown.
+    // The server sends a reader approved values only: GW 101 was signed off in the demo, GW 120 not yet.
     await page.goto(`${baseUrl()}/projects/1`);
     await page.getByRole('link', { name: 'GW 101', exact: true }).click();
+    await page.getByTestId('derived-line').first().waitFor();
+    const statuses = await page.getByTestId('derived-status').allTextContents();
+    expect(statuses.length).toBeGreaterThan(5);
+    expect(statuses.every((s) => /approved/i.test(s))).toBe(true);
+    await page.goto(`${baseUrl()}/projects/1`);
+    await page.getByRole('link', { name: 'GW 120', exact: true }).click();
     await page.getByTestId('derived-withheld').waitFor();
-    expect(await page.getByTestId('derived-status').filter({ hasText: 'Proposed' }).count()).toBe(0);
+    expect(await page.getByTestId('derived-status').count()).toBe(0);
     await page.getByTestId('measurements-table').waitFor();
     await screenshot(page, 'uploads-09-reader-target-sheet');
   });
