@@ -173,13 +173,13 @@ export function TargetsTable({ projectId, canEdit, canReadQueue }: { projectId: 
           const awaiting = info.row.original.awaitingReview;
           return (
             <>
-              <Link to={paths.project.target.getHref(projectId, info.row.original.id)} className={`${linkClasses} font-semibold whitespace-nowrap`}>
+              <Link to={paths.project.target.getHref(projectId, info.row.original.id)} className={`${linkClasses} inline-block min-h-6 py-0.5 font-semibold whitespace-nowrap`}>
                 {info.getValue()}
               </Link>
               {canReadQueue && awaiting > 0 ? (
                 <Link
                   to={paths.project.review.getHref(projectId, info.row.original.id)}
-                  className={`${linkClasses} block text-xs whitespace-nowrap`}
+                  className={`${linkClasses} block min-h-6 py-1 text-xs whitespace-nowrap`}
                 >
                   {awaiting} awaiting review<span className="sr-only"> for {info.getValue()}</span>
                 </Link>
