@@ -13,7 +13,7 @@ import { createUploadsService } from '../server/modules/uploads/uploads.service'
  */
 const APPROVED = 14;
 const REJECTED = { designation: 'GW 106', quantity: 'radial_velocity', note: 'Hα sits on a telluric band in this frame; re-measure before we use it.' };
-const REVISED_PARALLAX = 'target,quantity,value,uncertainty,unit,note\nGW 103,parallax,24.912,0.03,mas,revised catalogue parallax\n';
+const REVISED_PARALLAX = 'target,quantity,value,uncertainty,unit,note\nGW 103,parallax,23.781,0.03,mas,revised catalogue parallax\n';
 
 export async function seed(knex: Knex): Promise<void> {
   const project = await knex('projects').where({ code: 'GLASSWING' }).first('id');
