@@ -4,9 +4,9 @@ import { roleCan } from '@shared/schemas/roles';
 import type { TrailFilters } from '@shared/schemas/trail';
 import { useNumericParam } from '@/hooks/use-numeric-param';
 import { PageHeader } from '@/components/ui/page-header';
-import { Alert, StatusLine } from '@/components/ui/alert';
+import { StatusLine } from '@/components/ui/alert';
 import { Button, buttonClasses } from '@/components/ui/button';
-import { SelectField } from '@/components/ui/field';
+import { Pager } from '@/components/ui/pager';
 import { EmptyState } from '@/components/ui/empty-state';
 import { ForbiddenMessage, NotFoundMessage } from '@/components/errors/error-messages';
 import { QueryError } from '@/components/errors/query-error';
@@ -129,14 +129,7 @@ function TrailPage({ projectId }: { projectId: number }) {
         <TrailFiltersForm filters={filters} people={people.data} targets={targets.data} onChange={(next) => update(next)} />
         {filtered ? <p className="text-xs text-ink-soft">The export buttons export the trail with these filters.</p> : null}
         {!rangeProblem && trail.isPending ? <StatusLine>Loading the trail…</StatusLine> : null}
-        {trail.isError && !page ? (
-          <Alert title="The trail could not be loaded.">
-            {trail.error.message}{' '}
-            <Button variant="quiet" size="sm" onClick={() => void trail.refetch()}>
-              Try again
-            </Button>
-          </Alert>
-        ) : null}
+        {trail.isError && !page ? <QueryError what="The trail" error={trail.error} onRetry={() => void trail.refetch()} inline /> : null}
         {!rangeProblem && page && page.total === 0 ? (
           <EmptyState title={filtered ? 'No entries match these filters' : 'Nothing recorded yet'}>
             {filtered ? 'Widen the date range or clear a filter.' : 'Uploads, targets, values and members appear here as they change.'}
@@ -145,37 +138,25 @@ function TrailPage({ projectId }: { projectId: number }) {
         {!rangeProblem && page && page.total > 0 ? (
           <>
             <TrailTable projectId={projectId} entries={page.items} people={people.data} targets={targets.data} busy={trail.isPlaceholderData} />
-            <nav aria-label="Pages of the trail" className="flex flex-wrap items-end justify-between gap-4 text-sm" data-print="hide">
-              <p className="pb-2 text-ink-soft" aria-live="polite">
-                {formatCount(page.total, 'entry', 'entries')}
-                {filtered ? ' match' : ''} · page {page.page} of {pageCount}
-                {trail.isFetching ? ' · updating…' : ''}
-              </p>
-              <div className="flex flex-wrap items-end gap-3">
-                <SelectField
-                  label="Entries per page"
-                  value={params.pageSize}
-                  onChange={(e) => update({ pageSize: Number(e.target.value) })}
-                  className="w-36"
-                >
-                  {PAGE_SIZES.map((size) => (
-                    <option key={size} value={size}>
-                      {size}
-                    </option>
-                  ))}
-                </SelectField>
-                <Button variant="secondary" disabled={params.page <= 1} onClick={() => update({ page: params.page - 1 }, { resetPage: false })}>
-                  Newer
-                </Button>
-                <Button
-                  variant="secondary"
-                  disabled={params.page >= pageCount}
-                  onClick={() => update({ page: params.page + 1 }, { resetPage: false })}
-                >
-                  Older
-                </Button>
-              </div>
-            </nav>
+            <Pager
+              label="Pages of the trail"
+              summary={
+                <>
+                  {formatCount(page.total, 'entry', 'entries')}
+                  {filtered ? ' match' : ''} · page {page.page} of {pageCount}
+                  {trail.isFetching ? ' · updating…' : ''}
+                </>
+              }
+              page={params.page}
+              pageCount={pageCount}
+              onPage={(next) => update({ page: next }, { resetPage: false })}
+              pageSize={params.pageSize}
+              pageSizes={PAGE_SIZES}
+              onPageSize={(size) => update({ pageSize: size })}
+              pageSizeLabel="Entries per page"
+              previousLabel="Newer"
+              nextLabel="Older"
+            />
           </>
         ) : null}
       </div>

@@ -7,6 +7,7 @@ import { StatusLine } from '@/components/ui/alert';
 import { Button, linkClasses } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField } from '@/components/ui/field';
+import { Pager } from '@/components/ui/pager';
 import { QueryError } from '@/components/errors/query-error';
 import { quantityName, quantityNameInText } from '@/lib/derived-words';
 import { formatCount } from '@/lib/format';
@@ -322,30 +323,17 @@ export function ReviewQueue({
               </>
             )}
             {data.total > 0 ? (
-              <nav aria-label="Pages of the review queue" className="mt-4 flex flex-wrap items-end justify-end gap-3" data-print="hide">
-                <SelectField
-                  label="Values per page"
-                  value={params.pageSize}
-                  onChange={(e) => update({ pageSize: Number(e.target.value) })}
-                  className="w-36"
-                >
-                  {PAGE_SIZES.map((size) => (
-                    <option key={size} value={size}>
-                      {size}
-                    </option>
-                  ))}
-                </SelectField>
-                <Button variant="secondary" onClick={() => update({ page: params.page - 1 }, { resetPage: false })} disabled={params.page <= 1}>
-                  Previous page
-                </Button>
-                <Button
-                  variant="secondary"
-                  onClick={() => update({ page: params.page + 1 }, { resetPage: false })}
-                  disabled={params.page >= pageCount}
-                >
-                  Next page
-                </Button>
-              </nav>
+              <Pager
+                label="Pages of the review queue"
+                className="mt-4"
+                page={params.page}
+                pageCount={pageCount}
+                onPage={(next) => update({ page: next }, { resetPage: false })}
+                pageSize={params.pageSize}
+                pageSizes={PAGE_SIZES}
+                onPageSize={(size) => update({ pageSize: size })}
+                pageSizeLabel="Values per page"
+              />
             ) : null}
             {canReview && selected.length > 0 ? (
               // On a narrow screen the decision panel comes after the whole list; this bar keeps it one step away.

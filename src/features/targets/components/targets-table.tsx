@@ -13,8 +13,10 @@ import { formatDeclination, formatRightAscension } from '@shared/coordinates';
 import { targetSortKeys, type TableQuantity, type TableValue, type TargetRow } from '@shared/schemas/targets';
 import { paths } from '@/config/paths';
 import { Button, linkClasses } from '@/components/ui/button';
-import { CheckboxField, SelectField, TextField } from '@/components/ui/field';
-import { Alert, StatusLine } from '@/components/ui/alert';
+import { CheckboxField, TextField } from '@/components/ui/field';
+import { Pager } from '@/components/ui/pager';
+import { StatusLine } from '@/components/ui/alert';
+import { QueryError } from '@/components/errors/query-error';
 import { EmptyState } from '@/components/ui/empty-state';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
@@ -304,14 +306,7 @@ export function TargetsTable({ projectId, canEdit, canReadQueue }: { projectId: 
       </div>
 
       {query.isPending ? <StatusLine>Loading targets…</StatusLine> : null}
-      {query.isError && !data ? (
-        <Alert title="The targets could not be loaded.">
-          {query.error.message}{' '}
-          <Button variant="quiet" size="sm" onClick={() => void query.refetch()}>
-            Try again
-          </Button>
-        </Alert>
-      ) : null}
+      {query.isError && !data ? <QueryError what="The targets" error={query.error} onRetry={() => void query.refetch()} inline /> : null}
 
       {data && data.total === 0 ? (
         filtered ? (
@@ -390,33 +385,24 @@ export function TargetsTable({ projectId, canEdit, canReadQueue }: { projectId: 
             </LedgerBody>
           </LedgerTable>
 
-          <nav aria-label="Pages of targets" className="flex flex-wrap items-end justify-between gap-4 text-sm" data-print="hide">
-            <p className="pb-2 text-ink-soft" aria-live="polite">
-              {formatCount(data.total, 'target')}
-              {filtered ? ' match' : ''} · page {data.page} of {pageCount}
-              {query.isFetching ? ' · updating…' : ''}
-            </p>
-            <div className="flex flex-wrap items-end gap-3">
-              <SelectField
-                label="Rows per page"
-                value={params.pageSize}
-                onChange={(e) => table.setPageSize(Number(e.target.value))}
-                className="w-32"
-              >
-                {PAGE_SIZES.map((size) => (
-                  <option key={size} value={size}>
-                    {size}
-                  </option>
-                ))}
-              </SelectField>
-              <Button variant="secondary" onClick={() => table.previousPage()} disabled={params.page <= 1}>
-                Previous page
-              </Button>
-              <Button variant="secondary" onClick={() => table.nextPage()} disabled={params.page >= pageCount}>
-                Next page
-              </Button>
-            </div>
-          </nav>
+          <Pager
+            label="Pages of targets"
+            summary={
+              <>
+                {formatCount(data.total, 'target')}
+                {filtered ? ' match' : ''} · page {data.page} of {pageCount}
+                {query.isFetching ? ' · updating…' : ''}
+              </>
+            }
+            page={params.page}
+            pageCount={pageCount}
+            onPage={(next) => table.setPageIndex(next - 1)}
+            pageSize={params.pageSize}
+            pageSizes={PAGE_SIZES}
+            onPageSize={(size) => table.setPageSize(size)}
+            pageSizeLabel="Rows per page"
+            pageSizeClassName="w-32"
+          />
         </>
       ) : null}
     </div>
