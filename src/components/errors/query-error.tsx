@@ -1,8 +1,27 @@
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 
-/** A failed load that is worth retrying (network, server error), with the server's message. */
-export function QueryError({ what, error, onRetry }: { what: string; error: Error; onRetry?: () => void }) {
+/**
+ * A failed load that is worth retrying (network, server error), with the server's message.
+ * `inline` puts a quiet "Try again" right after the message, for a list that sits among other
+ * things on its page rather than being the whole page.
+ */
+export function QueryError({ what, error, onRetry, inline = false }: { what: string; error: Error; onRetry?: () => void; inline?: boolean }) {
+  if (inline) {
+    return (
+      <Alert title={`${what} could not be loaded.`}>
+        {error.message}
+        {onRetry ? (
+          <>
+            {' '}
+            <Button variant="quiet" size="sm" onClick={onRetry}>
+              Try again
+            </Button>
+          </>
+        ) : null}
+      </Alert>
+    );
+  }
   return (
     <Alert title={`${what} could not be loaded.`}>
       <p>{error.message}</p>

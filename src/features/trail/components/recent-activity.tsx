@@ -1,8 +1,9 @@
 import { Link } from 'react-router-dom';
 import type { ActivityEntry } from '@shared/schemas/trail';
 import { paths } from '@/config/paths';
-import { Button, linkClasses } from '@/components/ui/button';
-import { Alert, StatusLine } from '@/components/ui/alert';
+import { linkClasses } from '@/components/ui/button';
+import { StatusLine } from '@/components/ui/alert';
+import { QueryError } from '@/components/errors/query-error';
 import { EmptyState } from '@/components/ui/empty-state';
 import { quantityName } from '@/lib/derived-words';
 import { formatDateTime } from '@/lib/format';
@@ -72,16 +73,7 @@ function ActivityLine({ entry }: { entry: ActivityEntry }) {
 export function RecentActivity({ limit = 12 }: { limit?: number }) {
   const activity = useActivity(limit);
   if (activity.isPending) return <StatusLine>Loading recent activity…</StatusLine>;
-  if (activity.isError) {
-    return (
-      <Alert title="Recent activity could not be loaded.">
-        {activity.error.message}{' '}
-        <Button variant="quiet" size="sm" onClick={() => void activity.refetch()}>
-          Try again
-        </Button>
-      </Alert>
-    );
-  }
+  if (activity.isError) return <QueryError what="Recent activity" error={activity.error} onRetry={() => void activity.refetch()} inline />;
   if (activity.data.length === 0) {
     return (
       <EmptyState title="Nothing recorded yet">

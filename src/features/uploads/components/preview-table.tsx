@@ -1,6 +1,7 @@
 import { useId, useState } from 'react';
 import type { RowError } from '@shared/schemas/measurement-file';
-import { Alert, StatusLine } from '@/components/ui/alert';
+import { StatusLine } from '@/components/ui/alert';
+import { QueryError } from '@/components/errors/query-error';
 import { Button } from '@/components/ui/button';
 import { CheckboxField } from '@/components/ui/field';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
@@ -41,16 +42,7 @@ export function PreviewTable({ projectId, uploadId, errorCount }: { projectId: n
   const captionId = useId();
 
   if (rows.isPending) return <StatusLine>Loading the rows…</StatusLine>;
-  if (rows.isError) {
-    return (
-      <Alert title="The rows could not be loaded.">
-        <p>{rows.error.message}</p>
-        <Button variant="secondary" size="sm" className="mt-2" onClick={() => void rows.refetch()}>
-          Try again
-        </Button>
-      </Alert>
-    );
-  }
+  if (rows.isError) return <QueryError what="The rows" error={rows.error} onRetry={() => void rows.refetch()} />;
 
   const { headers, total } = rows.data;
   const pages = Math.max(1, Math.ceil(total / PAGE_SIZE));
