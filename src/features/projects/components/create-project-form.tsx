@@ -8,25 +8,14 @@ import { paths } from '@/config/paths';
 import { Button, linkClasses } from '@/components/ui/button';
 import { TextAreaField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
-import { formParseOptions, toOptionalNumber, toOptionalText } from '@/lib/form-errors';
+import { formParseOptions, toOptionalText } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateProject } from '../api/create-project';
-import { SITE_NUMBER_FIELDS, SiteFields } from './site-fields';
+import { bindSiteFields, SITE_FIELD_PATHS, SiteFields } from './site-fields';
 
 type FormInput = z.input<typeof createProjectBody>;
 
-const FIELDS = [
-  'name',
-  'code',
-  'description',
-  'site',
-  'site.name',
-  'site.latitudeDeg',
-  'site.longitudeDeg',
-  'site.elevationM',
-  'site.timeZone',
-  'leadEmail',
-] as const;
+const FIELDS = ['name', 'code', 'description', ...SITE_FIELD_PATHS, 'leadEmail'] as const;
 
 /** A site administrator opens a new observing programme and, optionally, names its lead astronomer. */
 export function CreateProjectForm() {
@@ -78,12 +67,7 @@ export function CreateProjectForm() {
         />
       </div>
       <TextAreaField label="Description" rows={3} error={errors.description?.message} {...register('description')} />
-      <SiteFields
-        bind={(name) => ({
-          registration: register(`site.${name}`, SITE_NUMBER_FIELDS.has(name) ? { setValueAs: toOptionalNumber } : undefined),
-          error: errors.site?.[name]?.message,
-        })}
-      />
+      <SiteFields bind={bindSiteFields(register, errors.site)} />
       <TextField
         label="Lead astronomer’s e-mail"
         type="email"

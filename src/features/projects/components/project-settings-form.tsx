@@ -9,7 +9,7 @@ import { Alert } from '@/components/ui/alert';
 import { formParseOptions, toOptionalNumber } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
 import { useUpdateProject } from '../api/update-project';
-import { SITE_NUMBER_FIELDS, SiteFields } from './site-fields';
+import { bindSiteFields, SITE_FIELD_PATHS, SiteFields } from './site-fields';
 
 type FormInput = z.input<typeof updateProjectBody>;
 
@@ -22,17 +22,7 @@ const settingsForm = updateProjectBody.superRefine((values, ctx) => {
   if (values.rV === undefined) ctx.addIssue({ code: 'custom', path: ['rV'], message: 'Enter a value, such as 3.1.' });
 });
 
-const FIELDS = [
-  'name',
-  'description',
-  'site',
-  'site.name',
-  'site.latitudeDeg',
-  'site.longitudeDeg',
-  'site.elevationM',
-  'site.timeZone',
-  'rV',
-] as const;
+const FIELDS = ['name', 'description', ...SITE_FIELD_PATHS, 'rV'] as const;
 
 const formValuesOf = (project: Project): FormInput => ({
   name: project.name,
@@ -93,12 +83,7 @@ export function ProjectSettingsForm({ project, onSaved }: { project: Project; on
       {formError ? <Alert title="The settings were not saved.">{formError}</Alert> : null}
       <TextField label="Name" autoComplete="off" error={errors.name?.message} {...register('name')} />
       <TextAreaField label="Description" rows={4} error={errors.description?.message} {...register('description')} />
-      <SiteFields
-        bind={(name) => ({
-          registration: register(`site.${name}`, SITE_NUMBER_FIELDS.has(name) ? { setValueAs: toOptionalNumber } : undefined),
-          error: errors.site?.[name]?.message,
-        })}
-      />
+      <SiteFields bind={bindSiteFields(register, errors.site)} />
       <TextField
         label={
           <>

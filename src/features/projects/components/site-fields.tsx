@@ -1,6 +1,7 @@
-import type { UseFormRegisterReturn } from 'react-hook-form';
+import type { FieldValues, Path, UseFormRegister, UseFormRegisterReturn } from 'react-hook-form';
 import type { Site } from '@shared/schemas/projects';
 import { FieldGroup, TextField } from '@/components/ui/field';
+import { toOptionalNumber } from '@/lib/form-errors';
 
 /** The site's numeric boxes: an empty one is "not given", not zero. */
 const SITE_NUMBERS = [
@@ -9,10 +10,24 @@ const SITE_NUMBERS = [
   { name: 'elevationM', label: 'Elevation (m)', hint: 'Metres above sea level.' },
 ] as const;
 
-export const SITE_NUMBER_FIELDS: ReadonlySet<keyof Site> = new Set(SITE_NUMBERS.map((n) => n.name));
+const SITE_NUMBER_FIELDS: ReadonlySet<keyof Site> = new Set(SITE_NUMBERS.map((n) => n.name));
 
-/** How a form hands one site box its registration and its error; the form owns its own field paths. */
+/** The site's paths in a form that keeps it under `site`, for placing the server's field errors. */
+export const SITE_FIELD_PATHS = ['site', 'site.name', 'site.latitudeDeg', 'site.longitudeDeg', 'site.elevationM', 'site.timeZone'] as const;
+
+/** How a form hands one site box its registration and its error. */
 export type SiteFieldBinding = (name: keyof Site) => { registration: UseFormRegisterReturn; error?: string };
+
+/** The binding for a form whose values keep the site under `site`, as the new-project and settings forms do. */
+export function bindSiteFields<T extends FieldValues & { site?: object }>(
+  register: UseFormRegister<T>,
+  siteErrors: Partial<Record<keyof Site, { message?: string }>> | undefined,
+): SiteFieldBinding {
+  return (name) => ({
+    registration: register(`site.${name}` as Path<T>, SITE_NUMBER_FIELDS.has(name) ? { setValueAs: toOptionalNumber } : undefined),
+    error: siteErrors?.[name]?.message,
+  });
+}
 
 /** A project's observing site (name, time zone, latitude, longitude, elevation), as the new-project and settings forms show it. */
 export function SiteFields({ bind }: { bind: SiteFieldBinding }) {
