@@ -1,6 +1,6 @@
 import { fluxFromApparentBolometricMagnitudeWm2, SOLAR_ABSOLUTE_BOLOMETRIC_MAGNITUDE_MAG } from './bolometric';
 import { CONSTANTS } from './constants';
-import { requireFinite, requirePositive, type PhysicsWarning } from './errors';
+import { PhysicsError, requireFinite, requirePositive } from './errors';
 import { DEFAULT_R_V } from './extinction';
 import type { Measured } from './measured';
 import { monteCarlo, type DrawModel, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
@@ -32,8 +32,41 @@ export const TORRES_2010_COEFFICIENTS: Readonly<Record<BolometricCorrectionBranc
   ]),
 });
 
-/** The temperatures of Flower's calibration stars, K; outside them the polynomials extrapolate. */
+/**
+ * The temperatures of Flower's calibration stars, K. Torres's Table 1 gives
+ * the coefficients without a range; the range is the one REFERENCES.md
+ * states for Flower (1996), not re-read from the paper here. Outside it the
+ * polynomials run away (extrapolated, BC_V(200 000 K) = +45 mag and
+ * BC_V(1500 K) = −53 mag, where real corrections are a few magnitudes), so
+ * Starledger refuses them rather than warn.
+ * @see Flower (1996), ApJ 469, 355; REFERENCES.md "Bolometric correction"
+ */
 export const FLOWER_CALIBRATION_RANGE_K = Object.freeze({ min: 2900, max: 52_500 });
+
+/** The calibration range in words, as refusals name it. */
+const CALIBRATION_LIMIT = `${FLOWER_CALIBRATION_RANGE_K.min}–${FLOWER_CALIBRATION_RANGE_K.max} K`;
+
+function insideCalibration(temperatureK: number): boolean {
+  return temperatureK >= FLOWER_CALIBRATION_RANGE_K.min && temperatureK <= FLOWER_CALIBRATION_RANGE_K.max;
+}
+
+/**
+ * Throws PhysicsError('out_of_range') naming 2900–52 500 K unless the
+ * temperature in K lies inside Flower's calibration.
+ * @see FLOWER_CALIBRATION_RANGE_K
+ */
+export function requireInsideBolometricCalibration(temperatureK: number, quantity = 'bolometric_flux'): number {
+  requirePositive(temperatureK, 'temperature');
+  if (!insideCalibration(temperatureK)) {
+    throw new PhysicsError(
+      'out_of_range',
+      quantity,
+      `T = ${Math.round(temperatureK)} K lies outside ${CALIBRATION_LIMIT}, the temperatures of the stars that calibrate the bolometric correction (Flower 1996); BC_V is not extrapolated, so no flux follows from V`,
+      CALIBRATION_LIMIT,
+    );
+  }
+  return temperatureK;
+}
 
 /**
  * M_bol☉ with which Torres (2010) pairs these corrections. The IAU 2015 B2
@@ -70,12 +103,12 @@ function branchOfLogT(x: number): BolometricCorrectionBranch {
 
 /**
  * BC_V in mag for an effective temperature in K, as published (Torres's
- * M_bol☉ = 4.73 scale). Outside 2900–52 500 K the polynomial is an
- * extrapolation: see bolometricCorrectionWarnings.
+ * M_bol☉ = 4.73 scale). Outside 2900–52 500 K, PhysicsError('out_of_range')
+ * naming the range: the polynomial is not extrapolated.
  * @see Flower (1996), ApJ 469, 355; Torres (2010), AJ 140, 1158, Table 1
  */
-export function bolometricCorrectionVMag(temperatureK: number): number {
-  requirePositive(temperatureK, 'temperature');
+export function bolometricCorrectionVMag(temperatureK: number, quantity = 'bolometric_flux'): number {
+  requireInsideBolometricCalibration(temperatureK, quantity);
   return bolometricCorrectionOfLogT(Math.log10(temperatureK));
 }
 
@@ -85,23 +118,6 @@ function bolometricCorrectionOfLogT(x: number): number {
   let sum = 0;
   for (let i = coefficients.length - 1; i >= 0; i--) sum = sum * x + coefficients[i];
   return sum;
-}
-
-/**
- * Warning when a temperature in K lies outside Flower's calibration stars (2900–52 500 K).
- * @see Flower (1996), ApJ 469, 355
- */
-export function bolometricCorrectionWarnings(temperatureK: number, quantity = 'bolometric_flux'): PhysicsWarning[] {
-  const { min, max } = FLOWER_CALIBRATION_RANGE_K;
-  if (temperatureK >= min && temperatureK <= max) return [];
-  return [
-    {
-      code: 'outside_calibration',
-      quantity,
-      message: `T = ${Math.round(temperatureK)} K lies outside ${min}–${max} K, the temperatures of the stars that calibrate the bolometric correction; BC_V is extrapolated`,
-      limit: `${min}–${max} K`,
-    },
-  ];
 }
 
 /**
@@ -115,24 +131,34 @@ export function bolometricFluxFromVWm2(magnitudeVMag: number, temperatureK: numb
   requireFinite(colourExcessMag, 'extinction');
   requirePositive(rV, 'R_V');
   const mBol = magnitudeVMag - rV * colourExcessMag + bolometricCorrectionVMag(temperatureK) + BC_SHIFT_TO_IAU_2015_MAG;
-  return fluxFromApparentBolometricMagnitudeWm2(mBol);
+  const flux = fluxFromApparentBolometricMagnitudeWm2(mBol);
+  // A double holds f₀ 10^(−0.4 m_bol) only for m_bol between about −770 and +790 (IEEE 754 range): beyond, 0 or Infinity is no flux.
+  if (!(flux > 0) || !Number.isFinite(flux)) {
+    throw new PhysicsError(
+      'out_of_range',
+      'bolometric_flux',
+      `m_bol = ${mBol.toPrecision(4)} mag gives a flux of ${flux} W m⁻², which is no star's: the flux underflows or overflows`,
+      'flux > 0 and finite',
+    );
+  }
+  return flux;
 }
 
 const F0_WM2 = CONSTANTS.f_0.value;
-/** Below this −0.4 m_bol, f₀ 10^(−0.4 m_bol) is surely finite (f₀ ≈ 10^-7.6 W m⁻², the largest double 10^308.25). */
+/** Within ± this −0.4 m_bol, f₀ 10^(−0.4 m_bol) is surely finite and above 0 (f₀ ≈ 10^-7.6 W m⁻²; doubles span 10^-323.3 to 10^308.25). */
 const SAFE_FLUX_EXPONENT = 300;
 
 /** Bolometric flux from V with its Monte Carlo uncertainty and warnings. */
 export interface FluxFromV {
   readonly fluxWm2: MonteCarloResult;
-  readonly warnings: PhysicsWarning[];
 }
 
 /**
  * Bolometric flux in W m⁻² from V (mag), T (K) and optionally E(B−V) (mag),
  * each with σ; σ_F from a seeded Monte Carlo because BC_V(T) is a
  * fourth-to-fifth-degree polynomial in log T. Inputs are treated as
- * independent.
+ * independent. A nominal T outside 2900–52 500 K is refused (PhysicsError
+ * 'out_of_range' naming the range); draws outside it are left out.
  * @see IAU 2015 Resolution B2; Flower (1996); Torres (2010); JCGM 101:2008
  */
 export function bolometricFluxFromV(
@@ -142,12 +168,14 @@ export function bolometricFluxFromV(
   rV = DEFAULT_R_V,
   options: MonteCarloOptions = {},
 ): FluxFromV {
+  requireInsideBolometricCalibration(temperatureK.value);
   const excess = colourExcessMag ?? { value: 0, sigma: 0 };
   // F = f₀ 10^(−0.4 m_bol) falls as m_bol grows, so the draws are ranked by
   // −0.4 m_bol and the power of ten is taken for the few draws the interval
   // is read from; rV is checked once, at the nominal inputs.
+  // Draws of T outside the calibration are left out (counted as rejected), as the law refuses them.
   const exponent = (v: number, temperature: number, reddening: number): number => {
-    if (!(temperature > 0)) return Number.NaN;
+    if (!insideCalibration(temperature)) return Number.NaN;
     const mBol = v - rV * reddening + bolometricCorrectionOfLogT(Math.log10(temperature)) + BC_SHIFT_TO_IAU_2015_MAG;
     return Number.isFinite(mBol) ? -0.4 * mBol : Number.NaN;
   };
@@ -155,7 +183,8 @@ export function bolometricFluxFromV(
     rank: (draws) => {
       for (let s = 0; s < draws.count; s++) {
         const e = exponent(draws.input(0, s), draws.input(1, s), draws.input(2, s));
-        draws.keep(s, e > SAFE_FLUX_EXPONENT && !Number.isFinite(F0_WM2 * Math.pow(10, e)) ? Number.NaN : e);
+        const unsafe = (e > SAFE_FLUX_EXPONENT && !Number.isFinite(F0_WM2 * Math.pow(10, e))) || (e < -SAFE_FLUX_EXPONENT && !(F0_WM2 * Math.pow(10, e) > 0));
+        draws.keep(s, unsafe ? Number.NaN : e);
       }
     },
     // The power of ten is within an ulp, not proven monotone between neighbouring doubles: ranks that close are settled by the values.
@@ -169,5 +198,5 @@ export function bolometricFluxFromV(
     options,
     draws,
   );
-  return { fluxWm2, warnings: bolometricCorrectionWarnings(temperatureK.value) };
+  return { fluxWm2 };
 }

@@ -445,7 +445,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
           ids: uniqueIds([v.ids, extinctionSource?.ids ?? []]),
           dependsOn: ['temperature'],
           constants: ['f_0', 'L_0', 'L_sun'],
-          warnings: [...v.warnings, ...flux.warnings, ...extinctionWarnings('bolometric_flux'), ...mc.warnings],
+          warnings: [...v.warnings, ...extinctionWarnings('bolometric_flux'), ...mc.warnings],
         });
       });
     }

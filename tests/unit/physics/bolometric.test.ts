@@ -12,7 +12,6 @@ import {
   BC_SHIFT_TO_IAU_2015_MAG,
   bolometricCorrectionBranch,
   bolometricCorrectionVMag,
-  bolometricCorrectionWarnings,
   bolometricFluxFromV,
   bolometricFluxFromVWm2,
 } from '@shared/physics/bolometric-correction';
@@ -89,10 +88,54 @@ describe('bolometric correction (Flower 1996, Torres 2010 coefficients)', () => 
     }
   });
 
-  it('warns outside Flower’s 2900–52 500 K and names the limit', () => {
-    expect(bolometricCorrectionWarnings(2800)[0].limit).toBe('2900–52500 K');
-    expect(bolometricCorrectionWarnings(60_000)[0].code).toBe('outside_calibration');
-    expect(bolometricCorrectionWarnings(5772)).toHaveLength(0);
+  it('refuses temperatures outside Flower’s calibration stars, 2900–52 500 K (REFERENCES.md), naming the range, instead of extrapolating', () => {
+    // Extrapolated, the polynomials give BC_V(200 000 K) ≈ +45 mag and BC_V(1500 K) ≈ −53 mag, where real
+    // corrections are a few magnitudes (the dwarf table's BC_V spans −4.3 to −4.6 … +0.0: Pecaut & Mamajek 2013).
+    for (const t of [1500, 2899, 52_501, 200_000]) {
+      const refusal = (() => {
+        try {
+          bolometricCorrectionVMag(t);
+        } catch (error) {
+          return error;
+        }
+        return null;
+      })();
+      expect(refusal, `${t} K`).toBeInstanceOf(PhysicsError);
+      expect(refusal).toMatchObject({ code: 'out_of_range', limit: '2900–52500 K' });
+      expect(() => bolometricFluxFromVWm2(8, t, 0)).toThrow(PhysicsError);
+      expect(() => bolometricFluxFromV({ value: 8, sigma: 0.01 }, { value: t, sigma: 10 }, undefined)).toThrow(PhysicsError);
+    }
+    // The ends of the range themselves are calibrated (the coolest and hottest calibration stars).
+    expect(Number.isFinite(bolometricCorrectionVMag(2900))).toBe(true);
+    expect(Number.isFinite(bolometricCorrectionVMag(52_500))).toBe(true);
+  });
+
+  it('leaves out the Monte Carlo draws of T that fall outside the calibration: their share is the normal tail outside 2900–52 500 K', () => {
+    // T = 50 000 ± 20 000 K. Before, every draw up to 200 000 K was kept with an extrapolated BC_V (+45 mag there).
+    const flux = bolometricFluxFromV({ value: 8, sigma: 0.01 }, { value: 50_000, sigma: 20_000 }, undefined, 3.1, { samples: 4000, seed: 5 });
+    // Φ by Abramowitz & Stegun (1964) 7.1.26 (|error| < 1.5e-7), written here independently of the engine.
+    const phi = (z: number): number => {
+      const x = Math.abs(z) / Math.SQRT2;
+      const t = 1 / (1 + 0.3275911 * x);
+      const erf = 1 - t * (0.254829592 + t * (-0.284496736 + t * (1.421413741 + t * (-1.453152027 + t * 1.061405429)))) * Math.exp(-x * x);
+      return z >= 0 ? (1 + erf) / 2 : (1 - erf) / 2;
+    };
+    const expected = phi((2900 - 50_000) / 20_000) + 1 - phi((52_500 - 50_000) / 20_000);
+    const share = flux.fluxWm2.rejected / (flux.fluxWm2.rejected + flux.fluxWm2.accepted);
+    // Binomial σ of the share at 4000 draws is √(0.46 × 0.54 / 4000) ≈ 0.008: allow 4 of them.
+    expect(Math.abs(share - expected)).toBeLessThan(0.032);
+  });
+
+  it('refuses a flux that underflows to zero or overflows (a star of V = 800 mag has no flux a double can hold)', () => {
+    // f₀ 10^(−0.4 × 820) = 2.5e-8 × 1e-328 lies below the smallest double (≈ 4.9e-324, IEEE 754) and rounds to 0;
+    // f₀ 10^(+320) overflows to Infinity.
+    expect(() => bolometricFluxFromVWm2(820, 5772, 0)).toThrow(PhysicsError);
+    expect(() => bolometricFluxFromVWm2(-800, 5772, 0)).toThrow(PhysicsError);
+    try {
+      bolometricFluxFromVWm2(820, 5772, 0);
+    } catch (error) {
+      expect(error).toMatchObject({ code: 'out_of_range', quantity: 'bolometric_flux' });
+    }
   });
 
   it('puts Torres’s scale (M_bol☉ = 4.73) on the IAU 2015 one (4.74) by +0.010 mag', () => {
