@@ -5,7 +5,8 @@ import { readableMessage } from '@shared/physics/display';
 import { paths } from '@/config/paths';
 import { linkClasses } from '@/components/ui/button';
 import { formatDateTime } from '@/lib/format';
-import { DERIVED_STATUS_WORDS, derivedValueTexts, quantityName, quantityNameInText, sigmaChangeText } from '@/lib/derived-words';
+import { DerivedFigures, DerivedWarnings } from '@/components/ui/derived-line';
+import { derivedValueTexts, quantityName, quantityNameInText, sigmaChangeText } from '@/lib/derived-words';
 import { measurementKindName } from '@/lib/measurement-words';
 
 /** Input measurements grouped by what was measured, then by the upload they came from, rows listed together. */
@@ -89,7 +90,6 @@ export function QueueItemLine({
   const { proposed, approved } = item;
   const name = quantityName(proposed.quantity);
   const checkboxId = `queue-item-${proposed.id}`;
-  const texts = derivedValueTexts(proposed);
   return (
     <li
       className="flex gap-3 border-b border-rule/60 py-3"
@@ -126,17 +126,7 @@ export function QueueItemLine({
           </span>
         </p>
         <div className="mt-1 grid gap-x-6 gap-y-1 sm:grid-cols-2">
-          <p className="flex flex-wrap items-baseline gap-x-2 text-base text-ink tabular-nums" data-testid="queue-proposed">
-            {texts.map((t, i) => (
-              <span key={i} className={i === 0 ? 'font-semibold' : 'text-sm text-ink-soft'}>
-                {i > 0 ? '= ' : ''}
-                {t}
-              </span>
-            ))}
-            <span className="rounded-sm border border-rule px-1.5 text-xs font-semibold tracking-wide text-ink uppercase">
-              {DERIVED_STATUS_WORDS[proposed.status]}
-            </span>
-          </p>
+          <DerivedFigures value={proposed} dense data-testid="queue-proposed" />
           <p className="text-sm text-ink-soft tabular-nums" data-testid="queue-approved">
             {approved ? (
               <>
@@ -160,15 +150,7 @@ export function QueueItemLine({
             {item.upstream.map((u) => `${quantityNameInText(u.quantity)} r${u.revision}`).join(', ')}
           </p>
         ) : null}
-        {proposed.warnings.length > 0 ? (
-          <ul className="mt-1 space-y-0.5 text-xs" data-testid="queue-warnings">
-            {proposed.warnings.map((w, i) => (
-              <li key={i} className="text-alert">
-                <span className="font-semibold">Warning:</span> {readableMessage(w.message)}
-              </li>
-            ))}
-          </ul>
-        ) : null}
+        <DerivedWarnings warnings={proposed.warnings} className="mt-1" data-testid="queue-warnings" />
       </div>
     </li>
   );

@@ -1,6 +1,7 @@
 import type { DerivedValue, Measurement } from '@shared/schemas/derived';
 import { QUANTITY_NAMES, readableMessage } from '@shared/physics/display';
 import { Alert } from '@/components/ui/alert';
+import { DerivedFigures, DerivedWarnings } from '@/components/ui/derived-line';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
 import { DERIVED_STATUS_WORDS, derivedValueTexts, isKnownQuantity, quantityName, sigmaChangeText } from '@/lib/derived-words';
 import { formatDateTime } from '@/lib/format';
@@ -65,37 +66,18 @@ function ValueLine({
   /** The approved revision a newer proposal would replace, for the change in σ. */
   replaces?: DerivedValue;
 }) {
-  const texts = derivedValueTexts(value);
   const inputs = inputWords(value.inputs, measurements);
   const review = reviewWords(value);
   return (
     <div className="min-w-0" data-quantity={value.quantity} data-status={value.status} data-testid="derived-line">
-      <p className="flex flex-wrap items-baseline gap-x-3 text-base text-ink tabular-nums">
-        {texts.map((t, i) => (
-          <span key={i} className={i === 0 ? 'font-semibold' : 'text-ink-soft'}>
-            {i > 0 ? '= ' : ''}
-            {t}
-          </span>
-        ))}
-        <span className="rounded-sm border border-rule px-1.5 text-xs font-semibold tracking-wide text-ink uppercase" data-testid="derived-status">
-          {DERIVED_STATUS_WORDS[value.status]}
-        </span>
-      </p>
+      <DerivedFigures value={value} />
       {replaces ? <p className="text-xs text-ink">{sigmaChangeText(replaces, value)}</p> : null}
       <p className="mt-0.5 text-xs text-ink-soft">
         {readableMessage(value.methodLabel)} · revision {value.revision} · {formatDateTime(value.createdAt)}
       </p>
       {inputs.length > 0 ? <p className="mt-0.5 text-xs text-ink-soft">From {inputs.join(' · ')}</p> : null}
       {review ? <p className="mt-0.5 text-xs text-ink">{review}</p> : null}
-      {value.warnings.length > 0 ? (
-        <ul className="mt-0.5 space-y-0.5 text-xs">
-          {value.warnings.map((w, i) => (
-            <li key={i} className="text-alert">
-              <span className="font-semibold">Warning:</span> {readableMessage(w.message)}
-            </li>
-          ))}
-        </ul>
-      ) : null}
+      <DerivedWarnings warnings={value.warnings} className="mt-0.5" />
     </div>
   );
 }
