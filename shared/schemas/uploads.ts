@@ -62,8 +62,15 @@ export interface SpectrumPreview {
      */
     reducedChiSquare: number;
     weighted: boolean;
-    peakWavelengthM: number;
-    peakWavelengthSigmaM: number;
+    /**
+     * The continuum peak, found apart from the Planck fit: null when the data
+     * do not turn over inside the observed range (a hot star seen in the
+     * optical), and `noPeakReason` says why in words. Spectra stored before
+     * this field existed always have a peak.
+     */
+    peakWavelengthM: number | null;
+    peakWavelengthSigmaM: number | null;
+    noPeakReason?: string | null;
     warnings: { code: string; message: string }[];
   } | null;
 }

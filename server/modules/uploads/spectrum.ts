@@ -1,5 +1,6 @@
 import { findContinuumPeak, fitPlanck } from '../../../shared/physics/planck';
 import { PhysicsError } from '../../../shared/physics/errors';
+import type { Measured } from '../../../shared/physics/measured';
 import { toSi, type UnitName } from '../../../shared/physics/units';
 import { normaliseHeader, readNumber, type RowError } from '../../../shared/schemas/measurement-file';
 import type { SpectrumPreview } from '../../../shared/schemas/uploads';
@@ -20,9 +21,10 @@ function unitFromHeader(header: string): UnitName | null {
 
 /**
  * Reads a two- or three-column spectrum (wavelength, flux, optional flux
- * uncertainty), fits a Planck curve and finds the continuum peak. Row errors
- * name row and column; a fit that cannot be made is an error on the flux
- * column, not a crash.
+ * uncertainty), fits a Planck curve and, independently, finds the continuum
+ * peak. Row errors name row and column; a Planck fit that cannot be made is an
+ * error on the flux column, not a crash; a peak that cannot be found is not an
+ * error (the fit still stands) but is said in words beside the fit.
  */
 export function readSpectrum(
   table: CsvTable,
@@ -56,22 +58,34 @@ export function readSpectrum(
     const order = points.map((_, i) => i).sort((a, b) => points[a][0] - points[b][0]);
     const sorted = { wavelengthM: order.map((i) => points[i][0]), flux: order.map((i) => points[i][1]), fluxSigma: sHeader ? order.map((i) => sigma[i]) : undefined };
     spectrum.points = order.map((i) => points[i]);
+    // The fit and the peak are separate results: a hot star's peak lies blueward of the optical, yet its Planck fit stands.
+    let fit: ReturnType<typeof fitPlanck> | null = null;
     try {
-      const fit = fitPlanck(sorted);
-      const peak = findContinuumPeak(sorted);
+      fit = fitPlanck(sorted);
+    } catch (e) {
+      if (!(e instanceof PhysicsError)) throw e;
+      errors.push({ row: 1, column: fHeader, message: `No Planck fit: ${e.message}.` });
+    }
+    if (fit) {
+      let peak: Measured | null = null;
+      let noPeakReason: string | null = null;
+      try {
+        peak = findContinuumPeak(sorted);
+      } catch (e) {
+        if (!(e instanceof PhysicsError)) throw e;
+        noPeakReason = `No continuum peak is recorded: ${e.message}.`;
+      }
       spectrum.fit = {
         temperatureK: fit.temperatureK.value,
         temperatureSigmaK: fit.temperatureK.sigma,
         logScale: fit.logScale.value,
         reducedChiSquare: fit.reducedChiSquare,
         weighted: sorted.fluxSigma !== undefined,
-        peakWavelengthM: peak.value,
-        peakWavelengthSigmaM: peak.sigma,
+        peakWavelengthM: peak?.value ?? null,
+        peakWavelengthSigmaM: peak?.sigma ?? null,
+        noPeakReason,
         warnings: fit.warnings.map((w) => ({ code: w.code, message: w.message })),
       };
-    } catch (e) {
-      if (!(e instanceof PhysicsError)) throw e;
-      errors.push({ row: 1, column: fHeader, message: `No Planck fit: ${e.message}.` });
     }
   }
   return { spectrum, errors, rowCount: table.records.length };

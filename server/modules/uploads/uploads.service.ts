@@ -233,37 +233,38 @@ export function createUploadsService(db: Db, clock: Clock) {
       extra: {},
       observerUserId: actorUserId,
     };
-    await insertMeasurements(
-      trx,
-      [
-        {
-          ...common,
-          kind: 'planck_temperature',
-          valueSi: fit.temperatureK,
-          uncertaintySi: fit.temperatureSigmaK,
-          unitSi: 'K',
-          valueAsSent: fit.temperatureK,
-          uncertaintyAsSent: fit.temperatureSigmaK,
-          unitAsSent: 'K',
-          note: fit.weighted
-            ? `Planck fit to the spectrum of upload ${uploadId} (reduced χ² ${fit.reducedChiSquare.toPrecision(3)}).`
-            : `Planck fit to the spectrum of upload ${uploadId} (no flux uncertainties given; σ from the scatter about the fit).`,
-        },
-        {
-          ...common,
-          kind: 'peak_wavelength',
-          valueSi: fit.peakWavelengthM,
-          uncertaintySi: fit.peakWavelengthSigmaM,
-          unitSi: 'm',
-          valueAsSent: fit.peakWavelengthM,
-          uncertaintyAsSent: fit.peakWavelengthSigmaM,
-          unitAsSent: 'm',
-          note: `Continuum peak of the spectrum of upload ${uploadId}.`,
-        },
-      ],
-      now,
-    );
-    return { targetIds: [spectrum.targetId], createdTargets: [] as string[], measurementsAdded: 2 };
+    const planck = {
+      ...common,
+      kind: 'planck_temperature' as const,
+      valueSi: fit.temperatureK,
+      uncertaintySi: fit.temperatureSigmaK,
+      unitSi: 'K',
+      valueAsSent: fit.temperatureK,
+      uncertaintyAsSent: fit.temperatureSigmaK,
+      unitAsSent: 'K',
+      note: fit.weighted
+        ? `Planck fit to the spectrum of upload ${uploadId} (reduced χ² ${fit.reducedChiSquare.toPrecision(3)}).`
+        : `Planck fit to the spectrum of upload ${uploadId} (no flux uncertainties given; σ from the scatter about the fit).`,
+    };
+    // The peak is found apart from the fit; a hot star's lies outside the optical and only the fit is recorded.
+    const peak =
+      fit.peakWavelengthM === null || fit.peakWavelengthSigmaM === null
+        ? []
+        : [
+            {
+              ...common,
+              kind: 'peak_wavelength' as const,
+              valueSi: fit.peakWavelengthM,
+              uncertaintySi: fit.peakWavelengthSigmaM,
+              unitSi: 'm',
+              valueAsSent: fit.peakWavelengthM,
+              uncertaintyAsSent: fit.peakWavelengthSigmaM,
+              unitAsSent: 'm',
+              note: `Continuum peak of the spectrum of upload ${uploadId}.`,
+            },
+          ];
+    await insertMeasurements(trx, [planck, ...peak], now);
+    return { targetIds: [spectrum.targetId], createdTargets: [] as string[], measurementsAdded: 1 + peak.length };
   }
 
   return {

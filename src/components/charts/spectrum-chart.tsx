@@ -13,6 +13,11 @@ const MOST_POINTS_DRAWN = 1500;
 
 const fluxTick = (v: number) => (v === 0 ? '0' : Math.abs(v) >= 1e4 || Math.abs(v) < 1e-2 ? v.toExponential(1).replace('-', '−') : v.toPrecision(3));
 
+/** The continuum peak in nm, or null when the data do not turn over inside the range. */
+function peakOf(fit: SpectrumFit) {
+  return fit.peakWavelengthM != null && fit.peakWavelengthSigmaM != null ? formatMeasured(fit.peakWavelengthM * 1e9, fit.peakWavelengthSigmaM * 1e9, 'nm') : null;
+}
+
 /**
  * The fit in figures. The reduced χ² is a goodness-of-fit number only when
  * the file gave flux uncertainties; without them the fit is unweighted, the
@@ -21,7 +26,7 @@ const fluxTick = (v: number) => (v === 0 ? '0' : Math.abs(v) >= 1e4 || Math.abs(
  */
 function FitDetails({ fit, pointCount }: { fit: SpectrumFit; pointCount: number }) {
   const temperature = formatMeasured(fit.temperatureK, fit.temperatureSigmaK, 'K');
-  const peak = formatMeasured(fit.peakWavelengthM * 1e9, fit.peakWavelengthSigmaM * 1e9, 'nm');
+  const peak = peakOf(fit);
   return (
     <DetailList>
       <DetailItem label="Planck-fit temperature" numeric>
@@ -40,8 +45,12 @@ function FitDetails({ fit, pointCount }: { fit: SpectrumFit; pointCount: number 
           <span data-testid="spectrum-fit-quality">No flux uncertainties given; σ from the scatter about the fit.</span>
         </DetailItem>
       )}
-      <DetailItem label="Continuum peak" numeric>
-        {peak.text}
+      <DetailItem label="Continuum peak" numeric={peak !== null}>
+        {peak ? (
+          peak.text
+        ) : (
+          <span data-testid="spectrum-no-peak">{fit.noPeakReason ?? 'No continuum peak was found inside the observed range.'}</span>
+        )}
       </DetailItem>
       <DetailItem label="Points" numeric>
         {pointCount}
@@ -83,13 +92,13 @@ export function SpectrumChart({
 
   if (data.length === 0) return <p className="text-sm text-ink-soft italic">No points could be read from the file.</p>;
 
-  const peakNm = fit ? fit.peakWavelengthM * 1e9 : null;
+  const peakNm = fit?.peakWavelengthM != null ? fit.peakWavelengthM * 1e9 : null;
   const temperature = fit ? formatMeasured(fit.temperatureK, fit.temperatureSigmaK, 'K') : null;
-  const peak = fit ? formatMeasured(fit.peakWavelengthM * 1e9, fit.peakWavelengthSigmaM * 1e9, 'nm') : null;
+  const peak = fit ? peakOf(fit) : null;
   const first = data[0].nm;
   const last = data[data.length - 1].nm;
   const description = `Spectrum${designation ? ` of ${designation}` : ''}: ${points.length} points from ${first.toFixed(0)} to ${last.toFixed(0)} nm${
-    temperature ? `; Planck fit ${temperature.text}; continuum peak ${peak?.text}` : '; no Planck fit'
+    temperature ? `; Planck fit ${temperature.text}; ${peak ? `continuum peak ${peak.text}` : 'no continuum peak inside the range'}` : '; no Planck fit'
   }.`;
 
   return (

@@ -51,7 +51,9 @@ export function CommitPanel({
   const busy = commit.isPending || discard.isPending;
   const label =
     upload.kind === 'spectrum'
-      ? 'Commit the spectrum fit (2 measurements)'
+      ? upload.spectrum?.fit && upload.spectrum.fit.peakWavelengthM == null
+        ? 'Commit the Planck temperature (1 measurement; no continuum peak in range)'
+        : 'Commit the spectrum fit (2 measurements)'
       : `Commit all ${new Intl.NumberFormat('en-GB').format(upload.measurementCount)} measurement${upload.measurementCount === 1 ? '' : 's'}`;
 
   return (

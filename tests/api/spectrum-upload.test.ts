@@ -1,0 +1,50 @@
+import { afterEach, describe, expect, it } from 'vitest';
+import { syntheticSpectrum } from '../support/synthetic-spectrum';
+import { makeWorld, signIn, type Session, type World } from '../support/world';
+
+let world: World;
+afterEach(async () => world?.db.destroy());
+
+async function uploadSpectrum(s: Session, w: World, csv: string) {
+  return s.agent
+    .post(`/api/projects/${w.projectId}/uploads`)
+    .set('X-CSRF-Token', s.csrf)
+    .field('kind', 'spectrum')
+    .field('targetId', String(w.targetId))
+    .attach('file', Buffer.from(csv), 'spectrum.csv');
+}
+
+function csvOf(spectrum: { wavelengthM: number[]; flux: number[] }): string {
+  const rows = ['wavelength_nm,flux'];
+  spectrum.wavelengthM.forEach((l, i) => rows.push(`${(l * 1e9).toFixed(4)},${spectrum.flux[i].toPrecision(8)}`));
+  return rows.join('\n');
+}
+
+describe('spectrum upload: the Planck fit stands on its own', () => {
+  it('records the Planck temperature of a 20 000 K star seen over 400–700 nm, whose peak (145 nm by Wien) lies outside, and says why no peak is recorded', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    // Planck's law with CODATA 2018 h, c, k_B; 0.5 % noise of the brightest point, the same everywhere; the generator is the test's own.
+    const spectrum = syntheticSpectrum({ temperatureK: 20_000, fromM: 400e-9, toM: 700e-9, points: 301, seed: 20_000, constantNoise: 0.005 });
+    const res = await uploadSpectrum(s, world, csvOf(spectrum));
+    expect(res.status).toBe(201);
+    const up = res.body.upload;
+    expect(up.errors).toEqual([]);
+    const fit = up.spectrum.fit;
+    expect(Math.abs(fit.temperatureK - 20_000)).toBeLessThan(fit.temperatureSigmaK);
+    expect(fit.peakWavelengthM).toBeNull();
+    expect(fit.noPeakReason).toMatch(/outside the observed range/);
+
+    const done = await s.agent.post(`/api/projects/${world.projectId}/uploads/${up.id}/commit`).set('X-CSRF-Token', s.csrf).send({}).expect(200);
+    expect(done.body.measurementsAdded).toBe(1);
+    const m = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/measurements`).expect(200);
+    const kinds = m.body.measurements.map((x: { kind: string }) => x.kind);
+    expect(kinds).toEqual(['planck_temperature']);
+    const planck = m.body.measurements[0];
+    expect(Math.abs(planck.valueSi - 20_000)).toBeLessThan(planck.uncertaintySi);
+    const d = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/derived`).expect(200);
+    const quantities = d.body.derived.map((x: { quantity: string }) => x.quantity);
+    expect(quantities).toContain('temperature_planck');
+    expect(quantities).not.toContain('temperature_wien');
+  });
+});
