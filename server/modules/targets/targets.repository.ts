@@ -5,6 +5,7 @@ import type { DerivedStatus } from '../../../shared/schemas/derived';
 import { tableQuantities, tableQuantitySources, type ListTargetsQuery, type TableQuantity, type TableValue, type Target, type TargetRow } from '../../../shared/schemas/targets';
 import type { Page } from '../../../shared/schemas/common';
 import { parseJson, toIso } from '../../lib/rows';
+import type { DerivedRow } from '../derived-values/derived-values.repository';
 
 export interface TargetRecord {
   id: number;
@@ -76,15 +77,7 @@ function shownRevisions(db: Db, projectId: number, quantity: string, statuses: r
     });
 }
 
-interface ShownRow {
-  target_id: number;
-  quantity: string;
-  value: number;
-  uncertainty: number;
-  unit: string;
-  label: string | null;
-  status: DerivedStatus;
-}
+type ShownRow = Pick<DerivedRow, 'target_id' | 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label' | 'status'>;
 
 /** The table's values of the given targets, each column from the first of its sources that has a shown revision. */
 async function tableValuesOf(db: Db, targetIds: number[], statuses: readonly DerivedStatus[]): Promise<Map<number, TargetRow['values']>> {
