@@ -267,25 +267,66 @@ function invert4(m: number[][]): number[][] | null {
 const PEAK_REGION_FRACTION = 0.8;
 
 /**
+ * How far, in standard errors of the fitted curve, the continuum must fall
+ * on each side of a peak for the turnover to count as seen rather than noise.
+ * Three standard errors is common practice for a detection.
+ */
+const TURNOVER_SIGMAS = 3;
+
+/**
+ * Running median over `window` consecutive points (made odd, at most the
+ * number of points). Near either end the window is kept whole and shifted
+ * inward rather than shrunk, so that a few bad points at the end of a
+ * spectrum never make up half of it.
+ */
+function runningMedian(values: readonly number[], window: number): number[] {
+  const n = values.length;
+  let w = Math.min(window, n);
+  if (w % 2 === 0) w -= 1;
+  const half = w >> 1;
+  const out = new Array<number>(n);
+  for (let i = 0; i < n; i++) {
+    const lo = Math.min(Math.max(0, i - half), n - w);
+    out[i] = median(values.slice(lo, lo + w));
+  }
+  return out;
+}
+
+/** The plain-words refusal when the continuum does not turn over inside the observed range. */
+function peakOutside(lambda: readonly number[], why: string): PhysicsError {
+  const range = `${(lambda[0] * 1e9).toFixed(1)}–${(lambda[lambda.length - 1] * 1e9).toFixed(1)} nm`;
+  return new PhysicsError('peak_at_edge', 'peak_wavelength', `${why}; the peak lies outside the observed range (${range})`, range);
+}
+
+/**
  * Wavelength in m of the continuum peak of a spectrum sorted or unsorted by
  * wavelength, with its 1-sigma uncertainty.
  *
  * The flux is smoothed with a running median (window of `windowPoints`,
- * default one twentieth of the points, at least 5) to find the top of the
- * continuum without being pulled by noise or absorption lines. A cubic in
- * wavelength is then fitted by least squares to the measured points where
- * the smoothed flux is at least 80 % of its maximum, leaving out line cores
- * (points more than three noise levels below the smoothed curve); a cubic
- * rather than a parabola because a blackbody's peak is lopsided, steeper on
- * the blue side. The peak is where the cubic's slope is zero, and σ follows
- * from the fit's covariance (scaled by its residual variance, or weighted by
- * the flux uncertainties when given) by first-order propagation through that
- * root, never below half a sampling step. The window and the cubic are
+ * default one twentieth of the points, at least 5, kept whole at the ends) to
+ * find the top of the continuum without being pulled by noise, absorption
+ * lines or a few bad points at an end. A cubic in wavelength is then fitted by
+ * least squares to the measured points where the smoothed flux is at least
+ * 80 % of its maximum, leaving out line cores (points more than three noise
+ * levels below the smoothed curve); a cubic rather than a parabola because a
+ * blackbody's peak is lopsided, steeper on the blue side. The peak is where
+ * the cubic's slope is zero, and σ follows from the fit's covariance (scaled
+ * by its residual variance, or weighted by the flux uncertainties when given)
+ * by first-order propagation through that root, never below half a sampling
+ * step.
+ *
+ * A peak is reported only where the data turn over inside the range: the
+ * cubic's maximum must lie inside the fitted window and the cubic must fall
+ * from it to both ends of the window by more than three of its standard
+ * errors. Otherwise the peak lies outside the observed range (a hot star seen
+ * in the optical) and that is what the error says.
+ *
+ * The window, the 80 % region, the cubic and the three-σ turnover are
  * Starledger's own choices; the least-squares and propagation steps are
  * textbook (Bevington & Robinson, Data Reduction and Error Analysis, 3rd ed.,
  * ch. 7 and 3; from memory).
- * Throws PhysicsError('peak_at_edge') when the peak is at either end, and
- * ('fit_failed') when the region around it is too small to fit.
+ * Throws PhysicsError('peak_at_edge') when the peak lies outside the observed
+ * range, and ('fit_failed') when the region around it has too few points.
  * @see REFERENCES.md "Limits of the simple models"
  */
 export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Measured {
@@ -296,24 +337,11 @@ export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Me
   const lambda = order.map((i) => spectrum.wavelengthM[i]);
   const flux = order.map((i) => spectrum.flux[i]);
   const fluxSigma = spectrum.fluxSigma ? order.map((i) => spectrum.fluxSigma![i]) : null;
-  let w = windowPoints ?? Math.max(5, Math.floor(n / 20));
-  if (w % 2 === 0) w += 1;
-  const half = Math.min(w >> 1, Math.floor((n - 1) / 2));
-  const smooth = new Array<number>(n);
-  for (let i = 0; i < n; i++) {
-    const lo = Math.max(0, i - half);
-    const hi = Math.min(n - 1, i + half);
-    smooth[i] = median(flux.slice(lo, hi + 1));
-  }
+  const smooth = runningMedian(flux, windowPoints ?? Math.max(5, Math.floor(n / 20)));
   let top = 0;
   for (let i = 1; i < n; i++) if (smooth[i] > smooth[top]) top = i;
   if (top === 0 || top === n - 1) {
-    throw new PhysicsError(
-      'peak_at_edge',
-      'peak_wavelength',
-      `the continuum rises to the ${top === 0 ? 'blue' : 'red'} end of the spectrum (${(lambda[top] * 1e9).toFixed(1)} nm); its peak lies outside the observed range`,
-      `${(lambda[0] * 1e9).toFixed(1)}–${(lambda[n - 1] * 1e9).toFixed(1)} nm`,
-    );
+    throw peakOutside(lambda, `the continuum rises to the ${top === 0 ? 'blue' : 'red'} end of the spectrum`);
   }
   const noise = 1.4826 * median(flux.map((f, i) => Math.abs(f - smooth[i])));
   let left = top;
@@ -330,9 +358,14 @@ export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Me
     if (flux[i] < smooth[i] - 3 * noise) continue;
     rows.push({ x: (lambda[i] - centre) / span, y: flux[i], weight: fluxSigma ? 1 / (fluxSigma[i] * fluxSigma[i]) : 1 });
   }
-  const fail = () =>
-    new PhysicsError('fit_failed', 'peak_wavelength', `too few points around the continuum peak to locate it (${rows.length} within 80 % of the maximum)`, '≥ 6 points');
-  if (rows.length < 6) throw fail();
+  if (rows.length < 6) {
+    throw new PhysicsError(
+      'fit_failed',
+      'peak_wavelength',
+      `too few points around the continuum peak to locate it (${rows.length} within 80 % of the maximum)`,
+      '≥ 6 points',
+    );
+  }
   const normal = Array.from({ length: 4 }, () => [0, 0, 0, 0]);
   const rhs = [0, 0, 0, 0];
   for (const { x, y, weight } of rows) {
@@ -343,15 +376,19 @@ export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Me
     }
   }
   const inverse = invert4(normal);
-  if (!inverse) throw fail();
+  if (!inverse) throw new PhysicsError('fit_failed', 'peak_wavelength', 'the points around the continuum peak do not determine a curve (too few distinct wavelengths)');
   const coef = inverse.map((row) => row.reduce((sum, v, j) => sum + v * rhs[j], 0));
+  const cubic = (x: number) => coef[0] + coef[1] * x + coef[2] * x * x + coef[3] * x * x * x;
   let chi2 = 0;
-  for (const { x, y, weight } of rows) {
-    const model = coef[0] + coef[1] * x + coef[2] * x * x + coef[3] * x * x * x;
-    chi2 += weight * (y - model) ** 2;
-  }
+  for (const { x, y, weight } of rows) chi2 += weight * (y - cubic(x)) ** 2;
   // Without flux uncertainties the weights are 1 and the scatter sets the scale; with them, χ²/dof scales a poor fit up, never down.
   const scale = fluxSigma ? Math.max(1, chi2 / (rows.length - 4)) : chi2 / (rows.length - 4);
+  /** Variance of gᵀc, for a gradient g with respect to the cubic's coefficients. */
+  const varianceOf = (g: readonly number[]) => {
+    let v = 0;
+    for (let a = 0; a < 4; a++) for (let b = 0; b < 4; b++) v += g[a] * inverse[a][b] * g[b];
+    return Math.max(0, v * scale);
+  };
 
   // Slope zero: c1 + 2 c2 x + 3 c3 x² = 0, the root nearest the smoothed top with a maximum there.
   const [, c1, c2, c3] = coef;
@@ -362,16 +399,26 @@ export function findContinuumPeak(spectrum: Spectrum, windowPoints?: number): Me
     const disc = 4 * c2 * c2 - 12 * c3 * c1;
     if (disc >= 0) for (const sign of [1, -1]) candidates.push((-2 * c2 + sign * Math.sqrt(disc)) / (6 * c3));
   }
-  const xMin = (lambda[left] - centre) / span;
-  const xMax = (lambda[right] - centre) / span;
-  const roots = candidates.filter((x) => 2 * c2 + 6 * c3 * x < 0 && x >= xMin && x <= xMax).sort((p, q) => Math.abs(p) - Math.abs(q));
-  if (roots.length === 0) throw fail();
+  const xMin = rows[0].x;
+  const xMax = rows[rows.length - 1].x;
+  const windowWords = `${(lambda[left] * 1e9).toFixed(1)}–${(lambda[right] * 1e9).toFixed(1)} nm`;
+  const roots = candidates.filter((x) => 2 * c2 + 6 * c3 * x < 0 && x > xMin && x < xMax).sort((p, q) => Math.abs(p) - Math.abs(q));
+  if (roots.length === 0) throw peakOutside(lambda, `the continuum does not turn over between ${windowWords} (the curve fitted there has no maximum inside it)`);
   const x = roots[0];
+  // The fall from the top to each end of the window; at the top the slope is zero, so only the coefficients move it to first order.
+  for (const [end, side] of [
+    [xMin, 'blue'],
+    [xMax, 'red'],
+  ] as const) {
+    const drop = cubic(x) - cubic(end);
+    const sigmaDrop = Math.sqrt(varianceOf([0, x - end, x * x - end * end, x * x * x - end * end * end]));
+    if (!(drop > TURNOVER_SIGMAS * sigmaDrop)) {
+      throw peakOutside(lambda, `the continuum does not fall on the ${side} side of its highest point (${windowWords}) by more than the noise`);
+    }
+  }
   const curvature = 2 * c2 + 6 * c3 * x;
   // ∂x/∂cₖ = −(∂slope/∂cₖ) / curvature, with ∂slope/∂(c0, c1, c2, c3) = (0, 1, 2x, 3x²).
   const g = [0, 1, 2 * x, 3 * x * x].map((d) => -d / curvature);
-  let variance = 0;
-  for (let a = 0; a < 4; a++) for (let b = 0; b < 4; b++) variance += g[a] * inverse[a][b] * g[b];
-  const sigma = Math.max(Math.sqrt(Math.max(0, variance * scale)) * span, step / 2);
+  const sigma = Math.max(Math.sqrt(varianceOf(g)) * span, step / 2);
   return { value: centre + x * span, sigma };
 }

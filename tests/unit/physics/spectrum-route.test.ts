@@ -1,0 +1,58 @@
+import { describe, expect, it } from 'vitest';
+import { PhysicsError } from '@shared/physics/errors';
+import { findContinuumPeak } from '@shared/physics/planck';
+import { syntheticSpectrum, WIEN_B } from '../../support/synthetic-spectrum';
+
+/** The error a call throws, for tests that read its code and words. */
+function thrown(f: () => unknown): PhysicsError {
+  try {
+    f();
+  } catch (e) {
+    expect(e).toBeInstanceOf(PhysicsError);
+    return e as PhysicsError;
+  }
+  throw new Error('expected a PhysicsError');
+}
+
+describe('continuum peak: only where the data turn over inside the range', () => {
+  // A 30 000 K star peaks at b / T = 96.6 nm (CODATA 2018 b), far blueward of 400 nm: over 400–700 nm its flux only falls.
+  it.each([
+    ['three points 10 % low', 3, 0.9],
+    ['five points 6 % low', 5, 0.94],
+    ['six points 15 % low', 6, 0.85],
+  ])('a 30 000 K star over 400–700 nm with %s at the blue end has no peak, and the error says it lies outside the range', (_what, count, factor) => {
+    for (const seed of [1, 2, 3, 4, 5]) {
+      const s = syntheticSpectrum({ temperatureK: 30_000, fromM: 400e-9, toM: 700e-9, points: 301, seed, constantNoise: 0.003 });
+      for (let i = 0; i < count; i++) s.flux[i] *= factor;
+      const e = thrown(() => findContinuumPeak(s));
+      expect(e.code).toBe('peak_at_edge');
+      expect(e.message).toMatch(/outside the observed range/);
+      expect(e.message).not.toMatch(/too few points/);
+    }
+  });
+
+  it('a spectrum whose flux only falls, with no low points, says the peak lies outside the range (not "too few points")', () => {
+    for (const t of [12_000, 20_000, 40_000]) {
+      const s = syntheticSpectrum({ temperatureK: t, fromM: 400e-9, toM: 700e-9, points: 301, seed: t, constantNoise: 0.003 });
+      const e = thrown(() => findContinuumPeak(s));
+      expect(e.code).toBe('peak_at_edge');
+      expect(e.message).toMatch(/outside the observed range/);
+    }
+  });
+
+  it('a cool star whose flux only rises to the red end says the same', () => {
+    const s = syntheticSpectrum({ temperatureK: 3200, fromM: 400e-9, toM: 700e-9, points: 301, seed: 9, relativeNoise: 0.005 });
+    const e = thrown(() => findContinuumPeak(s));
+    expect(e.code).toBe('peak_at_edge');
+    expect(e.message).toMatch(/outside the observed range/);
+  });
+
+  it.each([6500, 5200, 4600])('still finds a real peak inside the range: %i K over 400–700 nm within 3σ of b / T (CODATA 2018 b)', (t) => {
+    // 6500 K peaks at 445.8 nm, 5200 K at 557.3 nm, 4600 K at 629.9 nm: all inside 400–700 nm.
+    for (const seed of [11, 12, 13]) {
+      const s = syntheticSpectrum({ temperatureK: t, fromM: 400e-9, toM: 700e-9, points: 301, seed, constantNoise: 0.003 });
+      const peak = findContinuumPeak(s);
+      expect(Math.abs(peak.value - WIEN_B / t)).toBeLessThan(3 * peak.sigma);
+    }
+  });
+});
