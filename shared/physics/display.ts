@@ -210,6 +210,19 @@ export function formatResult(result: DisplayableResult): DisplayLine {
   return { name, label: result.label ?? null, values };
 }
 
+/**
+ * An upper limit in SI as the sheet prints it: "< 0.46 km s⁻¹ (1σ)", in the
+ * quantity's first display unit (kG for fields of 1000 G and more), to two
+ * significant figures.
+ * @see detection.ts (the 1σ limit of a non-detection)
+ */
+export function upperLimitText(quantity: QuantityId, limitSi: number): string {
+  if (!Number.isFinite(limitSi)) throw new PhysicsError('not_finite', 'display', 'only a finite upper limit can be displayed');
+  const unit: UnitName = quantity === 'magnetic_field' && Math.abs(fromSi(limitSi, 'G')) >= 1000 ? 'kG' : DISPLAY_UNITS[quantity][0];
+  const symbol = UNITS[unit].symbol;
+  return `< ${String(Number(fromSi(limitSi, unit).toPrecision(2)))}${symbol ? ` ${symbol}` : ''} (1σ)`;
+}
+
 // Only ids with an underscore: the one-word ids (temperature, luminosity,
 // radius) read as ordinary words already.
 const QUANTITY_ID_PATTERN = new RegExp(

@@ -9,6 +9,7 @@
 export type PhysicsErrorCode =
   | 'not_finite'
   | 'non_positive'
+  | 'negative'
   | 'negative_uncertainty'
   | 'unknown_unit'
   | 'unknown_kind'
@@ -16,7 +17,8 @@ export type PhysicsErrorCode =
   | 'missing_input'
   | 'fit_failed'
   | 'peak_at_edge'
-  | 'too_few_points';
+  | 'too_few_points'
+  | 'unphysical';
 
 /**
  * An input a physics function refuses: never answered with NaN, Infinity or a clamp.
@@ -51,7 +53,10 @@ export type PhysicsWarningCode =
   | 'monte_carlo_rejected'
   | 'measurements_disagree'
   | 'assumed_class'
-  | 'bc_zero_point';
+  | 'bc_zero_point'
+  | 'upper_limit'
+  | 'class_boundary'
+  | 'implausible';
 
 /** A caution attached to a computed value; it names the quantity and the limit. */
 export interface PhysicsWarning {
@@ -80,6 +85,19 @@ export function requirePositive(value: number, quantity: string): number {
   requireFinite(value, quantity);
   if (value <= 0) {
     throw new PhysicsError('non_positive', quantity, `${quantity} must be greater than 0 (got ${value})`, '> 0');
+  }
+  return value;
+}
+
+/**
+ * Throws PhysicsError('negative') unless `value` is finite and ≥ 0: for a
+ * measured size such as a line separation, where 0 (nothing detected) is data.
+ * @see PRODUCT.md "Derivations": bad input gives a clear typed error, never NaN or Infinity
+ */
+export function requireNonNegative(value: number, quantity: string): number {
+  requireFinite(value, quantity);
+  if (value < 0) {
+    throw new PhysicsError('negative', quantity, `${quantity} must be 0 or more (got ${value})`, '≥ 0');
   }
   return value;
 }

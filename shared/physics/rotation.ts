@@ -1,33 +1,34 @@
 import { CONSTANTS } from './constants';
-import { requirePositive } from './errors';
-import { powerLaw, type Measured } from './measured';
+import { requireFiniteResult, requireNonNegative, requirePositive, requireUncertainty } from './errors';
+import type { Measured } from './measured';
 
 /**
  * Equatorial rotation velocity projected on the line of sight, v sin i, in
  * m s⁻¹, from the wavelength separation in m of one line between the
  * approaching and the receding limb and the line's rest wavelength in m:
- * v sin i = c Δλ / (2 λ₀).
+ * v sin i = c Δλ / (2 λ₀). A separation of 0 (no broadening seen) is data
+ * and gives 0; a negative one is refused.
  * @see REFERENCES.md "Rotation from the two limbs"; CODATA 2018 c
  */
 export function rotationVelocityMs(limbSeparationM: number, restWavelengthM: number): number {
-  requirePositive(limbSeparationM, 'limb_separation');
+  requireNonNegative(limbSeparationM, 'limb_separation');
   requirePositive(restWavelengthM, 'rest_wavelength');
   return (CONSTANTS.c.value * limbSeparationM) / (2 * restWavelengthM);
 }
 
 /**
- * v sin i with first-order σ: (σ_v/v)² = (σ_Δλ/Δλ)² + (σ_λ₀/λ₀)². In: m, m; out: m s⁻¹.
- * @see REFERENCES.md "Rotation from the two limbs"
+ * v sin i with first-order σ from the partial derivatives,
+ * σ_v² = (c σ_Δλ / 2λ₀)² + (c Δλ σ_λ₀ / 2λ₀²)², which is the relative form
+ * (σ_v/v)² = (σ_Δλ/Δλ)² + (σ_λ₀/λ₀)² for Δλ > 0 and stays defined at Δλ = 0.
+ * In: m, m; out: m s⁻¹.
+ * @see REFERENCES.md "Rotation from the two limbs"; JCGM 100:2008 (GUM) eq. 10
  */
 export function rotationVelocity(limbSeparationM: Measured, restWavelengthM: Measured): Measured {
-  requirePositive(limbSeparationM.value, 'limb_separation');
-  requirePositive(restWavelengthM.value, 'rest_wavelength');
-  return powerLaw(
-    CONSTANTS.c.value / 2,
-    [
-      { x: limbSeparationM, power: 1, name: 'limb_separation' },
-      { x: restWavelengthM, power: -1, name: 'rest_wavelength' },
-    ],
-    'rotation_velocity',
-  );
+  const value = rotationVelocityMs(limbSeparationM.value, restWavelengthM.value);
+  requireUncertainty(limbSeparationM.sigma, 'limb_separation');
+  requireUncertainty(restWavelengthM.sigma, 'rest_wavelength');
+  const perSeparation = CONSTANTS.c.value / (2 * restWavelengthM.value);
+  const perRest = value / restWavelengthM.value;
+  const sigma = Math.hypot(perSeparation * limbSeparationM.sigma, perRest * restWavelengthM.sigma);
+  return { value, sigma: requireFiniteResult(sigma, 'rotation_velocity') };
 }

@@ -1,6 +1,6 @@
 import { CONSTANTS } from './constants';
-import { PhysicsError, requireFinite, requirePositive } from './errors';
-import { powerLaw, type Measured } from './measured';
+import { PhysicsError, requireFinite, requireFiniteResult, requireNonNegative, requirePositive, requireUncertainty } from './errors';
+import type { Measured } from './measured';
 
 /**
  * Normal Zeeman effect: each σ component lies Δλ = g e λ² B / (4π m_e c) from
@@ -50,30 +50,29 @@ export function zeemanSplittingM(landeG: number, wavelengthM: number, fieldT: nu
 /**
  * Field strength in T from a Zeeman displacement in m, Landé g and the rest
  * wavelength in m: B = Δλ / (k g λ²), k = e / (4π m_e c). A negative g gives
- * the magnitude of the field. In the trade's units, 1 T = 10⁴ G.
+ * the magnitude of the field. A displacement of 0 (no splitting seen) is
+ * data and gives 0; a negative one is refused. In the trade's units, 1 T = 10⁴ G.
  * @see CODATA 2018 e, m_e, c; REFERENCES.md "Zeeman splitting"
  */
 export function magneticFieldT(splittingM: number, landeG: number, restWavelengthM: number): number {
-  requirePositive(splittingM, 'zeeman_separation');
+  requireNonNegative(splittingM, 'zeeman_separation');
   requireLandeG(landeG);
   requirePositive(restWavelengthM, 'rest_wavelength');
   return splittingM / (ZEEMAN_COEFFICIENT_PER_M_TESLA * Math.abs(landeG) * restWavelengthM * restWavelengthM);
 }
 
 /**
- * Field in T with first-order σ: (σ_B/B)² = (σ_Δλ/Δλ)² + (2σ_λ/λ)²; g is taken as exact.
- * @see CODATA 2018 e, m_e, c
+ * Field in T with first-order σ from the partial derivatives,
+ * σ_B² = (σ_Δλ / k g λ²)² + (2 B σ_λ / λ)², the relative form
+ * (σ_B/B)² = (σ_Δλ/Δλ)² + (2σ_λ/λ)² for Δλ > 0, defined at Δλ = 0 too; g is taken as exact.
+ * @see CODATA 2018 e, m_e, c; JCGM 100:2008 (GUM) eq. 10
  */
 export function magneticField(splittingM: Measured, landeG: number, restWavelengthM: Measured): Measured {
-  requirePositive(splittingM.value, 'zeeman_separation');
-  requireLandeG(landeG);
-  requirePositive(restWavelengthM.value, 'rest_wavelength');
-  return powerLaw(
-    1 / (ZEEMAN_COEFFICIENT_PER_M_TESLA * Math.abs(landeG)),
-    [
-      { x: splittingM, power: 1, name: 'zeeman_separation' },
-      { x: restWavelengthM, power: -2, name: 'rest_wavelength' },
-    ],
-    'magnetic_field',
-  );
+  const value = magneticFieldT(splittingM.value, landeG, restWavelengthM.value);
+  requireUncertainty(splittingM.sigma, 'zeeman_separation');
+  requireUncertainty(restWavelengthM.sigma, 'rest_wavelength');
+  const perSplitting = 1 / (ZEEMAN_COEFFICIENT_PER_M_TESLA * Math.abs(landeG) * restWavelengthM.value * restWavelengthM.value);
+  const perRest = (2 * value) / restWavelengthM.value;
+  const sigma = Math.hypot(perSplitting * splittingM.sigma, perRest * restWavelengthM.sigma);
+  return { value, sigma: requireFiniteResult(sigma, 'magnetic_field') };
 }

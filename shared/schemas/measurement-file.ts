@@ -39,14 +39,9 @@ const ROW_FIELDS: readonly Field[] = ['target', 'ra', 'dec', 'observed_at', 'ins
 
 const NEEDS_BAND: readonly FileQuantity[] = ['magnitude', 'colour_index'];
 const NEEDS_REST: readonly FileQuantity[] = ['line_wavelength', 'limb_separation', 'zeeman_separation'];
-const MUST_BE_POSITIVE: readonly FileQuantity[] = [
-  'peak_wavelength',
-  'line_wavelength',
-  'limb_separation',
-  'zeeman_separation',
-  'bolometric_flux',
-  'parallax',
-];
+const MUST_BE_POSITIVE: readonly FileQuantity[] = ['peak_wavelength', 'line_wavelength', 'bolometric_flux', 'parallax'];
+/** Sizes for which 0 (no rotation, no field detected) is a measurement. */
+const MUST_NOT_BE_NEGATIVE: readonly FileQuantity[] = ['limb_separation', 'zeeman_separation'];
 
 export const columnRole = z.discriminatedUnion('role', [
   z.object({ role: z.literal('field'), field: z.enum(FIELDS) }),
@@ -345,6 +340,7 @@ function normalise(raw: RawMeasurement, errors: RowError[], cache: ReadCache): N
   let restSi: number | null = null;
   if (kind && value !== null) {
     if (MUST_BE_POSITIVE.includes(kind) && value <= 0) err('value', `A ${kind} must be positive (got ${value}).`);
+    if (MUST_NOT_BE_NEGATIVE.includes(kind) && value < 0) err('value', `A ${kind} must be 0 or more (got ${value}); 0 means nothing was detected.`);
     try {
       si = measurementToSi(kind, value, unit, uncertainty ?? 0);
       if (restValue !== null) restSi = measurementToSi(kind, restValue, unit, 0).valueSi;

@@ -30,11 +30,19 @@ export function quantityNameInText(quantity: string): string {
 const displayable = (d: Pick<DerivedValue, 'quantity' | 'value' | 'uncertainty'>): d is typeof d & { quantity: QuantityId } =>
   isKnownQuantity(d.quantity) && Number.isFinite(d.value) && Number.isFinite(d.uncertainty) && d.uncertainty >= 0;
 
-/** The value in astronomers' units (one text per display unit), or the stored SI figures when the quantity is not one the display knows. */
-export function derivedValueTexts(d: Pick<DerivedValue, 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label'>): string[] {
+/**
+ * The value in astronomers' units (one text per display unit), or the stored
+ * SI figures when the quantity is not one the display knows. A non-detection
+ * (an `upper_limit` warning) reads as its limit first: "< 0.46 km s⁻¹ (1σ), not detected (0.0 ± 0.5 km s⁻¹)".
+ */
+export function derivedValueTexts(
+  d: Pick<DerivedValue, 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label'> & { warnings?: DerivedValue['warnings'] },
+): string[] {
   if (!displayable(d)) return [`${d.value} ± ${d.uncertainty} ${d.unit}`];
   const line = formatResult({ quantity: d.quantity, value: d.value, uncertainty: d.uncertainty, label: d.label ?? undefined });
   const texts = line.values.map((v) => v.text);
+  const upperLimit = d.warnings?.find((w) => w.code === 'upper_limit' && w.limit)?.limit;
+  if (upperLimit) return texts.map((t) => `${upperLimit}, not detected (${t})`);
   return d.quantity === 'luminosity_class' && line.label ? [`${line.label}: ${texts[0]}`] : texts;
 }
 

@@ -39,4 +39,12 @@ describe('derived value lines', () => {
   it('names a quantity inside a sentence in lower case', () => {
     expect(quantityNameInText('temperature_wien')).toBe('effective temperature (Wien)');
   });
+
+  it('prints a non-detection as its upper limit, then the measured value (0 ± 456.8 m/s: "< 0.46 km s⁻¹ (1σ)")', () => {
+    // v sin i = c σ_Δλ / (2 λ₀) for 0 ± 0.002 nm at Hα 656.279 nm: 299 792 458 × 0.002 / 1312.558 = 456.8 m/s (CODATA c).
+    const sigma = (299_792_458 * 0.002) / (2 * 656.279);
+    const warnings = [{ code: 'upper_limit', quantity: 'rotation_velocity', message: 'not detected', limit: '< 0.46 km s⁻¹ (1σ)' }];
+    const texts = derivedValueTexts({ quantity: 'rotation_velocity', value: 0, uncertainty: sigma, unit: 'm/s', label: null, warnings });
+    expect(texts).toEqual(['< 0.46 km s⁻¹ (1σ), not detected (0.0 ± 0.5 km s⁻¹)']);
+  });
 });

@@ -2,6 +2,7 @@ import { absoluteBolometricMagnitude } from '../bolometric';
 import { BC_SHIFT_TO_IAU_2015_MAG, bolometricFluxFromV } from '../bolometric-correction';
 import { colourTemperature } from '../colour-temperature';
 import type { ConstantSymbol } from '../constants';
+import { nonDetectionWarnings } from '../detection';
 import { radialVelocity } from '../doppler';
 import { PhysicsError, type PhysicsWarning } from '../errors';
 import { DEFAULT_R_V } from '../extinction';
@@ -647,6 +648,7 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
           ),
         );
       }
+      warnings.push(...nonDetectionWarnings(quantity, value));
       record(quantity, {
         value: value.value,
         uncertainty: value.sigma,

@@ -37,10 +37,11 @@ const POSITIVE: ReadonlySet<MeasurementKind> = new Set([
   'bolometric_flux',
   'parallax',
   'line_wavelength',
-  'limb_separation',
-  'zeeman_separation',
   'planck_temperature',
 ]);
+
+/** Sizes for which 0 (nothing detected) is data: they must not be negative. */
+const NON_NEGATIVE: ReadonlySet<MeasurementKind> = new Set(['limb_separation', 'zeeman_separation']);
 
 /** Kinds that need the line's rest wavelength. */
 const LINE_KINDS: ReadonlySet<MeasurementKind> = new Set(['line_wavelength', 'limb_separation', 'zeeman_separation']);
@@ -72,6 +73,7 @@ function check(m: MeasurementInput): ValidMeasurement {
   if (!isFiniteNumber(sigma)) refuse('not_finite', kind, `${kind} uncertainty must be a finite number (got ${String(sigma)})`, 'finite');
   if (sigma < 0) refuse('negative_uncertainty', kind, `${kind} uncertainty must be ≥ 0 (got ${sigma} ${unit})`, '≥ 0');
   if (POSITIVE.has(kind) && m.valueSi <= 0) refuse('non_positive', kind, `${kind} must be greater than 0 (got ${m.valueSi} ${unit})`, '> 0');
+  if (NON_NEGATIVE.has(kind) && m.valueSi < 0) refuse('negative', kind, `${kind} must be 0 or more (got ${m.valueSi} ${unit})`, '≥ 0');
   const band = normaliseBand(m.band);
   if ((kind === 'magnitude' || kind === 'colour_index') && band === undefined) {
     refuse('missing_input', kind, `${kind} needs its band (e.g. ${kind === 'magnitude' ? 'V' : 'B-V'})`);

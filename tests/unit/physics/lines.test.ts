@@ -83,10 +83,18 @@ describe('rotation from the two limbs', () => {
     expect(rotationVelocityMs(0.02e-9, 656.279e-9) / 1000).toBeCloseTo(4.568, 3);
   });
 
-  it('propagates σ first order and refuses a non-positive separation', () => {
+  it('propagates σ first order and refuses a negative separation', () => {
     const v = rotationVelocity({ value: 0.02e-9, sigma: 0.002e-9 }, { value: 656.279e-9, sigma: 0 });
     expect(v.sigma / v.value).toBeCloseTo(0.1, 12);
-    expect(() => rotationVelocityMs(0, 656e-9)).toThrow(PhysicsError);
+    expect(() => rotationVelocityMs(-0.01e-9, 656e-9)).toThrow(PhysicsError);
+  });
+
+  it('a measured separation of 0 ± 0.002 nm is data: v sin i = 0 ± c σ_Δλ / (2 λ₀) = 0 ± 0.4568 km/s (REFERENCES.md, CODATA c)', () => {
+    expect(rotationVelocityMs(0, 656.279e-9)).toBe(0);
+    const v = rotationVelocity({ value: 0, sigma: 0.002e-9 }, { value: 656.279e-9, sigma: 0.001e-9 });
+    expect(v.value).toBe(0);
+    // ∂v/∂Δλ = c / (2 λ₀); the rest wavelength's σ adds nothing at Δλ = 0 (∂v/∂λ₀ = −c Δλ / 2λ₀²).
+    expect(v.sigma).toBeCloseTo((C * 0.002) / (2 * 656.279), 9);
   });
 });
 
@@ -113,8 +121,16 @@ describe('Zeeman splitting', () => {
     expect(b.sigma / b.value).toBeCloseTo(0.1, 12);
   });
 
-  it('refuses g = 0 and non-positive splittings', () => {
+  it('refuses g = 0 and negative splittings', () => {
     expect(() => magneticFieldT(1e-12, 0, 5e-7)).toThrow(PhysicsError);
     expect(() => magneticFieldT(-1e-12, 1, 5e-7)).toThrow(PhysicsError);
+  });
+
+  it('a measured splitting of 0 ± 1 mÅ is data: B = 0 ± σ_Δλ / (k g λ²) (k = 4.6686e-13 Å⁻¹ G⁻¹, CODATA 2018)', () => {
+    expect(magneticFieldT(0, 3, 5250.2e-10)).toBe(0);
+    const b = magneticField({ value: 0, sigma: 1e-3 * ANGSTROM }, 3, { value: 5250.2e-10, sigma: 0.01e-10 });
+    expect(b.value).toBe(0);
+    // In gauss: 1e-3 Å / (4.6686e-13 × 3 × 5250.2²) = 25.9 G, i.e. 2.59e-3 T.
+    expect(b.sigma * 1e4).toBeCloseTo(1e-3 / (4.6686e-13 * 3 * 5250.2 ** 2), 1);
   });
 });

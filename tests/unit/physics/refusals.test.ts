@@ -1,5 +1,9 @@
 import { describe, expect, it } from 'vitest';
+import { CONSTANTS } from '@shared/physics/constants';
 import { deriveAll, type MeasurementInput } from '@shared/physics/derive';
+
+const NM = 1e-9;
+const C = CONSTANTS.c.value;
 
 /*
  * What the engine refuses or marks, through deriveAll: results outside the
@@ -30,5 +34,42 @@ describe('bolometric flux from V outside the calibration of BC_V (Flower 1996, 2
     );
     expect(graph.results.bolometric_flux).toBeUndefined();
     expect(graph.issues.find((i) => i.quantity === 'bolometric_flux')).toMatchObject({ code: 'out_of_range' });
+  });
+});
+
+describe('a measured zero is data: no rotation or no field detected', () => {
+  const measurements: MeasurementInput[] = [
+    { id: 'limb', kind: 'limb_separation', valueSi: 0, uncertaintySi: 0.002 * NM, restWavelengthSi: 656.279 * NM },
+    { id: 'zeeman', kind: 'zeeman_separation', valueSi: 0, uncertaintySi: 0.0001 * NM, restWavelengthSi: 525.0212 * NM, landeG: 3 },
+  ];
+
+  it('derives v sin i = 0 ± c σ_Δλ / (2 λ₀) and marks it an upper limit (REFERENCES.md "Rotation from the two limbs")', () => {
+    const graph = deriveAll(measurements);
+    expect(graph.issues.filter((i) => i.quantity === 'rotation_velocity')).toEqual([]);
+    const v = graph.results.rotation_velocity!;
+    expect(v.value).toBe(0);
+    expect(v.uncertainty).toBeCloseTo((C * 0.002) / (2 * 656.279), 6);
+    // 0 ± 456.8 m/s: the 1σ upper limit is 0.46 km/s.
+    const limit = v.warnings.find((w) => w.code === 'upper_limit');
+    expect(limit?.limit).toBe('< 0.46 km s⁻¹ (1σ)');
+  });
+
+  it('derives B = 0 ± σ_Δλ / (k g λ²) and marks it an upper limit (CODATA 2018 e, m_e, c)', () => {
+    const graph = deriveAll(measurements);
+    const b = graph.results.magnetic_field!;
+    expect(b.value).toBe(0);
+    // 1e-3 Å / (4.6686e-13 Å⁻¹ G⁻¹ × 3 × 5250.212² Å²) = 25.9 G.
+    expect(b.uncertainty * 1e4).toBeCloseTo(1e-3 / (4.6686e-13 * 3 * 5250.212 ** 2), 1);
+    expect(b.warnings.find((w) => w.code === 'upper_limit')?.limit).toBe('< 26 G (1σ)');
+  });
+
+  it('a clear detection (10 σ) carries no upper limit; a negative separation is still refused', () => {
+    const graph = deriveAll([
+      { id: 'limb', kind: 'limb_separation', valueSi: 0.02 * NM, uncertaintySi: 0.002 * NM, restWavelengthSi: 656.279 * NM },
+      { id: 'neg', kind: 'zeeman_separation', valueSi: -0.001 * NM, uncertaintySi: 0.0001 * NM, restWavelengthSi: 525.0212 * NM, landeG: 3 },
+    ]);
+    expect(graph.results.rotation_velocity!.warnings.map((w) => w.code)).not.toContain('upper_limit');
+    expect(graph.results.magnetic_field).toBeUndefined();
+    expect(graph.issues.find((i) => i.measurementId === 'neg')).toMatchObject({ quantity: 'magnetic_field', limit: '≥ 0' });
   });
 });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { PhysicsError } from '@shared/physics/errors';
 import { MEASUREMENT_KINDS } from '@shared/physics/quantities';
+import { readMeasurementRecords, suggestMapping } from '@shared/schemas/measurement-file';
 import { allowedUnits, convert, convertQuantity, measurementToSi, parseUnit, toSi } from '@shared/physics/units';
 
 describe('units', () => {
@@ -81,5 +82,31 @@ describe('units', () => {
     expect(() => measurementToSi('peak_wavelength', Number.NaN, 'nm')).toThrow(PhysicsError);
     expect(() => measurementToSi('peak_wavelength', 500, 'nm', -1)).toThrow(PhysicsError);
     expect(() => measurementToSi('colour', 0.5, 'mag')).toThrow(PhysicsError);
+  });
+});
+
+describe('the measurement file accepts a measured zero', () => {
+  const headers = ['target', 'quantity', 'value', 'uncertainty', 'unit', 'rest_wavelength', 'lande_g'];
+  const read = (records: string[][]) => readMeasurementRecords(headers, records, suggestMapping(headers));
+
+  it('a limb separation or Zeeman splitting of 0 ± σ (nothing detected) is read, in SI, as 0 ± σ', () => {
+    const { rows, errors } = read([
+      ['GW 1', 'limb_separation', '0', '0.002', 'nm', '656.279', ''],
+      ['GW 1', 'zeeman_separation', '0', '1', 'angstrom', '5250.2', '3'],
+    ]);
+    expect(errors).toEqual([]);
+    expect(rows.map((r) => [r.kind, r.valueSi])).toEqual([
+      ['limb_separation', 0],
+      ['zeeman_separation', 0],
+    ]);
+    // 0.002 nm = 2e-12 m, 1 Å = 1e-10 m (SI Brochure, 9th ed.).
+    expect(rows[0].uncertaintySi).toBeCloseTo(2e-12, 24);
+    expect(rows[1].uncertaintySi).toBeCloseTo(1e-10, 22);
+  });
+
+  it('a negative separation is still an error naming the value column', () => {
+    const { errors } = read([['GW 1', 'limb_separation', '-0.01', '0.002', 'nm', '656.279', '']]);
+    expect(errors).toMatchObject([{ row: 2, column: 'value' }]);
+    expect(errors[0].message).toMatch(/0 or more/);
   });
 });
