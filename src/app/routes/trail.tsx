@@ -6,7 +6,7 @@ import { useNumericParam } from '@/hooks/use-numeric-param';
 import { PageHeader } from '@/components/ui/page-header';
 import { StatusLine } from '@/components/ui/alert';
 import { Button, buttonClasses } from '@/components/ui/button';
-import { Pager } from '@/components/ui/pager';
+import { PAGE_SIZES, Pager } from '@/components/ui/pager';
 import { EmptyState } from '@/components/ui/empty-state';
 import { ForbiddenMessage, NotFoundMessage } from '@/components/errors/error-messages';
 import { QueryError } from '@/components/errors/query-error';
@@ -19,7 +19,6 @@ import { trailExportHref, type TrailListParams } from '@/features/trail/api/keys
 import { dateRangeError, TrailFiltersForm } from '@/features/trail/components/trail-filters';
 import { TrailTable } from '@/features/trail/components/trail-table';
 
-const PAGE_SIZES = [25, 50, 100] as const;
 const DATE = /^\d{4}-\d{2}-\d{2}$/;
 
 const positive = (v: string | null) => {

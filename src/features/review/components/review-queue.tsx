@@ -7,7 +7,7 @@ import { StatusLine } from '@/components/ui/alert';
 import { Button, linkClasses } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField } from '@/components/ui/field';
-import { Pager } from '@/components/ui/pager';
+import { PAGE_SIZES, Pager } from '@/components/ui/pager';
 import { QueryError } from '@/components/errors/query-error';
 import { quantityName, quantityNameInText } from '@/lib/derived-words';
 import { formatCount } from '@/lib/format';
@@ -16,7 +16,6 @@ import type { ReviewQueueParams } from '../api/keys';
 import { DecisionPanel, type DecisionOutcome } from './decision-panel';
 import { QueueItemLine } from './queue-item';
 
-const PAGE_SIZES = [25, 50, 100] as const;
 type WarningsFilter = ReviewQueueQuery['warnings'];
 const WARNING_FILTERS: readonly { value: WarningsFilter; label: string }[] = [
   { value: 'any', label: 'With or without warnings' },

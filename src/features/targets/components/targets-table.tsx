@@ -14,7 +14,7 @@ import { targetSortKeys, type TableQuantity, type TableValue, type TargetRow } f
 import { paths } from '@/config/paths';
 import { Button, linkClasses } from '@/components/ui/button';
 import { CheckboxField, TextField } from '@/components/ui/field';
-import { Pager } from '@/components/ui/pager';
+import { PAGE_SIZES, Pager } from '@/components/ui/pager';
 import { StatusLine } from '@/components/ui/alert';
 import { QueryError } from '@/components/errors/query-error';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -25,7 +25,6 @@ import { formatCount, formatDateTime } from '@/lib/format';
 import { useTargets } from '../api/get-targets';
 import type { TargetListParams } from '../api/keys';
 
-const PAGE_SIZES = [25, 50, 100] as const;
 type SortKey = (typeof targetSortKeys)[number];
 
 /*
