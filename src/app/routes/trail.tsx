@@ -12,9 +12,9 @@ import { ForbiddenMessage, NotFoundMessage } from '@/components/errors/error-mes
 import { QueryError } from '@/components/errors/query-error';
 import { formatCount } from '@/lib/format';
 import { useProject } from '@/features/projects/api/get-project';
+import { useTargetChoices } from '@/features/targets/api/get-target-choices';
 import { useTrail } from '@/features/trail/api/get-trail';
 import { useTrailPeople } from '@/features/trail/api/get-trail-people';
-import { useTrailTargets } from '@/features/trail/api/get-trail-targets';
 import { trailExportHref, type TrailListParams } from '@/features/trail/api/keys';
 import { dateRangeError, TrailFiltersForm } from '@/features/trail/components/trail-filters';
 import { TrailTable } from '@/features/trail/components/trail-table';
@@ -68,7 +68,7 @@ function TrailPage({ projectId }: { projectId: number }) {
   const rangeProblem = dateRangeError(filters);
   const trail = useTrail(projectId, params, { enabled: canRead && !rangeProblem });
   const people = useTrailPeople(projectId, { enabled: canRead });
-  const targets = useTrailTargets(projectId, { enabled: canRead });
+  const targets = useTargetChoices(projectId, { enabled: canRead });
 
   // Built from the address as it is now, so two quick changes in a row both stick.
   const update = (next: Partial<TrailListParams>, { resetPage = true } = {}) =>

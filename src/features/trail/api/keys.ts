@@ -12,9 +12,8 @@ export const trailKeys = {
   project: (projectId: number) => [...trailKeys.all, projectId] as const,
   lists: (projectId: number) => [...trailKeys.project(projectId), 'list'] as const,
   list: (projectId: number, params: TrailListParams) => [...trailKeys.lists(projectId), params] as const,
-  /** The people and targets the filters offer. */
+  /** The people the person filter offers. */
   people: (projectId: number) => [...trailKeys.project(projectId), 'people'] as const,
-  targets: (projectId: number) => [...trailKeys.project(projectId), 'targets'] as const,
   activity: (limit: number) => [...trailKeys.all, 'activity', limit] as const,
 };
 

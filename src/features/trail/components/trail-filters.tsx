@@ -1,8 +1,8 @@
 import type { TrailFilters } from '@shared/schemas/trail';
+import type { Target } from '@shared/schemas/targets';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import type { TrailPerson } from '../api/get-trail-people';
-import type { TrailTarget } from '../api/get-trail-targets';
 import { actionWords, PROJECT_ACTIONS } from '../trail-words';
 
 const isFiltered = (f: TrailFilters) => Boolean(f.actorId || f.action || f.targetId || f.from || f.to);
@@ -25,7 +25,8 @@ export function TrailFiltersForm({
 }: {
   filters: TrailFilters;
   people: TrailPerson[] | undefined;
-  targets: TrailTarget[] | undefined;
+  /** Every target of the project by id and designation (the route reads them); one missing here was deleted. */
+  targets: Pick<Target, 'id' | 'designation'>[] | undefined;
   onChange: (next: Partial<TrailFilters>) => void;
 }) {
   const toNumber = (v: string) => (v === '' ? undefined : Number(v));

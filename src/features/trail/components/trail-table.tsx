@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { TrailEntry } from '@shared/schemas/trail';
+import type { Target } from '@shared/schemas/targets';
 import { paths } from '@/config/paths';
 import { linkClasses } from '@/components/ui/button';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
@@ -8,7 +9,6 @@ import { quantityName } from '@/lib/derived-words';
 import { formatDateTime } from '@/lib/format';
 import { cn } from '@/lib/cn';
 import type { TrailPerson } from '../api/get-trail-people';
-import type { TrailTarget } from '../api/get-trail-targets';
 import { actionWords, entityWords } from '../trail-words';
 import { ChangeDetails, changeSummary } from './trail-change';
 
@@ -82,7 +82,8 @@ export function TrailTable({
   projectId: number;
   entries: TrailEntry[];
   people: TrailPerson[] | undefined;
-  targets: TrailTarget[] | undefined;
+  /** Every target of the project by id and designation (the route reads them); one missing here was deleted. */
+  targets: Pick<Target, 'id' | 'designation'>[] | undefined;
   busy: boolean;
 }) {
   const names = new Map((people ?? []).map((p) => [p.id, p.name]));
