@@ -6,11 +6,12 @@ import { useNumericParam } from '@/hooks/use-numeric-param';
 import { PageHeader } from '@/components/ui/page-header';
 import { StatusLine } from '@/components/ui/alert';
 import { Button, buttonClasses } from '@/components/ui/button';
-import { PAGE_SIZES, Pager } from '@/components/ui/pager';
+import { Pager } from '@/components/ui/pager';
 import { EmptyState } from '@/components/ui/empty-state';
 import { ForbiddenMessage, NotFoundMessage } from '@/components/errors/error-messages';
 import { QueryError } from '@/components/errors/query-error';
 import { formatCount } from '@/lib/format';
+import { PAGE_SIZES, readPageParams, writePageParams } from '@/lib/page-params';
 import { useProject } from '@/features/projects/api/get-project';
 import { useTargetChoices } from '@/features/targets/api/get-target-choices';
 import { useTrail } from '@/features/trail/api/get-trail';
@@ -32,12 +33,10 @@ const positive = (v: string | null) => {
  * and Back returns to it.
  */
 function readParams(search: URLSearchParams): TrailListParams {
-  const pageSize = positive(search.get('pageSize'));
   const from = search.get('from') ?? '';
   const to = search.get('to') ?? '';
   return {
-    page: positive(search.get('page')) ?? 1,
-    pageSize: pageSize && (PAGE_SIZES as readonly number[]).includes(pageSize) ? pageSize : PAGE_SIZES[0],
+    ...readPageParams(search),
     actorId: positive(search.get('person')),
     action: search.get('action')?.trim() || undefined,
     targetId: positive(search.get('target')),
@@ -53,8 +52,7 @@ function writeParams(p: TrailListParams): URLSearchParams {
   if (p.targetId) search.set('target', String(p.targetId));
   if (p.from) search.set('from', p.from);
   if (p.to) search.set('to', p.to);
-  if (p.page !== 1) search.set('page', String(p.page));
-  if (p.pageSize !== PAGE_SIZES[0]) search.set('pageSize', String(p.pageSize));
+  writePageParams(search, p);
   return search;
 }
 

@@ -3,9 +3,6 @@ import { cn } from '@/lib/cn';
 import { Button } from './button';
 import { SelectField } from './field';
 
-/** The page sizes every paged list offers, so the lists read alike; the first is the default, as in the shared list query. */
-export const PAGE_SIZES = [25, 50, 100] as const;
-
 /**
  * The row under a paged list: an optional count line, the page-size choice
  * and the two page buttons. Each list keeps its own words (what a page holds,

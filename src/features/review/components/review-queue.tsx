@@ -7,10 +7,11 @@ import { StatusLine } from '@/components/ui/alert';
 import { Button, linkClasses } from '@/components/ui/button';
 import { EmptyState } from '@/components/ui/empty-state';
 import { SelectField } from '@/components/ui/field';
-import { PAGE_SIZES, Pager } from '@/components/ui/pager';
+import { Pager } from '@/components/ui/pager';
 import { QueryError } from '@/components/errors/query-error';
 import { quantityName, quantityNameInText } from '@/lib/derived-words';
 import { formatCount } from '@/lib/format';
+import { PAGE_SIZES, readPageParams, writePageParams } from '@/lib/page-params';
 import { useReviewQueue } from '../api/get-review-queue';
 import type { ReviewQueueParams } from '../api/keys';
 import { DecisionPanel, type DecisionOutcome } from './decision-panel';
@@ -29,14 +30,11 @@ const WARNING_FILTERS: readonly { value: WarningsFilter; label: string }[] = [
  * returns to it.
  */
 function readParams(search: URLSearchParams): ReviewQueueParams {
-  const page = Number.parseInt(search.get('page') ?? '', 10);
-  const pageSize = Number.parseInt(search.get('pageSize') ?? '', 10);
   const targetId = Number.parseInt(search.get('target') ?? '', 10);
   const quantity = search.get('quantity') ?? '';
   const warnings = search.get('warnings');
   return {
-    page: Number.isFinite(page) && page >= 1 ? page : 1,
-    pageSize: (PAGE_SIZES as readonly number[]).includes(pageSize) ? pageSize : PAGE_SIZES[0],
+    ...readPageParams(search),
     targetId: Number.isFinite(targetId) && targetId >= 1 ? targetId : undefined,
     quantity: (QUANTITY_IDS as readonly string[]).includes(quantity) ? quantity : undefined,
     warnings: warnings === 'with' || warnings === 'without' ? warnings : 'any',
@@ -45,8 +43,7 @@ function readParams(search: URLSearchParams): ReviewQueueParams {
 
 function writeParams(params: ReviewQueueParams): URLSearchParams {
   const search = new URLSearchParams();
-  if (params.page !== 1) search.set('page', String(params.page));
-  if (params.pageSize !== PAGE_SIZES[0]) search.set('pageSize', String(params.pageSize));
+  writePageParams(search, params);
   if (params.targetId !== undefined) search.set('target', String(params.targetId));
   if (params.quantity) search.set('quantity', params.quantity);
   if (params.warnings !== 'any') search.set('warnings', params.warnings);

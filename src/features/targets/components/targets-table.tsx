@@ -14,13 +14,14 @@ import { targetSortKeys, type TableQuantity, type TableValue, type TargetRow } f
 import { paths } from '@/config/paths';
 import { Button, linkClasses } from '@/components/ui/button';
 import { CheckboxField, TextField } from '@/components/ui/field';
-import { PAGE_SIZES, Pager } from '@/components/ui/pager';
+import { Pager } from '@/components/ui/pager';
 import { StatusLine } from '@/components/ui/alert';
 import { QueryError } from '@/components/errors/query-error';
 import { EmptyState } from '@/components/ui/empty-state';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
 import { DERIVED_STATUS_WORDS, derivedValueTexts } from '@/lib/derived-words';
+import { PAGE_SIZES, readPageParams, writePageParams } from '@/lib/page-params';
 import { formatCount, formatDateTime } from '@/lib/format';
 import { useTargets } from '../api/get-targets';
 import type { TargetListParams } from '../api/keys';
@@ -32,13 +33,10 @@ type SortKey = (typeof targetSortKeys)[number];
  * be bookmarked or sent to a colleague, and Back returns to it.
  */
 function readParams(search: URLSearchParams): TargetListParams {
-  const page = Number.parseInt(search.get('page') ?? '', 10);
-  const pageSize = Number.parseInt(search.get('pageSize') ?? '', 10);
   const sort = search.get('sort');
   const order = search.get('order');
   return {
-    page: Number.isFinite(page) && page >= 1 ? page : 1,
-    pageSize: (PAGE_SIZES as readonly number[]).includes(pageSize) ? pageSize : PAGE_SIZES[0],
+    ...readPageParams(search),
     sort: (targetSortKeys as readonly string[]).includes(sort ?? '') ? (sort as SortKey) : 'designation',
     order: order === 'desc' ? 'desc' : 'asc',
     q: search.get('q')?.trim() || undefined,
@@ -49,8 +47,7 @@ function readParams(search: URLSearchParams): TargetListParams {
 
 function writeParams(params: TargetListParams): URLSearchParams {
   const search = new URLSearchParams();
-  if (params.page !== 1) search.set('page', String(params.page));
-  if (params.pageSize !== PAGE_SIZES[0]) search.set('pageSize', String(params.pageSize));
+  writePageParams(search, params);
   if (params.sort !== 'designation') search.set('sort', params.sort);
   if (params.order !== 'asc') search.set('order', params.order);
   if (params.q) search.set('q', params.q);
