@@ -5,9 +5,11 @@
  */
 
 /**
- * Measurement kinds. The first nine are the `quantity` column of the
+ * Measurement kinds. All but the last are the `quantity` column of the
  * measurement file; `planck_temperature` is recorded by the spectrum upload
  * (the temperature of the Planck fit, in K), alongside `peak_wavelength`.
+ * `distance` and `luminosity` are values known from elsewhere (a cluster's
+ * or a catalogue's distance, a standard candle's luminosity).
  */
 export const MEASUREMENT_KINDS = [
   'peak_wavelength',
@@ -19,6 +21,8 @@ export const MEASUREMENT_KINDS = [
   'limb_separation',
   'zeeman_separation',
   'extinction',
+  'distance',
+  'luminosity',
   'planck_temperature',
 ] as const;
 
@@ -43,6 +47,8 @@ export const MEASUREMENT_SI_UNIT: Readonly<Record<MeasurementKind, string>> = Ob
   limb_separation: 'm',
   zeeman_separation: 'm',
   extinction: 'mag',
+  distance: 'm',
+  luminosity: 'W',
   planck_temperature: 'K',
 });
 

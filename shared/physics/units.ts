@@ -43,6 +43,7 @@ export const UNITS = Object.freeze({
   um: { dimension: 'length', toSi: 1e-6, symbol: 'µm' },
   au: { dimension: 'length', toSi: CONSTANTS.au.value, symbol: 'au' },
   pc: { dimension: 'length', toSi: CONSTANTS.pc.value, symbol: 'pc' },
+  kpc: { dimension: 'length', toSi: 1e3 * CONSTANTS.pc.value, symbol: 'kpc' },
   ly: { dimension: 'length', toSi: CONSTANTS.ly.value, symbol: 'ly' },
   R_sun: { dimension: 'length', toSi: CONSTANTS.R_sun.value, symbol: 'R☉' },
   'W/m2': { dimension: 'flux', toSi: 1, symbol: 'W m⁻²' },
@@ -76,13 +77,16 @@ export interface Quantity<U extends string = UnitName> {
 /**
  * Spellings accepted from files for the canonical names. Both Unicode forms
  * of Å (U+00C5, U+212B) and of µ (U+00B5 micro sign, U+03BC Greek mu) are
- * accepted because spreadsheets produce either.
+ * accepted because spreadsheets produce either; the solar luminosity is
+ * written Lsun or L☉ (U+2609).
  */
 const ALIASES: Readonly<Record<string, UnitName>> = Object.freeze({
   '\u00C5': 'angstrom',
   '\u212B': 'angstrom',
   '\u00B5m': 'um',
   '\u03BCm': 'um',
+  Lsun: 'L_sun',
+  'L\u2609': 'L_sun',
 });
 
 /**
@@ -143,7 +147,8 @@ const MAG_UNITS = ['mag'] as const;
  * Units a file may give for each measurement kind (PRODUCT.md, "The
  * measurement file"); the first is the one the upload templates use.
  * Magnitudes, colour indices and E(B−V) are in mag; an empty unit is read
- * as mag for them because the file makes the unit optional there.
+ * as mag for them because the file makes the unit optional there. A file
+ * writes the solar luminosity Lsun or L☉ (see ALIASES).
  */
 export const ALLOWED_UNITS: Readonly<Record<MeasurementKind, readonly UnitName[]>> = Object.freeze({
   peak_wavelength: WAVELENGTH_UNITS,
@@ -155,6 +160,8 @@ export const ALLOWED_UNITS: Readonly<Record<MeasurementKind, readonly UnitName[]
   extinction: MAG_UNITS,
   bolometric_flux: ['W/m2', 'erg/s/cm2'],
   parallax: ['mas', 'arcsec'],
+  distance: ['pc', 'kpc', 'ly', 'm'],
+  luminosity: ['L_sun', 'W'],
   planck_temperature: ['K'],
 });
 
@@ -178,7 +185,7 @@ export interface SiMeasurement {
 
 /**
  * Validates a file row's unit for its kind and converts value and uncertainty
- * to SI (m, W m⁻², rad, mag, K). The unit must be one allowed for the kind;
+ * to SI (m, W m⁻², W, rad, mag, K). The unit must be one allowed for the kind;
  * an empty unit is accepted for mag kinds. Value must be finite, uncertainty
  * finite and ≥ 0 (omitted = 0). Sign and range checks belong to the laws and
  * the engine. Throws PhysicsError with code unknown_kind, unknown_unit,

@@ -39,7 +39,7 @@ const ROW_FIELDS: readonly Field[] = ['target', 'ra', 'dec', 'observed_at', 'ins
 
 const NEEDS_BAND: readonly FileQuantity[] = ['magnitude', 'colour_index'];
 const NEEDS_REST: readonly FileQuantity[] = ['line_wavelength', 'limb_separation', 'zeeman_separation'];
-const MUST_BE_POSITIVE: readonly FileQuantity[] = ['peak_wavelength', 'line_wavelength', 'bolometric_flux', 'parallax'];
+const MUST_BE_POSITIVE: readonly FileQuantity[] = ['peak_wavelength', 'line_wavelength', 'bolometric_flux', 'parallax', 'distance', 'luminosity'];
 /** Sizes for which 0 (no rotation, no field detected) is a measurement. */
 const MUST_NOT_BE_NEGATIVE: readonly FileQuantity[] = ['limb_separation', 'zeeman_separation'];
 
@@ -149,6 +149,8 @@ const WIDE_GUESSES: { pattern: RegExp; role: (m: RegExpExecArray) => ColumnRole 
   { pattern: /^(?:parallax|plx)(?:_?(mas|arcsec))?$/, role: (m) => ({ role: 'measurement', quantity: 'parallax', unit: m[1] ?? 'mas' }) },
   { pattern: /^(?:peak_wavelength|peak|lambda_max)(?:_?(nm|angstrom|um|m))?$/, role: (m) => ({ role: 'measurement', quantity: 'peak_wavelength', unit: m[1] ?? 'nm' }) },
   { pattern: /^(?:bolometric_flux|fbol)(?:_?(w\/m2|erg\/s\/cm2))?$/, role: (m) => ({ role: 'measurement', quantity: 'bolometric_flux', unit: m[1] === 'erg/s/cm2' ? 'erg/s/cm2' : 'W/m2' }) },
+  { pattern: /^(?:distance|dist)(?:_?(pc|kpc|ly))?$/, role: (m) => ({ role: 'measurement', quantity: 'distance', unit: m[1] ?? 'pc' }) },
+  { pattern: /^(?:luminosity|lum)(?:_?(lsun|w))?$/, role: (m) => ({ role: 'measurement', quantity: 'luminosity', unit: m[1] === 'w' ? 'W' : 'Lsun' }) },
 ];
 
 function guessWideColumn(name: string, headers: string[], names: string[]): ColumnRole | null {

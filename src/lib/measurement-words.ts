@@ -19,6 +19,8 @@ export const MEASUREMENT_KIND_NAMES: Readonly<Record<MeasurementKind, string>> =
   limb_separation: 'Limb-to-limb line separation',
   zeeman_separation: 'Zeeman splitting',
   extinction: 'Colour excess E(B−V)',
+  distance: 'Distance (known from elsewhere)',
+  luminosity: 'Luminosity (known from elsewhere)',
   planck_temperature: 'Planck-fit temperature',
 };
 

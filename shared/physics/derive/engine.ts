@@ -7,7 +7,7 @@ import { radialVelocity } from '../doppler';
 import { PhysicsError, type PhysicsWarning } from '../errors';
 import { DEFAULT_R_V } from '../extinction';
 import { inverseVarianceMean, type Measured } from '../measured';
-import { luminosityFromFlux } from '../inverse-square';
+import { distanceFromLuminosity, luminosityFromFlux } from '../inverse-square';
 import { luminosityClass, radiusPlausibilityWarnings } from '../luminosity-class';
 import { assumedClassLuminosity, LUMINOSITY_CLASS_LABELS, LUMINOSITY_CLASSES, photometricDistance } from '../main-sequence';
 import { DEFAULT_MONTE_CARLO_SAMPLES, type MonteCarloResult } from '../monte-carlo';
@@ -471,16 +471,38 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
   }
   const distance = results.distance_parallax ? { value: results.distance_parallax.value, sigma: results.distance_parallax.uncertainty } : null;
 
-  // luminosity
-  if (flux && distance) {
+  // Distance and luminosity known from elsewhere (a cluster or catalogue distance, a standard candle's luminosity).
+  const givenDistanceList = byKind('distance');
+  const givenDistance = combineMeasurements(givenDistanceList, 'luminosity', 'given distances', issues);
+  const givenLuminosityList = byKind('luminosity');
+  const givenLuminosity = combineMeasurements(givenLuminosityList, 'luminosity', 'given luminosities', issues);
+
+  // luminosity: from the flux and the parallax distance, else a given distance; else the given luminosity.
+  if (flux && (distance || givenDistance)) {
+    const d = distance ?? givenDistance!.value;
+    if (!distance) use(givenDistanceList);
     attempt('luminosity', () => {
-      const l = luminosityFromFlux(flux, distance);
+      const l = luminosityFromFlux(flux, d);
       record('luminosity', {
         value: l.value,
         uncertainty: l.sigma,
-        method: { id: 'inverse_square', label: 'inverse-square law, L = 4π d² F, with the parallax distance' },
+        method: { id: 'inverse_square', label: `inverse-square law, L = 4π d² F, with the ${distance ? 'parallax' : 'given'} distance` },
         propagation: 'first_order',
-        dependsOn: ['bolometric_flux', 'distance_parallax'],
+        ids: distance ? [] : givenDistance!.ids,
+        dependsOn: distance ? ['bolometric_flux', 'distance_parallax'] : ['bolometric_flux'],
+        warnings: distance ? [] : givenDistance!.warnings,
+      });
+    });
+  } else if (givenLuminosity) {
+    use(givenLuminosityList);
+    attempt('luminosity', () => {
+      record('luminosity', {
+        value: givenLuminosity.value.value,
+        uncertainty: givenLuminosity.value.sigma,
+        method: { id: 'given', label: 'given luminosity (known from elsewhere), used as entered' },
+        propagation: givenLuminosity.ids.length > 1 ? 'combination' : 'as_measured',
+        ids: givenLuminosity.ids,
+        warnings: givenLuminosity.warnings,
       });
     });
   }
@@ -556,8 +578,38 @@ export function deriveAll(measurements: readonly MeasurementInput[], options: De
     });
   }
 
-  // distance_photometric
-  if (temperature && flux && results.luminosity_hr) {
+  // distance_photometric: from a given luminosity and the flux (inverse-square law), else from the assumed class.
+  if (flux && givenLuminosity) {
+    use(givenLuminosityList);
+    attempt('distance_photometric', () => {
+      const d = distanceFromLuminosity(givenLuminosity.value, flux);
+      const warnings = [...givenLuminosity.warnings];
+      const checkedAgainst: QuantityId[] = [];
+      const dp = results.distance_parallax;
+      if (dp) {
+        checkedAgainst.push('distance_parallax');
+        const n = Math.abs(d.value - dp.value) / Math.hypot(d.sigma, dp.uncertainty);
+        if (n > DISAGREEMENT_SIGMA) {
+          warnings.push({
+            code: 'distances_disagree',
+            quantity: 'distance_photometric',
+            message: `the distance from the given luminosity differs from the parallax distance by ${n.toFixed(1)} σ (more than ${DISAGREEMENT_SIGMA} σ)`,
+            limit: `${DISAGREEMENT_SIGMA} σ`,
+          });
+        }
+      }
+      record('distance_photometric', {
+        value: d.value,
+        uncertainty: d.sigma,
+        method: { id: 'inverse_square_given_luminosity', label: 'd = √(L / 4πF) with the given luminosity (inverse-square law)' },
+        propagation: 'first_order',
+        ids: givenLuminosity.ids,
+        dependsOn: ['bolometric_flux'],
+        checkedAgainst,
+        warnings,
+      });
+    });
+  } else if (temperature && flux && results.luminosity_hr) {
     attempt('distance_photometric', () => {
       const mc = mcResult('distance_photometric', photometricDistance(temperature, opts.assumedClass, flux, mcOptions('distance_photometric')));
       const warnings = [...mc.warnings];

@@ -28,6 +28,8 @@ const FIRST_QUANTITY: Readonly<Record<MeasurementKind, QuantityId>> = Object.fre
   limb_separation: 'rotation_velocity',
   zeeman_separation: 'magnetic_field',
   extinction: 'temperature_colour',
+  distance: 'luminosity',
+  luminosity: 'luminosity',
   planck_temperature: 'temperature_planck',
 });
 
@@ -37,6 +39,8 @@ const POSITIVE: ReadonlySet<MeasurementKind> = new Set([
   'bolometric_flux',
   'parallax',
   'line_wavelength',
+  'distance',
+  'luminosity',
   'planck_temperature',
 ]);
 

@@ -12,10 +12,10 @@ import { ForbiddenMessage, NotFoundMessage } from '@/components/errors/error-mes
 import { QueryError } from '@/components/errors/query-error';
 import { formatCount } from '@/lib/format';
 import { PAGE_SIZES, readPageParams, writePageParams } from '@/lib/page-params';
+import { useMembers } from '@/features/members/api/get-members';
 import { useProject } from '@/features/projects/api/get-project';
 import { useTargetChoices } from '@/features/targets/api/get-target-choices';
 import { useTrail } from '@/features/trail/api/get-trail';
-import { useTrailPeople } from '@/features/trail/api/get-trail-people';
 import { trailExportHref, type TrailListParams } from '@/features/trail/api/keys';
 import { dateRangeError, TrailFiltersForm } from '@/features/trail/components/trail-filters';
 import { TrailTable } from '@/features/trail/components/trail-table';
@@ -65,7 +65,7 @@ function TrailPage({ projectId }: { projectId: number }) {
   // A range whose end comes before its start is said at its field and not sent.
   const rangeProblem = dateRangeError(filters);
   const trail = useTrail(projectId, params, { enabled: canRead && !rangeProblem });
-  const people = useTrailPeople(projectId, { enabled: canRead });
+  const people = useMembers(projectId, { enabled: canRead });
   const targets = useTargetChoices(projectId, { enabled: canRead });
 
   // Built from the address as it is now, so two quick changes in a row both stick.

@@ -14,6 +14,6 @@ export const membersQueryOptions = (projectId: number) =>
     queryFn: ({ signal }) => getMembers(projectId, { signal }),
   });
 
-export function useMembers(projectId: number) {
-  return useQuery(membersQueryOptions(projectId));
+export function useMembers(projectId: number, { enabled = true }: { enabled?: boolean } = {}) {
+  return useQuery({ ...membersQueryOptions(projectId), enabled });
 }

@@ -12,8 +12,6 @@ export const trailKeys = {
   project: (projectId: number) => [...trailKeys.all, projectId] as const,
   lists: (projectId: number) => [...trailKeys.project(projectId), 'list'] as const,
   list: (projectId: number, params: TrailListParams) => [...trailKeys.lists(projectId), params] as const,
-  /** The people the person filter offers. */
-  people: (projectId: number) => [...trailKeys.project(projectId), 'people'] as const,
   activity: (limit: number) => [...trailKeys.all, 'activity', limit] as const,
 };
 

@@ -1,8 +1,8 @@
 import type { TrailFilters } from '@shared/schemas/trail';
+import type { Member } from '@shared/schemas/projects';
 import type { Target } from '@shared/schemas/targets';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
-import type { TrailPerson } from '../api/get-trail-people';
 import { actionWords, PROJECT_ACTIONS } from '../trail-words';
 
 const isFiltered = (f: TrailFilters) => Boolean(f.actorId || f.action || f.targetId || f.from || f.to);
@@ -24,14 +24,15 @@ export function TrailFiltersForm({
   onChange,
 }: {
   filters: TrailFilters;
-  people: TrailPerson[] | undefined;
+  /** The project's members (the route reads them), offered by name. */
+  people: Pick<Member, 'userId' | 'name'>[] | undefined;
   /** Every target of the project by id and designation (the route reads them); one missing here was deleted. */
   targets: Pick<Target, 'id' | 'designation'>[] | undefined;
   onChange: (next: Partial<TrailFilters>) => void;
 }) {
   const toNumber = (v: string) => (v === '' ? undefined : Number(v));
   // A person or target named in the address but no longer listed (removed, deleted) stays choosable.
-  const personListed = !filters.actorId || people?.some((p) => p.id === filters.actorId);
+  const personListed = !filters.actorId || people?.some((p) => p.userId === filters.actorId);
   const targetListed = !filters.targetId || targets?.some((t) => t.id === filters.targetId);
   const actionListed = !filters.action || (PROJECT_ACTIONS as string[]).includes(filters.action);
 
@@ -45,11 +46,13 @@ export function TrailFiltersForm({
         hint={people ? undefined : 'Loading the members…'}
       >
         <option value="">Everyone</option>
-        {people?.map((p) => (
-          <option key={p.id} value={p.id}>
-            {p.name}
-          </option>
-        ))}
+        {people
+          ?.toSorted((a, b) => a.name.localeCompare(b.name))
+          .map((p) => (
+            <option key={p.userId} value={p.userId}>
+              {p.name}
+            </option>
+          ))}
         {personListed ? null : <option value={filters.actorId}>Account {filters.actorId} (no longer a member)</option>}
       </SelectField>
       <SelectField

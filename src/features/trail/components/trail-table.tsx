@@ -1,6 +1,7 @@
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { TrailEntry } from '@shared/schemas/trail';
+import type { Member } from '@shared/schemas/projects';
 import type { Target } from '@shared/schemas/targets';
 import { paths } from '@/config/paths';
 import { linkClasses } from '@/components/ui/button';
@@ -8,7 +9,6 @@ import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, Ledger
 import { quantityName } from '@/lib/derived-words';
 import { formatDateTime } from '@/lib/format';
 import { cn } from '@/lib/cn';
-import type { TrailPerson } from '../api/get-trail-people';
 import { actionWords, entityWords } from '../trail-words';
 import { ChangeDetails, changeSummary } from './trail-change';
 
@@ -81,12 +81,12 @@ export function TrailTable({
 }: {
   projectId: number;
   entries: TrailEntry[];
-  people: TrailPerson[] | undefined;
+  people: Pick<Member, 'userId' | 'name'>[] | undefined;
   /** Every target of the project by id and designation (the route reads them); one missing here was deleted. */
   targets: Pick<Target, 'id' | 'designation'>[] | undefined;
   busy: boolean;
 }) {
-  const names = new Map((people ?? []).map((p) => [p.id, p.name]));
+  const names = new Map((people ?? []).map((p) => [p.userId, p.name]));
   const existing = new Set((targets ?? []).map((t) => t.id));
   // Until the target list is in, assume a target exists rather than call it deleted.
   const exists = (id: number | null) => id !== null && (targets === undefined || existing.has(id));
