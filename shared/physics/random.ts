@@ -117,3 +117,117 @@ export function seedFor(baseSeed: number, label: string): number {
   }
   return h >>> 0;
 }
+
+/** mulberry32's constant step of its 32-bit state. */
+const MULBERRY_STEP = 0x6d2b79f5;
+
+/**
+ * mulberry32's output for a state, as a signed 32-bit integer (the same bits
+ * as mulberry32 above returns, before it scales them into [0, 1)).
+ */
+function mulberryBits(a: number): number {
+  let t = Math.imul(a ^ (a >>> 15), a | 1);
+  t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+  return t ^ (t >>> 14);
+}
+
+/** A uniform deviate in (0, 1), never 0, from a state's 32 bits (the logarithms below need > 0). */
+function openUniform(a: number): number {
+  return ((mulberryBits(a) >>> 0) + 0.5) / 4294967296;
+}
+
+/** Layers of the ziggurat. */
+const LAYERS = 128;
+/** Magnitude bits of a ziggurat draw: 32 bits less the 7 that choose the layer and the sign bit. */
+const SCALE = 2 ** 24;
+/** Where the base layer's tail begins, and the area of every layer (Marsaglia & Tsang 2000, 128 layers). */
+const TAIL_START = 3.442619855899;
+const LAYER_AREA = 9.91256303526217e-3;
+
+/**
+ * The ziggurat's tables for 128 layers, computed once (never written after):
+ * K, the accepting bound per layer in units of SCALE; W, the layer's width
+ * per unit of SCALE; F, the density exp(−x²/2) at the layer's edge.
+ * @see G. Marsaglia & W. W. Tsang (2000), The ziggurat method for generating random variables, J. Stat. Softw. 5(8), zigset()
+ */
+const ZIGGURAT = (() => {
+  const k = new Float64Array(LAYERS);
+  const w = new Float64Array(LAYERS);
+  const f = new Float64Array(LAYERS);
+  let dn = TAIL_START;
+  let tn = dn;
+  const q = LAYER_AREA / Math.exp(-0.5 * dn * dn);
+  k[0] = (dn / q) * SCALE;
+  k[1] = 0;
+  w[0] = q / SCALE;
+  w[LAYERS - 1] = dn / SCALE;
+  f[0] = 1;
+  f[LAYERS - 1] = Math.exp(-0.5 * dn * dn);
+  for (let i = LAYERS - 2; i >= 1; i--) {
+    dn = Math.sqrt(-2 * Math.log(LAYER_AREA / dn + Math.exp(-0.5 * dn * dn)));
+    k[i + 1] = (dn / tn) * SCALE;
+    tn = dn;
+    f[i] = Math.exp(-0.5 * dn * dn);
+    w[i] = dn / SCALE;
+  }
+  return { k, w, f };
+})();
+
+/**
+ * Fills `out` with standard normal deviates from one seed's stream: the
+ * ziggurat of Marsaglia & Tsang over mulberry32's 32-bit outputs. Each
+ * output gives its low 7 bits to choose the layer and its other 25 to the
+ * signed abscissa (separate bits, which avoids the correlation Doornik found
+ * when the two share bits); some 1 % of draws take the wedge or tail path,
+ * with fresh uniforms. A stream depends on nothing but its seed, and nothing
+ * is kept between calls.
+ * @see G. Marsaglia & W. W. Tsang (2000), J. Stat. Softw. 5(8), RNOR and nfix
+ * @see J. A. Doornik (2005), An improved ziggurat method to generate normal random samples (from memory)
+ */
+export function fillStandardNormals(seed: number, out: Float64Array): void {
+  const { k, w, f } = ZIGGURAT;
+  let a = seed | 0;
+  for (let n = 0; n < out.length; n++) {
+    for (;;) {
+      a = (a + MULBERRY_STEP) | 0;
+      const bits = mulberryBits(a);
+      const layer = bits & (LAYERS - 1);
+      const j = bits >> 7;
+      const x = j * w[layer];
+      if ((j < 0 ? -j : j) < k[layer]) {
+        out[n] = x;
+        break;
+      }
+      if (layer === 0) {
+        // The tail beyond TAIL_START, by Marsaglia's exponential rejection.
+        let tx: number;
+        let ty: number;
+        do {
+          a = (a + MULBERRY_STEP) | 0;
+          tx = -Math.log(openUniform(a)) / TAIL_START;
+          a = (a + MULBERRY_STEP) | 0;
+          ty = -Math.log(openUniform(a));
+        } while (ty + ty < tx * tx);
+        out[n] = j > 0 ? TAIL_START + tx : -TAIL_START - tx;
+        break;
+      }
+      a = (a + MULBERRY_STEP) | 0;
+      if (f[layer] + openUniform(a) * (f[layer - 1] - f[layer]) < Math.exp(-0.5 * x * x)) {
+        out[n] = x;
+        break;
+      }
+    }
+  }
+}
+
+/**
+ * The Monte Carlo seed of one target of one project: its own stream, the
+ * same at every re-run (it does not depend on the revision, so a re-run with
+ * nothing new reproduces every digit and proposes nothing), and another for
+ * every other target, so that the draws' noise never becomes one bias
+ * shared by all stars.
+ * @see seedFor
+ */
+export function targetSeed(projectId: number, targetId: number): number {
+  return seedFor(seedFor(projectId >>> 0, 'project'), `target ${targetId}`);
+}

@@ -41,13 +41,23 @@ export interface SpectralClass {
 }
 
 /**
+ * Continuous spectral index (see spectralIndexOfType) at an effective
+ * temperature in K, linear in log T between the dwarf table's rows. Throws
+ * PhysicsError('out_of_range') outside 2330–45900 K.
+ * @see Pecaut & Mamajek (2013), ApJS 208, 9, Table 5 (Mamajek's version 2024.05.15)
+ */
+export function spectralIndexFromTemperature(temperatureK: number): number {
+  return interpolateDwarfColumn(temperatureK, indexColumn, 'spectral_class');
+}
+
+/**
  * Spectral class from effective temperature in K: the index is interpolated
  * linearly in log T between table rows, and the label is the table type
  * nearest that index. Throws PhysicsError('out_of_range') outside 2330–45900 K.
  * @see Pecaut & Mamajek (2013), ApJS 208, 9, Table 5 (Mamajek's version 2024.05.15)
  */
 export function spectralClassFromTemperature(temperatureK: number): SpectralClass {
-  const index = interpolateDwarfColumn(temperatureK, indexColumn, 'spectral_class');
+  const index = spectralIndexFromTemperature(temperatureK);
   let nearestRow = 0;
   for (let row = 0; row < INDEX_BY_ROW.length; row++) {
     if (Math.abs(INDEX_BY_ROW[row] - index) < Math.abs(INDEX_BY_ROW[nearestRow] - index)) nearestRow = row;

@@ -4,6 +4,7 @@ import { AppError, notFound } from '../../lib/errors';
 import { deriveAll, type DerivedResult } from '../../../shared/physics/derive';
 import type { LuminosityClassName } from '../../../shared/physics/main-sequence';
 import { QUANTITY_IDS } from '../../../shared/physics/quantities';
+import { targetSeed } from '../../../shared/physics/random';
 import type {
   DerivedValue,
   QueueItem,
@@ -75,7 +76,7 @@ export async function rederiveTargets(trx: Db, projectId: number, targetIds: num
   const created = at.toISOString();
   for (const targetId of targetIds) {
     const assumedClass = settings.assumedClass.get(targetId) as LuminosityClassName | undefined;
-    const graph = deriveAll(inputs.get(targetId) ?? [], { rV: settings.rV, assumedClass });
+    const graph = deriveAll(inputs.get(targetId) ?? [], { rV: settings.rV, assumedClass, seed: targetSeed(projectId, targetId) });
     for (const result of Object.values(graph.results)) {
       if (!result) continue;
       const previous = latest.get(`${targetId}:${result.quantity}`);

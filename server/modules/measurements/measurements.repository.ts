@@ -62,10 +62,12 @@ export async function insertMeasurements(db: Db, rows: NewMeasurement[], at: Dat
 export async function engineInputsFor(db: Db, targetIds: number[]): Promise<Map<number, MeasurementInput[]>> {
   const byTarget = new Map<number, MeasurementInput[]>();
   for (const ids of chunks(targetIds, 500)) {
-    const rows = await db('measurements')
-      .whereIn('target_id', ids)
-      .orderBy('id')
-      .select('id', 'target_id', 'kind', 'value_si', 'uncertainty_si', 'band', 'rest_wavelength_si', 'lande_g');
+    // A reading taken from a stored spectrum carries that spectrum's id, so the engine treats one spectrum's readings as one.
+    const rows = await db('measurements as m')
+      .leftJoin('spectra as s', 's.upload_id', 'm.upload_id')
+      .whereIn('m.target_id', ids)
+      .orderBy('m.id')
+      .select('m.id', 'm.target_id', 'm.kind', 'm.value_si', 'm.uncertainty_si', 'm.band', 'm.rest_wavelength_si', 'm.lande_g', 's.id as spectrum_id');
     for (const r of rows) {
       const list = byTarget.get(r.target_id) ?? [];
       list.push({
@@ -76,6 +78,7 @@ export async function engineInputsFor(db: Db, targetIds: number[]): Promise<Map<
         band: r.band ?? undefined,
         restWavelengthSi: r.rest_wavelength_si ?? undefined,
         landeG: r.lande_g ?? undefined,
+        spectrumId: r.spectrum_id ?? undefined,
       });
       byTarget.set(r.target_id, list);
     }

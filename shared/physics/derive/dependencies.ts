@@ -1,5 +1,6 @@
 import type { MeasurementKind, QuantityId } from '../quantities';
 import { QUANTITY_IDS } from '../quantities';
+import { DERIVATION_NODES } from './nodes';
 import type { DeriveOptions } from './types';
 
 /**
@@ -14,32 +15,25 @@ export interface QuantityDependencies {
   readonly options: readonly (keyof DeriveOptions)[];
 }
 
-export const QUANTITY_DEPENDENCIES: Readonly<Record<QuantityId, QuantityDependencies>> = Object.freeze({
-  temperature_wien: { kinds: ['peak_wavelength'], quantities: [], options: [] },
-  temperature_colour: { kinds: ['colour_index', 'magnitude', 'extinction'], quantities: [], options: ['monteCarloSamples', 'seed'] },
-  temperature_planck: { kinds: ['planck_temperature'], quantities: [], options: [] },
-  temperature: { kinds: [], quantities: ['temperature_wien', 'temperature_colour', 'temperature_planck'], options: [] },
-  spectral_class: { kinds: [], quantities: ['temperature'], options: [] },
-  bolometric_flux: {
-    kinds: ['bolometric_flux', 'magnitude', 'extinction'],
-    quantities: ['temperature'],
-    options: ['rV', 'monteCarloSamples', 'seed'],
-  },
-  distance_parallax: { kinds: ['parallax'], quantities: [], options: [] },
-  luminosity: { kinds: ['distance', 'luminosity'], quantities: ['bolometric_flux', 'distance_parallax'], options: [] },
-  radius: { kinds: [], quantities: ['luminosity', 'temperature'], options: ['assumedClass'] },
-  luminosity_class: { kinds: [], quantities: ['temperature', 'luminosity'], options: [] },
-  luminosity_hr: { kinds: [], quantities: ['temperature', 'luminosity_class'], options: ['assumedClass', 'monteCarloSamples', 'seed'] },
-  distance_photometric: {
-    kinds: ['luminosity'],
-    quantities: ['temperature', 'bolometric_flux', 'distance_parallax'],
-    options: ['assumedClass', 'monteCarloSamples', 'seed'],
-  },
-  absolute_bolometric_magnitude: { kinds: [], quantities: ['luminosity'], options: [] },
-  radial_velocity: { kinds: ['line_wavelength'], quantities: [], options: [] },
-  rotation_velocity: { kinds: ['limb_separation'], quantities: [], options: [] },
-  magnetic_field: { kinds: ['zeeman_separation'], quantities: [], options: [] },
-});
+/** Every σ comes from the Monte Carlo draws, so these two options touch every quantity. */
+const DRAW_OPTIONS: readonly (keyof DeriveOptions)[] = ['monteCarloSamples', 'seed'];
+
+/**
+ * Read from the derivation table (nodes.ts), the one place the graph is written.
+ * @see DERIVATION_NODES
+ */
+export const QUANTITY_DEPENDENCIES: Readonly<Record<QuantityId, QuantityDependencies>> = Object.freeze(
+  Object.fromEntries(
+    DERIVATION_NODES.map((node) => [
+      node.quantity,
+      Object.freeze({
+        kinds: Object.freeze([...node.kinds]),
+        quantities: Object.freeze([...node.quantities, ...node.checks]),
+        options: Object.freeze([...node.options, ...DRAW_OPTIONS]),
+      }),
+    ]),
+  ) as Record<QuantityId, QuantityDependencies>,
+);
 
 function closure(seed: (q: QuantityId) => boolean): QuantityId[] {
   const hit = new Set<QuantityId>(QUANTITY_IDS.filter(seed));

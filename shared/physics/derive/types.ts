@@ -26,6 +26,12 @@ export interface MeasurementInput {
   landeG?: number;
   /** Wavelengths in standard air (default; optical line lists quote air) or in vacuum. */
   medium?: 'air' | 'vacuum';
+  /**
+   * The stored spectrum a `peak_wavelength` or `planck_temperature` was read
+   * from. Readings of one spectrum are not independent: the Monte Carlo
+   * moves them together (see evaluate.ts).
+   */
+  spectrumId?: MeasurementId;
 }
 
 /** Choices that change what the engine derives. */
@@ -34,9 +40,13 @@ export interface DeriveOptions {
   assumedClass?: LuminosityClassName;
   /** R_V = A_V / E(B−V) (default 3.1, Cardelli, Clayton & Mathis 1989). */
   rV?: number;
-  /** Monte Carlo draws per non-linear quantity (default 1000). */
+  /** Monte Carlo draws of every measurement, pushed through the whole graph (default 1000). */
   monteCarloSamples?: number;
-  /** Base seed; each quantity draws its own stream from it (default 1). */
+  /**
+   * The target's seed (default 1): each measurement draws its own stream from
+   * it and its id. The server derives it from the project and the target,
+   * so that two targets never share draws and a re-run gives the same digits.
+   */
   seed?: number;
 }
 
@@ -55,7 +65,10 @@ export interface DerivedResult {
   unit: string;
   /** A word for a value that is a category: the spectral class ("G2"), the luminosity class. */
   label?: string;
-  /** Central 68.27 % interval of the Monte Carlo draws, when σ came from one (asymmetric for skewed quantities). */
+  /**
+   * Central 68.27 % interval of the Monte Carlo draws, given where it is
+   * asymmetric about the value (see ASYMMETRY_LIMIT); σ is half its width.
+   */
   interval?: { low: number; high: number };
   method: { id: string; label: string };
   propagation: Propagation;

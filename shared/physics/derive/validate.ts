@@ -15,6 +15,7 @@ export interface ValidMeasurement {
   readonly restWavelengthSigma: number;
   readonly landeG: number;
   readonly medium: 'air' | 'vacuum';
+  readonly spectrumId?: MeasurementId;
 }
 
 /** The quantity a refused measurement of each kind would have fed first. */
@@ -102,9 +103,11 @@ function check(m: MeasurementInput): ValidMeasurement {
   }
   const medium = m.medium ?? 'air';
   if (medium !== 'air' && medium !== 'vacuum') refuse('unknown_unit', 'medium', `wavelength medium must be "air" or "vacuum" (got "${String(medium)}")`);
-  return band === undefined
+  const valid: ValidMeasurement = band === undefined
     ? { id: m.id, kind, value: m.valueSi, sigma, restWavelength, restWavelengthSigma, landeG, medium }
     : { id: m.id, kind, value: m.valueSi, sigma, restWavelength, restWavelengthSigma, landeG, medium, band };
+  const spectrumId = m.spectrumId;
+  return typeof spectrumId === 'string' || (typeof spectrumId === 'number' && Number.isFinite(spectrumId)) ? { ...valid, spectrumId } : valid;
 }
 
 /**

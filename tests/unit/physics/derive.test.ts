@@ -4,6 +4,10 @@ import { CONSTANTS } from '@shared/physics/constants';
 import { affectedQuantities, deriveAll, dependentsOf, dependentsOfOption, type MeasurementInput } from '@shared/physics/derive';
 import { MEASUREMENT_KINDS, QUANTITY_IDS, QUANTITY_SI_UNIT } from '@shared/physics/quantities';
 import { UNITS } from '@shared/physics/units';
+import { targetSeed } from '@shared/physics/random';
+import { bolometricFluxFromVWm2 } from '@shared/physics/bolometric-correction';
+import { ballesterosTemperatureK } from '@shared/physics/colour-temperature';
+import { ASSUMED_CLASS_MODELS, mainSequenceLogLuminosity } from '@shared/physics/main-sequence';
 
 const NM = UNITS.nm.toSi;
 const MAS = UNITS.mas.toSi;
@@ -71,7 +75,6 @@ describe('derivation engine', () => {
     expect(results.radius!.dependsOn).toEqual(['luminosity', 'temperature']);
     expect(results.magnetic_field!.constants).toEqual(['e', 'm_e', 'c']);
     expect(results.temperature_colour!.propagation).toBe('monte_carlo');
-    expect(results.temperature_colour!.interval).toBeDefined();
   });
 
   it('the adopted temperature is the inverse-variance mean of the estimates (Bevington & Robinson §4.1)', () => {
@@ -81,8 +84,9 @@ describe('derivation engine', () => {
     ]);
     const w1 = 1 / 200 ** 2;
     const w2 = 1 / 100 ** 2;
-    expect(results.temperature!.value).toBeCloseTo((6000 * w1 + 5900 * w2) / (w1 + w2), 6);
-    expect(results.temperature!.uncertainty).toBeCloseTo(1 / Math.sqrt(w1 + w2), 6);
+    // The weights are the estimates' σ as their draws give them (3 % sampling error at 1000 draws), so the mean is within 1 % of σ and σ within 10 %.
+    expect(Math.abs(results.temperature!.value - (6000 * w1 + 5900 * w2) / (w1 + w2))).toBeLessThan(1);
+    expect(results.temperature!.uncertainty / (1 / Math.sqrt(w1 + w2))).toBeCloseTo(1, 1);
     expect(results.temperature!.warnings).toHaveLength(0);
   });
 
@@ -232,5 +236,205 @@ describe('derivation engine', () => {
     ]);
     expect(Math.abs(results.temperature_colour!.value - 5778)).toBeLessThan(3);
     expect(results.temperature_colour!.inputs).toEqual(['B', 'V']);
+  });
+});
+
+/*
+ * An independent Monte Carlo, written here with its own plain generator
+ * (mulberry32 and Box–Muller, as published; not the engine's code): every
+ * raw measurement is drawn once per draw and the chain is computed draw by
+ * draw with the project's point laws (checked against published values in
+ * their own tests). σ is half the central 68.27 % interval (type-7
+ * percentiles), as the engine defines it.
+ *
+ * Tolerance: the half-width read from n draws scatters by about 0.96/√n of
+ * itself; with n = 20 000 for both the engine and this Monte Carlo the ratio
+ * of the two scatters by some 1 %, so 4 % is four of its σ, while the
+ * independent-input propagation this replaces was off by 0.7–1.75×.
+ */
+function referenceNormal(seed: number): () => number {
+  // mulberry32 (T. Ettinger, public domain) and Box–Muller (Ann. Math. Stat. 29, 610, 1958).
+  let a = seed >>> 0;
+  const uniform = () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
+}
+
+/** 15.87th and 84.13th type-7 percentiles of the finite values, and half their distance. */
+function referenceInterval(values: number[]): { low: number; high: number; sigma: number } {
+  const v = values.filter(Number.isFinite).sort((x, y) => x - y);
+  const at = (p: number) => {
+    const h = p * (v.length - 1);
+    const k = Math.floor(h);
+    return v[k] + (v[Math.min(k + 1, v.length - 1)] - v[k]) * (h - k);
+  };
+  const low = at(0.158655);
+  const high = at(0.841345);
+  return { low, high, sigma: (high - low) / 2 };
+}
+
+const REFERENCE_DRAWS = 20_000;
+
+describe('correlated Monte Carlo through the whole graph (issue 8, defect 1)', () => {
+  // A reddened star: E(B−V) = 0.3 ± 0.05 feeds both the colour temperature
+  // and the flux from V, so L, R, the photometric distance and the class
+  // offset all carry the same E(B−V) and T draws.
+  const star: MeasurementInput[] = [
+    { id: 'bv', kind: 'colour_index', band: 'B-V', valueSi: 0.95, uncertaintySi: 0.02 },
+    { id: 'ebv', kind: 'extinction', valueSi: 0.3, uncertaintySi: 0.05 },
+    { id: 'v', kind: 'magnitude', band: 'V', valueSi: 8, uncertaintySi: 0.02 },
+    { id: 'plx', kind: 'parallax', valueSi: 10 * MAS, uncertaintySi: 0.2 * MAS },
+  ];
+  const graph = deriveAll(star, { monteCarloSamples: REFERENCE_DRAWS, seed: 8 });
+  const normal = referenceNormal(2024);
+  const draws = { luminosity: [] as number[], radius: [] as number[], distance_photometric: [] as number[], luminosity_class: [] as number[], temperature: [] as number[] };
+  const scatter = ASSUMED_CLASS_MODELS.main_sequence.scatterDex;
+  for (let s = 0; s < REFERENCE_DRAWS; s++) {
+    const bv = 0.95 + 0.02 * normal();
+    const ebv = 0.3 + 0.05 * normal();
+    const v = 8 + 0.02 * normal();
+    const p = (10 + 0.2 * normal()) * MAS;
+    const spread = scatter * normal();
+    const t = ballesterosTemperatureK(bv - ebv);
+    const f = bolometricFluxFromVWm2(v, t, ebv, 3.1);
+    const d = CONSTANTS.au.value / p;
+    const l = 4 * Math.PI * d * d * f;
+    draws.temperature.push(t);
+    draws.luminosity.push(l);
+    draws.radius.push(Math.sqrt(l / (4 * Math.PI * CONSTANTS.sigma.value * t ** 4)));
+    draws.luminosity_class.push(Math.log10(l / L_SUN) - mainSequenceLogLuminosity(t));
+    const lHr = L_SUN * 10 ** (mainSequenceLogLuminosity(t) + spread);
+    draws.distance_photometric.push(Math.sqrt(lHr / (4 * Math.PI * f)));
+  }
+
+  for (const q of ['temperature', 'luminosity', 'radius', 'distance_photometric', 'luminosity_class'] as const) {
+    it(`σ of ${q} matches the independent Monte Carlo over the raw measurements within 4 %`, () => {
+      const reference = referenceInterval(draws[q]);
+      const engine = graph.results[q]!;
+      expect(engine.uncertainty / reference.sigma).toBeGreaterThan(0.96);
+      expect(engine.uncertainty / reference.sigma).toBeLessThan(1.04);
+    });
+  }
+
+  it('a Wien peak and a Planck fit of one spectrum count once: the adopted σ is not shrunk as if they were independent', () => {
+    // 5800 K ± 100 K from each reading. Independent: 100/√2 = 71 K; one spectrum (full correlation): 100 K.
+    const lambda = CONSTANTS.b.value / 5800;
+    const sigmaLambda = lambda * (100 / 5800);
+    const readings: MeasurementInput[] = [
+      { id: 'peak', kind: 'peak_wavelength', valueSi: lambda, uncertaintySi: sigmaLambda, spectrumId: 's1' },
+      { id: 'fit', kind: 'planck_temperature', valueSi: 5800, uncertaintySi: 100, spectrumId: 's1' },
+    ];
+    const one = deriveAll(readings, { monteCarloSamples: REFERENCE_DRAWS }).results.temperature!;
+    expect(one.uncertainty / 100).toBeGreaterThan(0.96);
+    expect(one.uncertainty / 100).toBeLessThan(1.04);
+    const two = deriveAll(
+      readings.map((m) => ({ ...m, spectrumId: m.id })),
+      { monteCarloSamples: REFERENCE_DRAWS },
+    ).results.temperature!;
+    expect(two.uncertainty / (100 / Math.SQRT2)).toBeGreaterThan(0.96);
+    expect(two.uncertainty / (100 / Math.SQRT2)).toBeLessThan(1.04);
+  });
+});
+
+describe('each target its own reproducible Monte Carlo stream (issue 8, defect 2)', () => {
+  const star = solarTwinAt10pc().filter((m) => m.kind !== 'parallax');
+
+  it('a re-run with the same seed gives the same digits; another target’s seed gives other draws', () => {
+    // The server's seeds: one per target of a project, the same at every re-run.
+    expect(targetSeed(1, 7)).toBe(targetSeed(1, 7));
+    expect(new Set([targetSeed(1, 7), targetSeed(1, 8), targetSeed(2, 7)]).size).toBe(3);
+    const a = deriveAll(star, { seed: targetSeed(1, 7) });
+    const again = deriveAll(star, { seed: targetSeed(1, 7) });
+    const b = deriveAll(star, { seed: targetSeed(1, 8) });
+    for (const q of QUANTITY_IDS) {
+      if (!a.results[q]) continue;
+      expect(again.results[q]!.uncertainty).toBe(a.results[q]!.uncertainty);
+    }
+    expect(b.results.luminosity_hr!.uncertainty).not.toBe(a.results.luminosity_hr!.uncertainty);
+  });
+
+  it('over many targets the assumed-class luminosity’s σ scatters about the independent Monte Carlo’s, not about one shared bias', () => {
+    const t = { value: 5772, sigma: 23 };
+    const normal = referenceNormal(7);
+    const values: number[] = [];
+    for (let s = 0; s < 200_000; s++) values.push(L_SUN * 10 ** (mainSequenceLogLuminosity(t.value + t.sigma * normal()) + 0.15 * normal()));
+    const reference = referenceInterval(values).sigma;
+    const sigmas = Array.from({ length: 40 }, (_, n) =>
+      deriveAll([{ id: 'fit', kind: 'planck_temperature', valueSi: t.value, uncertaintySi: t.sigma }], { seed: 1000 + n }).results.luminosity_hr!.uncertainty,
+    );
+    expect(new Set(sigmas).size).toBe(40);
+    const mean = sigmas.reduce((x, y) => x + y, 0) / sigmas.length;
+    // 40 targets of 1000 draws: the mean σ is known to about 3 %/√40 = 0.5 %; 2 % is four of that.
+    expect(Math.abs(mean / reference - 1)).toBeLessThan(0.02);
+  });
+});
+
+describe('one inverse-variance combination with the disagreement warning and the Birge ratio (issue 8, defect 6)', () => {
+  it('parallaxes 10 ± 0.1 and 12 ± 0.1 mas: p = 11 ± 1.0 mas (R_B = √200 = 14.1, Birge 1932), so d runs from 83.3 to 100 pc, not ± 0.58 pc', () => {
+    const { results } = deriveAll(
+      [
+        { id: 'a', kind: 'parallax', valueSi: 10 * MAS, uncertaintySi: 0.1 * MAS },
+        { id: 'b', kind: 'parallax', valueSi: 12 * MAS, uncertaintySi: 0.1 * MAS },
+      ],
+      { monteCarloSamples: REFERENCE_DRAWS },
+    );
+    const d = results.distance_parallax!;
+    expect(d.value / PC).toBeCloseTo(1000 / 11, 6);
+    // p ~ N(11, 1) mas gives the 68 % interval 1000/12 to 1000/10 pc, σ = 8.33 pc.
+    expect(d.uncertainty / PC / 8.333).toBeGreaterThan(0.96);
+    expect(d.uncertainty / PC / 8.333).toBeLessThan(1.04);
+    const w = d.warnings.find((x) => x.code === 'measurements_disagree')!;
+    expect(w.message).toMatch(/14\.1 σ/);
+    expect(w.message).toMatch(/Birge ratio 14\.14/);
+  });
+
+  it('Planck temperatures 5000 ± 50 and 5600 ± 50 K: 5300 ± 300 K (R_B = √72 = 8.49), not ± 35 K', () => {
+    const { results } = deriveAll(
+      [
+        { id: 'a', kind: 'planck_temperature', valueSi: 5000, uncertaintySi: 50 },
+        { id: 'b', kind: 'planck_temperature', valueSi: 5600, uncertaintySi: 50 },
+      ],
+      { monteCarloSamples: REFERENCE_DRAWS },
+    );
+    for (const q of ['temperature_planck', 'temperature'] as const) {
+      expect(results[q]!.value).toBeCloseTo(5300, 6);
+      expect(results[q]!.uncertainty / 300).toBeGreaterThan(0.96);
+      expect(results[q]!.uncertainty / 300).toBeLessThan(1.04);
+    }
+    expect(results.temperature_planck!.warnings.map((w) => w.code)).toContain('measurements_disagree');
+    expect(results.temperature_planck!.method.label === 'least-squares Planck fit to a flux-calibrated spectrum').toBe(true);
+  });
+});
+
+describe('the asymmetric 68 % interval where the draws are skewed (issue 8, defect 8)', () => {
+  it('distance from p = 10 ± 5 mas: 100 pc with the draws’ interval 66 to 186 pc (−34/+86), as the independent Monte Carlo finds', () => {
+    const { results } = deriveAll([{ id: 'p', kind: 'parallax', valueSi: 10 * MAS, uncertaintySi: 5 * MAS }], { monteCarloSamples: REFERENCE_DRAWS });
+    const normal = referenceNormal(99);
+    const values: number[] = [];
+    for (let s = 0; s < REFERENCE_DRAWS; s++) {
+      const p = 10 + 5 * normal();
+      // A draw at or below 0 mas gives no distance: left out, as the engine leaves it out.
+      values.push(p > 0 ? 1000 / p : Number.NaN);
+    }
+    const reference = referenceInterval(values);
+    const d = results.distance_parallax!;
+    expect(d.value / PC).toBeCloseTo(100, 9);
+    expect(d.interval).toBeDefined();
+    expect(d.interval!.low / PC / reference.low).toBeCloseTo(1, 1);
+    expect(d.interval!.high / PC / reference.high).toBeCloseTo(1, 1);
+    expect(Math.abs(d.interval!.low / PC / reference.low - 1)).toBeLessThan(0.03);
+    expect(Math.abs(d.interval!.high / PC / reference.high - 1)).toBeLessThan(0.04);
+    expect(d.warnings.map((w) => w.code)).toEqual(expect.arrayContaining(['parallax_low_snr', 'monte_carlo_rejected']));
+  });
+
+  it('a precise, nearly linear result carries no interval: σ says it all', () => {
+    const { results } = deriveAll(solarTwinAt10pc());
+    expect(results.distance_parallax!.interval).toBeUndefined();
+    expect(results.radial_velocity!.interval).toBeUndefined();
   });
 });
