@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { PhysicsError } from '@shared/physics/errors';
-import { findContinuumPeak } from '@shared/physics/planck';
-import { syntheticSpectrum, WIEN_B } from '../../support/synthetic-spectrum';
+import { findContinuumPeak, runningMedian } from '@shared/physics/planck';
+import { normalDeviates, syntheticSpectrum, WIEN_B } from '../../support/synthetic-spectrum';
 
 /** The error a call throws, for tests that read its code and words. */
 function thrown(f: () => unknown): PhysicsError {
@@ -54,5 +54,43 @@ describe('continuum peak: only where the data turn over inside the range', () =>
       const peak = findContinuumPeak(s);
       expect(Math.abs(peak.value - WIEN_B / t)).toBeLessThan(3 * peak.sigma);
     }
+  });
+});
+
+describe('continuum peak: cost n log n', () => {
+  /** The median of each whole window, by sorting every window afresh: slow and plainly right. */
+  function bruteRunningMedian(values: number[], window: number): number[] {
+    const w = window % 2 ? window : window - 1;
+    const half = w >> 1;
+    return values.map((_, i) => {
+      const lo = Math.min(Math.max(0, i - half), values.length - w);
+      const sorted = values.slice(lo, lo + w).sort((a, b) => a - b);
+      return sorted[half];
+    });
+  }
+
+  it('the running median agrees exactly with sorting each window, ties and short inputs included', () => {
+    const normal = normalDeviates(77);
+    for (const n of [1, 2, 5, 17, 100, 1001]) {
+      const values = Array.from({ length: n }, () => normal());
+      // A third of the values rounded, so that ties occur.
+      for (let i = 0; i < n; i += 3) values[i] = Math.round(values[i]);
+      for (const window of [1, 3, 4, 5, 15, 51, n, n + 10]) {
+        const w = Math.min(window, n);
+        expect(Array.from(runningMedian(values, window))).toEqual(bruteRunningMedian(values, w));
+      }
+    }
+  });
+
+  it.each([
+    [2_000, 5800],
+    [20_000, 5200],
+    [200_000, 6000],
+  ])('a %i-point spectrum of a %i K star over 350–1000 nm has its peak within 3σ (and 0.5 %) of b / T (CODATA 2018 b)', (points, t) => {
+    const s = syntheticSpectrum({ temperatureK: t, fromM: 350e-9, toM: 1000e-9, points, seed: points, constantNoise: 0.01 });
+    const peak = findContinuumPeak(s);
+    const expected = WIEN_B / t;
+    expect(Math.abs(peak.value - expected)).toBeLessThan(3 * peak.sigma);
+    expect(Math.abs(peak.value / expected - 1)).toBeLessThan(0.005);
   });
 });
