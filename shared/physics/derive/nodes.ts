@@ -8,8 +8,9 @@ import { nonDetectionWarnings } from '../detection';
 import type { PhysicsWarning } from '../errors';
 import { dereddenedColourMag } from '../extinction';
 import { distanceFromLuminosityM, luminosityFromFluxW } from '../inverse-square';
-import { classifyLuminosity, radiusPlausibilityWarnings } from '../luminosity-class';
+import { classifyLuminosity, labelNamesClass, luminosityClassWithin, radiusPlausibilityWarnings } from '../luminosity-class';
 import { ASSUMED_CLASS_MODELS, assumedClassLogLuminosity, LUMINOSITY_CLASS_LABELS } from '../main-sequence';
+import { summariseDraws } from '../monte-carlo';
 import { parallaxDistance, parallaxDistanceM } from '../parallax';
 import type { MeasurementKind, QuantityId } from '../quantities';
 import { rotationVelocityMs } from '../rotation';
@@ -379,15 +380,34 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
   },
   {
     quantity: 'luminosity',
-    kinds: [],
+    kinds: ['distance', 'luminosity'],
     quantities: ['bolometric_flux', 'distance_parallax'],
     checks: [],
     options: [],
     derive: (ctx) => {
       const f = ctx.quantity('bolometric_flux');
-      const d = f && ctx.quantity('distance_parallax');
-      if (!f || !d) return null;
-      return { ...ctx.push2(luminosityFromFluxW, f, d), method: { id: 'inverse_square', label: 'inverse-square law, L = 4π d² F, with the parallax distance' } };
+      // A distance known from elsewhere (a cluster's, a catalogue's) stands in for the parallax only when there is none.
+      const parallax = f && ctx.quantity('distance_parallax');
+      const given = f && !parallax ? ctx.combined(ctx.measurements('distance'), 'given distances') : null;
+      const d = parallax ?? given;
+      if (f && d) {
+        return {
+          ...ctx.push2(luminosityFromFluxW, f, d),
+          method: { id: 'inverse_square', label: `inverse-square law, L = 4π d² F, with the ${parallax ? 'parallax' : 'given'} distance` },
+          ...(given ? { ids: given.ids, warnings: given.warnings } : {}),
+        };
+      }
+      // Without flux and distance, a luminosity known from elsewhere (a standard candle's), as entered.
+      const l = ctx.combined(ctx.measurements('luminosity'), 'given luminosities');
+      if (!l) return null;
+      return {
+        value: l.value,
+        draws: l.draws,
+        method: { id: 'given', label: 'given luminosity (known from elsewhere), used as entered' },
+        propagation: l.ids.length > 1 ? 'combination' : 'as_measured',
+        ids: l.ids,
+        warnings: l.warnings,
+      };
     },
   },
   {
@@ -419,12 +439,15 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
       const t = ctx.quantity('temperature');
       const l = t && ctx.quantity('luminosity');
       if (!t || !l) return null;
-      const cls = classifyLuminosity(t.value, l.value);
       const offset = ctx.push2((temperature, luminosity) => classifyLuminosity(temperature, luminosity).offsetDex, t, l);
+      // Every class within 1σ of the offset (half its draws' central 68 % interval) is named, not only the nominal one.
+      const spread = summariseDraws(offset.draws, new Float64Array(offset.draws.length), 'luminosity_class');
+      const cls = luminosityClassWithin(t.value, l.value, (spread.high - spread.low) / 2);
       return {
         value: cls.offsetDex,
         draws: offset.draws,
         label: cls.label,
+        warnings: cls.warnings,
         method: {
           id: 'main_sequence_offset',
           label: `offset log(L / L_MS(T)) from the mean dwarf sequence and radius ${cls.radiusRsun.toPrecision(3)} R☉; thresholds are common practice`,
@@ -448,7 +471,7 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
       const l = ctx.push2((temperature, deviation) => L_SUN_W * 10 ** assumedClassLogLuminosity(temperature, assumed, deviation), t, spread);
       const warnings: PhysicsWarning[] = [];
       const derived = ctx.checkAgainst('luminosity_class');
-      if (derived && derived.label !== LUMINOSITY_CLASS_LABELS[assumed]) {
+      if (derived && !labelNamesClass(derived.label ?? '', assumed)) {
         warnings.push({
           code: 'assumed_class',
           quantity: 'luminosity_hr',
@@ -469,23 +492,30 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
   },
   {
     quantity: 'distance_photometric',
-    kinds: [],
+    kinds: ['luminosity'],
     quantities: ['luminosity_hr', 'bolometric_flux'],
     checks: ['distance_parallax'],
     options: ['assumedClass'],
     derive: (ctx) => {
-      const l = ctx.quantity('luminosity_hr');
-      const f = l && ctx.quantity('bolometric_flux');
-      if (!l || !f) return null;
+      const f = ctx.quantity('bolometric_flux');
+      if (!f) return null;
       const assumed = ctx.options.assumedClass;
+      // A luminosity known from elsewhere (a standard candle's) gives the distance by the same law, in place of the assumed class's.
+      const given = ctx.combined(ctx.measurements('luminosity'), 'given luminosities');
+      const l = given ?? ctx.quantity('luminosity_hr');
+      if (!l) return null;
       const parallax = ctx.checkAgainst('distance_parallax');
+      const what = given ? 'the distance from the given luminosity' : 'the photometric distance';
+      const because = given ? '' : `; the assumed class ${LUMINOSITY_CLASS_LABELS[assumed]} may be wrong`;
       return {
         ...ctx.push2(distanceFromLuminosityM, l, f),
-        method: {
-          id: 'inverse_square_assumed_class',
-          label: `d = √(L / 4πF) with the luminosity of a ${LUMINOSITY_CLASS_LABELS[assumed]} star (spectroscopic parallax); σ by Monte Carlo`,
-        },
-        constants: ['L_sun', 'R_sun', 'sigma'],
+        method: given
+          ? { id: 'inverse_square_given_luminosity', label: 'd = √(L / 4πF) with the given luminosity (inverse-square law); σ by Monte Carlo' }
+          : {
+              id: 'inverse_square_assumed_class',
+              label: `d = √(L / 4πF) with the luminosity of a ${LUMINOSITY_CLASS_LABELS[assumed]} star (spectroscopic parallax); σ by Monte Carlo`,
+            },
+        ...(given ? { ids: given.ids, warnings: given.warnings } : { constants: ['L_sun', 'R_sun', 'sigma'] as ConstantSymbol[] }),
         afterwards: (own) => {
           if (!parallax) return [];
           const apart = Math.abs(own.value - parallax.value) / Math.hypot(own.uncertainty, parallax.uncertainty);
@@ -494,7 +524,7 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
             {
               code: 'distances_disagree',
               quantity: 'distance_photometric',
-              message: `the photometric distance differs from the parallax distance by ${apart.toFixed(1)} σ (more than ${DISAGREEMENT_SIGMA} σ); the assumed class ${LUMINOSITY_CLASS_LABELS[assumed]} may be wrong`,
+              message: `${what} differs from the parallax distance by ${apart.toFixed(1)} σ (more than ${DISAGREEMENT_SIGMA} σ)${because}`,
               limit: `${DISAGREEMENT_SIGMA} σ`,
             },
           ];

@@ -2,7 +2,8 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { CONSTANTS } from '@shared/physics/constants';
 import { PhysicsError } from '@shared/physics/errors';
-import { classifyLuminosity, radiusPlausibilityWarnings } from '@shared/physics/luminosity-class';
+import { classifyLuminosity, luminosityClassWithin, radiusPlausibilityWarnings } from '@shared/physics/luminosity-class';
+import { deriveAll } from '@shared/physics/derive';
 import { assumedClassLogLuminosity, assumedClassLuminosity, mainSequenceLogLuminosity, photometricDistance } from '@shared/physics/main-sequence';
 import { spectralClass, spectralClassFromTemperature, spectralIndexOfType } from '@shared/physics/spectral-class';
 import { DWARF_SEQUENCE } from '@shared/physics/tables/dwarf-sequence';
@@ -127,5 +128,51 @@ describe('luminosity class', () => {
     expect(warnings[0].limit).toMatch(/R☉$/);
     expect(radiusPlausibilityWarnings(1.0 * R_SUN, 5772, 'main_sequence')).toHaveLength(0);
     expect(radiusPlausibilityWarnings(11 * R_SUN, 4700, 'giant')).toHaveLength(0);
+  });
+});
+
+describe('luminosity class near a boundary, and hot giants', () => {
+  // The Sun's row of the dwarf table: G2V, 5770 K, log L/L☉ = 0.01 (Pecaut & Mamajek 2013 / Mamajek 2024.05.15).
+  const SUN_ROW_LOGL = 0.01;
+
+  it('a star 0.30 ± 0.10 dex above the main sequence, within 1σ of the 0.35 dex boundary, is "main sequence (V) or subgiant (IV)"', () => {
+    const l = 10 ** (SUN_ROW_LOGL + 0.3) * L_SUN;
+    const cls = luminosityClassWithin(5770, l, 0.1);
+    expect(cls.candidates).toEqual(['main_sequence', 'subgiant']);
+    expect(cls.label).toMatch(/^main sequence \(V\) or subgiant \(IV\)/);
+    expect(cls.label).toMatch(/within 1σ/);
+    expect(cls.warnings).toMatchObject([{ code: 'class_boundary', limit: 'Δ = 0.35 dex' }]);
+  });
+
+  it('one class, without a warning, when the 1σ range stays inside it (the Sun, Δ = 0 ± 0.05 dex)', () => {
+    const cls = luminosityClassWithin(5770, 10 ** SUN_ROW_LOGL * L_SUN, 0.05);
+    expect(cls.candidates).toEqual(['main_sequence']);
+    expect(cls.label).toBe('main sequence (V)');
+    expect(cls.warnings).toEqual([]);
+  });
+
+  it('a B5 giant is not called a subgiant alone: M_V(B5 III) = −2.2 (Schmidt-Kaler 1982, from memory) against M_V(B5V) = −0.85 (the dwarf table) puts it 0.54 dex up, in the offset band of subgiants', () => {
+    // Same temperature, same BC_V: Δ log L = 0.4 × (−0.85 − (−2.2)) = 0.54 dex above B5V (15 700 K, log L = 2.772).
+    const logL = 2.772 + 0.4 * (-0.85 + 2.2);
+    expect(classifyLuminosity(15_700, 10 ** logL * L_SUN).className).toBe('subgiant');
+    const cls = luminosityClassWithin(15_700, 10 ** logL * L_SUN, 0.05);
+    expect(cls.candidates).toEqual(['subgiant', 'giant']);
+    expect(cls.label).toMatch(/^subgiant \(IV\) or giant \(III\)/);
+    expect(cls.warnings.map((w) => w.code)).toEqual(['class_boundary']);
+  });
+
+  it('through the engine: a B5 giant of given luminosity is labelled "subgiant (IV) or giant (III)" and the assumed class giant is not contradicted', () => {
+    const logL = 2.772 + 0.4 * (-0.85 + 2.2);
+    const graph = deriveAll(
+      [
+        { id: 'lum', kind: 'luminosity', valueSi: 10 ** logL * L_SUN, uncertaintySi: 0.1 * 10 ** logL * L_SUN },
+        { id: 't', kind: 'planck_temperature', valueSi: 15_700, uncertaintySi: 200 },
+      ],
+      { assumedClass: 'giant' },
+    );
+    const cls = graph.results.luminosity_class!;
+    expect(cls.label).toMatch(/subgiant \(IV\) or giant \(III\)/);
+    expect(cls.warnings.map((w) => w.code)).toContain('class_boundary');
+    expect(graph.results.luminosity_hr!.warnings.map((w) => w.code)).not.toContain('assumed_class');
   });
 });
