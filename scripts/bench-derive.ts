@@ -1,16 +1,18 @@
 /**
- * Throughput of the derivation engine: 100 000 invented stars, each with a
- * full set of measurements, through deriveAll. Prints stars per second and
- * peak memory. Half the stars carry a measured bolometric flux; the other
- * half derive it from V and the bolometric correction, so that every Monte
- * Carlo route is exercised.
+ * Throughput of the derivation engine beside what a practitioner would
+ * write instead (../shared/bench/numpy_mc_derive.py: numpy, the same
+ * correlated chain, vectorised), run in turns in one process tree: a round
+ * of the engine over invented stars, then the numpy script over as many,
+ * `--rounds` times; medians of stars per second and the ratio, with each
+ * side's peak memory. Half the stars carry a measured bolometric flux; the
+ * other half derive it from V and the bolometric correction, so that every
+ * route is exercised. Each star draws from a seed of its own, as the server
+ * gives each target its own.
  *
- * Each star draws from a base seed of its own unless --seed gives one for
- * all, as the server derives (it leaves the default, 1): the engine keeps
- * the Monte Carlo deviates of a seed, so the two measure its two regimes.
- *
- *   npm run bench:derive [-- --stars 20000 --samples 1000 --seed 1]
+ *   npm run bench:derive [-- --stars 5000 --samples 1000 --rounds 5]
  */
+import { spawnSync } from 'node:child_process';
+import { resolve } from 'node:path';
 import { resourceUsage } from 'node:process';
 import { performance } from 'node:perf_hooks';
 import { CONSTANTS } from '../shared/physics/constants';
@@ -25,9 +27,10 @@ function argument(name: string, fallback: number): number {
   return Number.isFinite(value) && value > 0 ? value : fallback;
 }
 
-const STARS = argument('stars', 100_000);
+const STARS = argument('stars', 5000);
 const SAMPLES = argument('samples', 1000);
-const SHARED_SEED = process.argv.includes('--seed') ? argument('seed', 1) : undefined;
+const ROUNDS = argument('rounds', 5);
+const NUMPY_SCRIPT = resolve(process.cwd(), '../shared/bench/numpy_mc_derive.py');
 const NM = UNITS.nm.toSi;
 const MAS = UNITS.mas.toSi;
 
@@ -61,27 +64,54 @@ function inventStar(n: number): MeasurementInput[] {
 }
 
 const stars = Array.from({ length: STARS }, (_, n) => inventStar(n));
-
-// The invented measurements are held in memory before timing starts; this
-// baseline separates their share of the RSS from the engine's.
 const baselineRss = process.memoryUsage().rss;
-let peakRss = baselineRss;
-let derived = 0;
-let issues = 0;
-const started = performance.now();
-for (let n = 0; n < stars.length; n++) {
-  const graph = deriveAll(stars[n], { monteCarloSamples: SAMPLES, seed: SHARED_SEED ?? n });
-  for (const key in graph.results) if (Object.prototype.hasOwnProperty.call(graph.results, key)) derived += 1;
-  issues += graph.issues.length;
-  if (n % 1000 === 0) peakRss = Math.max(peakRss, process.memoryUsage().rss);
-}
-const seconds = (performance.now() - started) / 1000;
-peakRss = Math.max(peakRss, process.memoryUsage().rss);
-const maxRssKiB = resourceUsage().maxRSS;
 
-console.log(`stars: ${STARS}, Monte Carlo draws per non-linear quantity: ${SAMPLES}, base seed: ${SHARED_SEED ?? 'one per star'}`);
-console.log(`derived values: ${derived} (${(derived / STARS).toFixed(1)} per star), issues: ${issues}`);
-console.log(`time: ${seconds.toFixed(2)} s, throughput: ${Math.round(STARS / seconds)} stars/s`);
+/** One round of the engine: stars per second, and the values and issues it gave. */
+function engineRound(): { rate: number; derived: number; issues: number } {
+  let derived = 0;
+  let issues = 0;
+  const started = performance.now();
+  for (let n = 0; n < stars.length; n++) {
+    const graph = deriveAll(stars[n], { monteCarloSamples: SAMPLES, seed: n });
+    for (const key in graph.results) if (Object.prototype.hasOwnProperty.call(graph.results, key)) derived += 1;
+    issues += graph.issues.length;
+  }
+  return { rate: STARS / ((performance.now() - started) / 1000), derived, issues };
+}
+
+/** One run of the numpy script over as many stars; its own stars per second and its peak RSS (ru_maxrss, KiB on Linux). */
+function numpyRound(): { rate: number; maxRssKiB: number; line: string } {
+  const wrapper = `import resource, runpy, sys\nsys.argv = [sys.argv[1], sys.argv[2], sys.argv[3]]\nrunpy.run_path(sys.argv[0], run_name='__main__')\nprint('maxrss', resource.getrusage(resource.RUSAGE_SELF).ru_maxrss)`;
+  const run = spawnSync('python3', ['-c', wrapper, NUMPY_SCRIPT, String(STARS), String(SAMPLES)], { encoding: 'utf8' });
+  if (run.status !== 0) throw new Error(`numpy script failed: ${run.stderr}`);
+  const line = run.stdout.split('\n').find((l) => l.startsWith('numpy')) ?? '';
+  const rate = Number((/= ([\d,]+) stars\/s/.exec(line)?.[1] ?? 'NaN').replace(/,/g, ''));
+  const maxRssKiB = Number(/maxrss (\d+)/.exec(run.stdout)?.[1] ?? 'NaN');
+  return { rate, maxRssKiB, line };
+}
+
+const median = (xs: number[]): number => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+
+console.log(`stars per round: ${STARS}, Monte Carlo draws per measurement: ${SAMPLES}, each star its own seed; rounds: ${ROUNDS}, engine and numpy in turns`);
+const engineRates: number[] = [];
+const numpyRates: number[] = [];
+let numpyPeakKiB = 0;
+let last = { derived: 0, issues: 0 };
+for (let round = 0; round < ROUNDS; round++) {
+  const e = engineRound();
+  engineRates.push(e.rate);
+  last = e;
+  const p = numpyRound();
+  numpyRates.push(p.rate);
+  numpyPeakKiB = Math.max(numpyPeakKiB, p.maxRssKiB);
+  console.log(`round ${round + 1}: engine ${Math.round(e.rate)} stars/s, numpy ${Math.round(p.rate)} stars/s (${p.line})`);
+}
+const maxRssKiB = resourceUsage().maxRSS;
+console.log(`engine: derived values per star ${(last.derived / STARS).toFixed(1)}, issues ${last.issues}`);
+console.log(`median engine ${Math.round(median(engineRates))} stars/s, median numpy ${Math.round(median(numpyRates))} stars/s, ratio ${(median(engineRates) / median(numpyRates)).toFixed(2)}`);
 console.log(
-  `RSS with the measurements loaded: ${(baselineRss / 2 ** 20).toFixed(0)} MiB; peak RSS sampled while deriving: ${(peakRss / 2 ** 20).toFixed(0)} MiB; process maxRSS: ${(maxRssKiB / 1024).toFixed(0)} MiB`,
+  `peak memory: engine process maxRSS ${(maxRssKiB / 1024).toFixed(0)} MiB (${(baselineRss / 2 ** 20).toFixed(0)} MiB with the measurements loaded, before deriving); numpy process maxRSS ${(numpyPeakKiB / 1024).toFixed(0)} MiB`,
 );

@@ -407,30 +407,56 @@ export interface DrawSummary {
 
 /**
  * Moves the k-th smallest of a[lo..hi] to a[k], nothing larger before it and
- * nothing smaller after it (Wirth's form of Hoare's selection; linear time
- * on average, where a sort is n log n).
- * @see C. A. R. Hoare (1961), Algorithm 65: FIND, Comm. ACM 4, 321; N. Wirth (1976), Algorithms + Data Structures = Programs, §2.3.4 (from memory)
+ * nothing smaller after it: Floyd and Rivest's SELECT, which first selects
+ * within a small sample around where k must fall (so that the pivot is
+ * already near the k-th value) and then partitions once; about 1.5 n
+ * comparisons where Hoare's selection takes some 3 n.
+ * @see R. W. Floyd & R. L. Rivest (1975), Algorithm 489: The algorithm SELECT, Comm. ACM 18, 173
  */
 function selectInPlace(a: Float64Array, k: number, lo: number, hi: number): void {
-  let l = lo;
-  let m = hi;
-  while (l < m) {
-    const pivot = a[k];
-    let i = l;
-    let j = m;
-    do {
-      while (a[i] < pivot) i++;
-      while (pivot < a[j]) j--;
-      if (i <= j) {
-        const t = a[i];
-        a[i] = a[j];
-        a[j] = t;
-        i++;
-        j--;
-      }
-    } while (i <= j);
-    if (j < k) l = i;
-    if (k < i) m = j;
+  let left = lo;
+  let right = hi;
+  while (right > left) {
+    if (right - left > 600) {
+      const n = right - left + 1;
+      const i = k - left + 1;
+      const z = Math.log(n);
+      const s = 0.5 * Math.exp((2 * z) / 3);
+      const sd = 0.5 * Math.sqrt((z * s * (n - s)) / n) * (i < n / 2 ? -1 : 1);
+      selectInPlace(a, k, Math.max(left, Math.floor(k - (i * s) / n + sd)), Math.min(right, Math.floor(k + ((n - i) * s) / n + sd)));
+    }
+    const t = a[k];
+    let i = left;
+    let j = right;
+    let x = a[left];
+    a[left] = a[k];
+    a[k] = x;
+    if (a[right] > t) {
+      x = a[left];
+      a[left] = a[right];
+      a[right] = x;
+    }
+    while (i < j) {
+      x = a[i];
+      a[i] = a[j];
+      a[j] = x;
+      i++;
+      j--;
+      while (a[i] < t) i++;
+      while (a[j] > t) j--;
+    }
+    if (a[left] === t) {
+      x = a[left];
+      a[left] = a[j];
+      a[j] = x;
+    } else {
+      j++;
+      x = a[j];
+      a[j] = a[right];
+      a[right] = x;
+    }
+    if (j <= k) left = j + 1;
+    if (k <= j) right = j - 1;
   }
 }
 
@@ -468,8 +494,8 @@ export function summariseDraws(draws: Float64Array, scratch: Float64Array, quant
   const highPosition = HIGH_PROBABILITY * (n - 1);
   const kLow = Math.floor(lowPosition);
   const kHigh = Math.floor(highPosition);
-  selectInPlace(scratch, kLow, 0, n - 1);
-  selectInPlace(scratch, kHigh, kLow + 1, n - 1);
+  selectInPlace(scratch, kHigh, 0, n - 1);
+  selectInPlace(scratch, kLow, 0, kHigh - 1);
   const lowBelow = scratch[kLow];
   const lowAbove = smallest(scratch, kLow + 1, kHigh + 1);
   const highBelow = scratch[kHigh];

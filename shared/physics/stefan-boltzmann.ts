@@ -12,7 +12,8 @@ const FOUR_PI_SIGMA = 4 * Math.PI * SIGMA;
 export function luminosityFromRadiusW(radiusM: number, temperatureK: number): number {
   requirePositive(radiusM, 'radius');
   requirePositive(temperatureK, 'temperature');
-  return FOUR_PI_SIGMA * radiusM * radiusM * temperatureK ** 4;
+  const t2 = temperatureK * temperatureK;
+  return FOUR_PI_SIGMA * radiusM * radiusM * t2 * t2;
 }
 
 /**
@@ -22,7 +23,9 @@ export function luminosityFromRadiusW(radiusM: number, temperatureK: number): nu
 export function radiusFromLuminosityM(luminosityW: number, temperatureK: number): number {
   requirePositive(luminosityW, 'luminosity');
   requirePositive(temperatureK, 'temperature');
-  return Math.sqrt(luminosityW / (FOUR_PI_SIGMA * temperatureK ** 4));
+  // T⁴ as (T²)², two products: Math.pow costs several times more, and the Monte Carlo asks it a thousand times per star.
+  const t2 = temperatureK * temperatureK;
+  return Math.sqrt(luminosityW / (FOUR_PI_SIGMA * t2 * t2));
 }
 
 /**

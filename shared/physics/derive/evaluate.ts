@@ -1,5 +1,6 @@
 import { PhysicsError, type PhysicsWarning } from '../errors';
 import { DEFAULT_R_V } from '../extinction';
+import { physicalLimitWarnings } from '../limits';
 import { LUMINOSITY_CLASSES } from '../main-sequence';
 import { DEFAULT_MONTE_CARLO_SAMPLES, summariseDraws } from '../monte-carlo';
 import { QUANTITY_IDS, QUANTITY_SI_UNIT, type MeasurementKind, type QuantityId } from '../quantities';
@@ -222,9 +223,22 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
   };
   const constant = (value: number): Series => ({ value, draws: new Float64Array(samples).fill(value), sigma: 0, ids: [], warnings: [] });
   const summary = (draws: Float64Array, quantity: string) => summariseDraws(draws, scratch, quantity);
-  const sigmaOf = (draws: Float64Array, quantity: string): number => {
-    const s = summary(draws, quantity);
-    return (s.high - s.low) / 2;
+  /** A series whose σ is read from its draws only when a combination asks for it (most are never combined). */
+  const drawnSeries = (value: number, draws: Float64Array, ids: readonly MeasurementId[], warnings: readonly PhysicsWarning[], quantity: string): Series => {
+    let sigma: number | undefined;
+    return {
+      value,
+      draws,
+      ids,
+      warnings,
+      get sigma() {
+        if (sigma === undefined) {
+          const s = summary(draws, quantity);
+          sigma = (s.high - s.low) / 2;
+        }
+        return sigma;
+      },
+    };
   };
 
   const combineSeries = (
@@ -285,13 +299,7 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
               quantity,
               'measurements_disagree',
             );
-            out = {
-              value: c.value,
-              draws: c.draws,
-              sigma: sigmaOf(c.draws, quantity),
-              ids: list.map((m) => m.id),
-              warnings: [...missingUncertaintyWarnings(list, quantity), ...c.warnings],
-            };
+            out = drawnSeries(c.value, c.draws, list.map((m) => m.id), [...missingUncertaintyWarnings(list, quantity), ...c.warnings], quantity);
           }
         } catch (error) {
           if (!(error instanceof PhysicsError)) throw error;
@@ -311,7 +319,7 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
           const value = nominal(law(m.value, m.restWavelength), quantity);
           const draws = new Float64Array(samples);
           pushDraws2(law, observed.draws, restDraws, draws);
-          return { value, draws, sigma: sigmaOf(draws, quantity), ids: [m.id], warnings: observed.warnings };
+          return drawnSeries(value, draws, [m.id], observed.warnings, quantity);
         } catch (error) {
           if (!(error instanceof PhysicsError)) throw error;
           issues.push(issueOf(error, quantity, m.id));
@@ -365,7 +373,8 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
       const uncertainty = (s.high - s.low) / 2;
       const value = nominal(outcome.value, quantity);
       if (!Number.isFinite(uncertainty)) nominal(uncertainty, quantity);
-      const warnings: PhysicsWarning[] = [...(outcome.warnings ?? [])];
+      // A value that breaks physics is refused here (an issue); one outside the known stars is warned.
+      const warnings: PhysicsWarning[] = [...(outcome.warnings ?? []), ...physicalLimitWarnings(quantity, value)];
       const share = s.rejected / (s.accepted + s.rejected);
       if (share > REJECTED_DRAWS_LIMIT) {
         warnings.push({

@@ -549,7 +549,11 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
     'line_wavelength',
     (m) => {
       const vacuum = toVacuum(m);
-      return (observed, rest) => relativisticRadialVelocityMs(vacuum(observed), vacuum(rest));
+      // An exact rest wavelength is converted once, not at every draw.
+      const exactRest = m.restWavelengthSigma === 0 ? vacuum(m.restWavelength) : Number.NaN;
+      return m.restWavelengthSigma === 0
+        ? (observed) => relativisticRadialVelocityMs(vacuum(observed), exactRest)
+        : (observed, rest) => relativisticRadialVelocityMs(vacuum(observed), vacuum(rest));
     },
     (media) => ({ id: 'doppler_relativistic', label: `relativistic Doppler formula, ${mediaWords(media)}; positive = receding; no barycentric correction` }),
     ['c'],
