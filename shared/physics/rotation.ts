@@ -1,5 +1,5 @@
 import { CONSTANTS } from './constants';
-import { requireFiniteResult, requireNonNegative, requirePositive, requireUncertainty } from './errors';
+import { PhysicsError, requireFiniteResult, requireNonNegative, requirePositive, requireUncertainty } from './errors';
 import type { Measured } from './measured';
 
 /**
@@ -7,12 +7,21 @@ import type { Measured } from './measured';
  * m s⁻¹, from the wavelength separation in m of one line between the
  * approaching and the receding limb and the line's rest wavelength in m:
  * v sin i = c Δλ / (2 λ₀). A separation of 0 (no broadening seen) is data
- * and gives 0; a negative one is refused.
+ * and gives 0; a negative one, or one of 2 λ₀ or more (v ≥ c), is refused.
  * @see REFERENCES.md "Rotation from the two limbs"; CODATA 2018 c
  */
 export function rotationVelocityMs(limbSeparationM: number, restWavelengthM: number): number {
   requireNonNegative(limbSeparationM, 'limb_separation');
   requirePositive(restWavelengthM, 'rest_wavelength');
+  // Δλ ≥ 2 λ₀ would make the limbs move at or faster than light.
+  if (limbSeparationM >= 2 * restWavelengthM) {
+    throw new PhysicsError(
+      'unphysical',
+      'rotation_velocity',
+      `a separation of ${limbSeparationM.toPrecision(3)} m between the limbs of a line at ${restWavelengthM.toPrecision(4)} m would mean v sin i ≥ c`,
+      'Δλ < 2 λ₀ (v < c)',
+    );
+  }
   return (CONSTANTS.c.value * limbSeparationM) / (2 * restWavelengthM);
 }
 

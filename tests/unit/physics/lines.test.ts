@@ -89,6 +89,12 @@ describe('rotation from the two limbs', () => {
     expect(() => rotationVelocityMs(-0.01e-9, 656e-9)).toThrow(PhysicsError);
   });
 
+  it('refuses a separation of 2 λ₀ or more, which would make v sin i = c Δλ / (2 λ₀) reach c (SI definition of c)', () => {
+    expect(() => rotationVelocityMs(2 * 656.279e-9, 656.279e-9)).toThrow(PhysicsError);
+    expect(() => rotationVelocityMs(1e291, 656.279e-9)).toThrow(/c/);
+    expect(rotationVelocityMs(656.279e-9, 656.279e-9)).toBeCloseTo(C / 2, 3);
+  });
+
   it('a measured separation of 0 ± 0.002 nm is data: v sin i = 0 ± c σ_Δλ / (2 λ₀) = 0 ± 0.4568 km/s (REFERENCES.md, CODATA c)', () => {
     expect(rotationVelocityMs(0, 656.279e-9)).toBe(0);
     const v = rotationVelocity({ value: 0, sigma: 0.002e-9 }, { value: 656.279e-9, sigma: 0.001e-9 });

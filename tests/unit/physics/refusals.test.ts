@@ -76,3 +76,53 @@ describe('a measured zero is data: no rotation or no field detected', () => {
     expect(graph.issues.find((i) => i.measurementId === 'neg')).toMatchObject({ quantity: 'magnetic_field', limit: '≥ 0' });
   });
 });
+
+describe('results that break physics are refused, implausible ones warned (limits in shared/physics/limits.ts)', () => {
+  const L_SUN = CONSTANTS.L_sun.value;
+  const limb = (separationM: number): MeasurementInput => ({ id: 'limb', kind: 'limb_separation', valueSi: separationM, uncertaintySi: separationM / 20, restWavelengthSi: 656.279 * NM });
+
+  it('a limb separation of 1e300 nm would be a rotation of 2e305 m/s: refused, naming c (SI definition, exact)', () => {
+    const graph = deriveAll([limb(1e300 * NM)]);
+    expect(graph.results.rotation_velocity).toBeUndefined();
+    // The law refuses the line itself (Δλ ≥ 2 λ₀ means v ≥ c); the limit names c either way.
+    const issue = graph.issues.find((i) => i.quantity === 'rotation_velocity');
+    expect(issue).toMatchObject({ code: 'unphysical', measurementId: 'limb' });
+    expect(issue?.limit).toMatch(/v < c|< c = 299 792 458 m\/s/);
+  });
+
+  it('a rotation of 1500 km/s is kept with an implausible warning (the fastest measured v sin i is about 600 km/s, VFTS 102; from memory)', () => {
+    // Δλ = 2 λ₀ v / c for 1500 km/s at Hα (REFERENCES.md "Rotation from the two limbs").
+    const graph = deriveAll([limb((2 * 656.279 * NM * 1.5e6) / C)]);
+    const v = graph.results.rotation_velocity!;
+    expect(v.value).toBeCloseTo(1.5e6, 3);
+    expect(v.warnings.find((w) => w.code === 'implausible')).toMatchObject({ limit: '≤ 1000 km/s' });
+  });
+
+  it('a Wien peak of 1e300 nm (T ≈ 3e-294 K) and a Planck temperature of 5e7 K are refused, naming the limits', () => {
+    const graph = deriveAll([
+      { id: 'peak', kind: 'peak_wavelength', valueSi: 1e300 * NM, uncertaintySi: 1e298 * NM },
+      { id: 'planck', kind: 'planck_temperature', valueSi: 5e7, uncertaintySi: 1e5 },
+    ]);
+    expect(graph.results.temperature_wien).toBeUndefined();
+    expect(graph.results.temperature_planck).toBeUndefined();
+    expect(graph.results.temperature).toBeUndefined();
+    expect(graph.issues.find((i) => i.quantity === 'temperature_wien')).toMatchObject({ code: 'unphysical', limit: '≥ 250 K' });
+    expect(graph.issues.find((i) => i.quantity === 'temperature_planck')).toMatchObject({ code: 'unphysical', limit: '≤ 1 000 000 K' });
+  });
+
+  it('a 1500 K temperature is kept with a warning: below M9.5V, the coolest dwarf of the table at 2330 K (Pecaut & Mamajek 2013)', () => {
+    const graph = deriveAll([{ id: 'planck', kind: 'planck_temperature', valueSi: 1500, uncertaintySi: 20 }]);
+    expect(graph.results.temperature!.warnings.find((w) => w.code === 'implausible')).toMatchObject({ limit: '≥ 2330 K' });
+  });
+
+  it('a radius of 37 000 R☉ (10⁸ L☉ at 3000 K, Stefan–Boltzmann) is refused; 10⁸ L☉ itself only warned', () => {
+    // R/R☉ = √(L/L☉) (T☉/T)² = 10⁴ × (5772/3000)² = 3.7e4 with the IAU 2015 B3 nominal values.
+    const graph = deriveAll([
+      { id: 'lum', kind: 'luminosity', valueSi: 1e8 * L_SUN, uncertaintySi: 1e7 * L_SUN },
+      { id: 't', kind: 'planck_temperature', valueSi: 3000, uncertaintySi: 30 },
+    ]);
+    expect(graph.results.radius).toBeUndefined();
+    expect(graph.issues.find((i) => i.quantity === 'radius')).toMatchObject({ code: 'unphysical', limit: '≤ 10 000 R☉' });
+    expect(graph.results.luminosity!.warnings.find((w) => w.code === 'implausible')).toMatchObject({ limit: '≤ 10⁷ L☉' });
+  });
+});
