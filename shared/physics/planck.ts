@@ -54,6 +54,21 @@ export interface Spectrum {
   readonly fluxSigma?: readonly number[];
 }
 
+/**
+ * What the fit assumed about the noise on each point: the flux uncertainties
+ * the spectrum gave, or a noise level estimated from the scatter about the fit
+ * as it varies with the flux, σᵢ² = a² + (b·Fᵢ)², a the part the same at every
+ * point and b the part proportional to the flux.
+ */
+export interface PlanckNoise {
+  readonly model: 'given' | 'flux_level';
+  /** For 'flux_level': a in the flux unit and b as a share of the flux. */
+  readonly constant?: number;
+  readonly proportional?: number;
+  /** The assumption in words, for the method line. */
+  readonly words: string;
+}
+
 /** A least-squares fit of flux = scale × B_λ(T). */
 export interface PlanckFit {
   /** Temperature in K. */
@@ -62,10 +77,12 @@ export interface PlanckFit {
   readonly logScale: Measured;
   /** Correlation coefficient between T and log scale. */
   readonly correlation: number;
+  /** χ² with the weights used: near the degrees of freedom when the noise model holds (by construction when it was estimated). */
   readonly chiSquare: number;
   readonly degreesOfFreedom: number;
   readonly reducedChiSquare: number;
   readonly iterations: number;
+  readonly noise: PlanckNoise;
   readonly warnings: PhysicsWarning[];
 }
 
@@ -81,6 +98,13 @@ function checkSpectrum(spectrum: Spectrum): void {
   }
 }
 
+/** The points of a fit with their weights 1/σᵢ² (null: all 1). */
+interface Weighted {
+  readonly wavelengthM: readonly number[];
+  readonly flux: readonly number[];
+  readonly weight: Float64Array | null;
+}
+
 interface Accumulated {
   chi2: number;
   jtj: [number, number, number];
@@ -88,7 +112,7 @@ interface Accumulated {
 }
 
 /** χ² and normal equations for parameters (ln T, ln s); the model's partials are relative. */
-function accumulate(spectrum: Spectrum, lnT: number, lnS: number): Accumulated {
+function accumulate(points: Weighted, lnT: number, lnS: number): Accumulated {
   const t = Math.exp(lnT);
   const s = Math.exp(lnS);
   let chi2 = 0;
@@ -97,16 +121,16 @@ function accumulate(spectrum: Spectrum, lnT: number, lnS: number): Accumulated {
   let d = 0;
   let g0 = 0;
   let g1 = 0;
-  const n = spectrum.wavelengthM.length;
+  const n = points.wavelengthM.length;
   for (let i = 0; i < n; i++) {
-    const lambda = spectrum.wavelengthM[i];
-    const w = spectrum.fluxSigma ? 1 / spectrum.fluxSigma[i] ** 2 : 1;
+    const lambda = points.wavelengthM[i];
+    const w = points.weight ? points.weight[i] : 1;
     const x = HC_OVER_K / (lambda * t);
     const model = s * planckUnchecked(lambda, t);
     // ∂model/∂lnT = model · x / (1 − e⁻ˣ); ∂model/∂lns = model
     const jT = model * (x / -Math.expm1(-x));
     const jS = model;
-    const r = spectrum.flux[i] - model;
+    const r = points.flux[i] - model;
     chi2 += w * r * r;
     a += w * jT * jT;
     b += w * jT * jS;
@@ -118,13 +142,13 @@ function accumulate(spectrum: Spectrum, lnT: number, lnS: number): Accumulated {
 }
 
 /** Best scale for a fixed temperature (linear least squares), or NaN when not positive. */
-function bestLogScale(spectrum: Spectrum, temperatureK: number): number {
+function bestLogScale(points: Weighted, temperatureK: number): number {
   let num = 0;
   let den = 0;
-  for (let i = 0; i < spectrum.wavelengthM.length; i++) {
-    const w = spectrum.fluxSigma ? 1 / spectrum.fluxSigma[i] ** 2 : 1;
-    const model = planckUnchecked(spectrum.wavelengthM[i], temperatureK);
-    num += w * spectrum.flux[i] * model;
+  for (let i = 0; i < points.wavelengthM.length; i++) {
+    const w = points.weight ? points.weight[i] : 1;
+    const model = planckUnchecked(points.wavelengthM[i], temperatureK);
+    num += w * points.flux[i] * model;
     den += w * model * model;
   }
   return num > 0 && den > 0 ? Math.log(num / den) : Number.NaN;
@@ -136,32 +160,17 @@ const GRID_MAX_K = 200_000;
 /** Most points the starting grid looks at. */
 const GRID_POINTS = 1000;
 
-/**
- * Least-squares fit of scale × B_λ(T) to a 1-D spectrum (wavelength in m).
- * A coarse grid in log T with the scale solved linearly gives the start;
- * Levenberg–Marquardt on (ln T, ln scale) refines it. Uncertainties are from
- * the inverse of JᵀWJ scaled by the reduced χ² (weights 1/σ² when the
- * spectrum gives σ, else 1). Out: temperature in K, ln scale.
- * Throws PhysicsError ('too_few_points', 'fit_failed') when no fit exists.
- * @see Press et al., Numerical Recipes (3rd ed.) §15.5, Levenberg–Marquardt (from memory); CODATA 2018 h, c, k_B
- */
-export function fitPlanck(spectrum: Spectrum): PlanckFit {
-  checkSpectrum(spectrum);
-  const n = spectrum.wavelengthM.length;
-  if (n < 4) throw new PhysicsError('too_few_points', 'temperature_planck', `a Planck fit needs at least 4 points (got ${n})`, '≥ 4 points');
-
+/** Coarse grid in log T, the scale solved linearly at each: the start of the refinement. */
+function startingPoint(points: Weighted): { lnT: number; lnS: number } {
+  const n = points.wavelengthM.length;
   // The grid only picks where the refinement starts, so every k-th point serves it and its cost stays fixed however long the spectrum.
   const stride = Math.ceil(n / GRID_POINTS);
-  const coarse: Spectrum =
+  const keep = (_: unknown, i: number) => i % stride === 0;
+  const coarse: Weighted =
     stride === 1
-      ? spectrum
-      : {
-          wavelengthM: spectrum.wavelengthM.filter((_, i) => i % stride === 0),
-          flux: spectrum.flux.filter((_, i) => i % stride === 0),
-          fluxSigma: spectrum.fluxSigma?.filter((_, i) => i % stride === 0),
-        };
-  let bestLnT = Number.NaN;
-  let bestLnS = Number.NaN;
+      ? points
+      : { wavelengthM: points.wavelengthM.filter(keep), flux: points.flux.filter(keep), weight: points.weight ? points.weight.filter(keep) : null };
+  let best = { lnT: Number.NaN, lnS: Number.NaN };
   let bestChi2 = Infinity;
   const steps = 160;
   for (let k = 0; k <= steps; k++) {
@@ -171,17 +180,16 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
     const { chi2 } = accumulate(coarse, lnT, lnS);
     if (chi2 < bestChi2) {
       bestChi2 = chi2;
-      bestLnT = lnT;
-      bestLnS = lnS;
+      best = { lnT, lnS };
     }
   }
-  if (!Number.isFinite(bestLnT)) {
-    throw new PhysicsError('fit_failed', 'temperature_planck', 'no positive Planck curve matches this spectrum');
-  }
+  return best;
+}
 
-  let lnT = bestLnT;
-  let lnS = bestLnS;
-  let current = accumulate(spectrum, lnT, lnS);
+/** Levenberg–Marquardt on (ln T, ln scale) from a start, with the given weights. */
+function refine(points: Weighted, start: { lnT: number; lnS: number }): { lnT: number; lnS: number; at: Accumulated; iterations: number } {
+  let { lnT, lnS } = start;
+  let current = accumulate(points, lnT, lnS);
   let lambda = 1e-3;
   let iterations = 0;
   for (; iterations < 200; iterations++) {
@@ -193,7 +201,7 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
     if (!(det > 0)) break;
     const dT = (d1 * g0 - b * g1) / det;
     const dS = (a1 * g1 - b * g0) / det;
-    const trial = accumulate(spectrum, lnT + dT, lnS + dS);
+    const trial = accumulate(points, lnT + dT, lnS + dS);
     if (Number.isFinite(trial.chi2) && trial.chi2 <= current.chi2) {
       const improvement = current.chi2 - trial.chi2;
       lnT += dT;
@@ -206,6 +214,156 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
       if (lambda > 1e12) break;
     }
   }
+  return { lnT, lnS, at: current, iterations };
+}
+
+/**
+ * The noise level as it varies with the flux, from the scatter about a fit:
+ * the squared residuals rᵢ² regressed on (1, Fᵢ²), whose expectation is
+ * a² + b²Fᵢ² (Fᵢ the fitted flux, so a point's own noise does not set its
+ * weight). Var(rᵢ²) = 2vᵢ² for Gaussian noise of variance vᵢ, so the
+ * regression is weighted by 1/vᵢ² and repeated until v settles: the Gaussian
+ * maximum-likelihood estimate, without which the bright points would set the
+ * faint points' noise. A part that comes out negative is dropped and the
+ * other refitted alone. Null when the residuals are all zero (a noise-free
+ * spectrum).
+ * @see R. J. Carroll & D. Ruppert, Transformation and Weighting in Regression (1988), ch. 3, variance function estimation by regression on squared residuals (from memory)
+ */
+function noiseFromScatter(points: Weighted, lnT: number, lnS: number): { a2: number; b2: number; model: Float64Array } | null {
+  const n = points.wavelengthM.length;
+  const t = Math.exp(lnT);
+  const s = Math.exp(lnS);
+  const model = new Float64Array(n);
+  const m2 = new Float64Array(n);
+  const e2 = new Float64Array(n);
+  let top = 0;
+  for (let i = 0; i < n; i++) {
+    model[i] = s * planckUnchecked(points.wavelengthM[i], t);
+    top = Math.max(top, Math.abs(model[i]));
+  }
+  if (!(top > 0)) return null;
+  let meanE2 = 0;
+  for (let i = 0; i < n; i++) {
+    // The fitted flux scaled by its largest value keeps the 2 × 2 normal equations well conditioned.
+    m2[i] = (model[i] / top) ** 2;
+    e2[i] = (points.flux[i] - model[i]) ** 2;
+    meanE2 += e2[i] / n;
+  }
+  if (!(meanE2 > 0)) return null;
+  let a2 = meanE2;
+  let b2 = 0;
+  for (let pass = 0; pass < VARIANCE_PASSES; pass++) {
+    let s0 = 0;
+    let s2 = 0;
+    let s4 = 0;
+    let r0 = 0;
+    let r2 = 0;
+    for (let i = 0; i < n; i++) {
+      // The first pass is unweighted; later ones weight by 1 / v², v from the pass before.
+      const v = pass === 0 ? 1 : a2 + b2 * m2[i];
+      const w = 1 / (v * v);
+      s0 += w;
+      s2 += w * m2[i];
+      s4 += w * m2[i] * m2[i];
+      r0 += w * e2[i];
+      r2 += w * e2[i] * m2[i];
+    }
+    const det = s0 * s4 - s2 * s2;
+    let nextA2 = det > 0 ? (s4 * r0 - s2 * r2) / det : Number.NaN;
+    let nextB2 = det > 0 ? (s0 * r2 - s2 * r0) / det : Number.NaN;
+    if (!(nextA2 >= 0 && nextB2 >= 0)) {
+      // One part alone, whichever gives the data the higher Gaussian likelihood.
+      const aOnly = r0 / s0;
+      const bOnly = s4 > 0 ? r2 / s4 : 0;
+      const useA = bOnly > 0 ? logLikelihood(e2, m2, aOnly, 0) >= logLikelihood(e2, m2, 0, bOnly) : true;
+      nextA2 = useA ? aOnly : 0;
+      nextB2 = useA ? 0 : bOnly;
+    }
+    const settled = Math.abs(nextA2 - a2) <= 1e-6 * (a2 + nextA2) && Math.abs(nextB2 - b2) <= 1e-6 * (b2 + nextB2);
+    a2 = nextA2;
+    b2 = nextB2;
+    if (settled) break;
+  }
+  if (!Number.isFinite(a2) || !Number.isFinite(b2) || !(a2 + b2 > 0)) return null;
+  // A fitted flux of zero with no constant part would be a point of infinite weight.
+  if (!(a2 > 0) && !model.every((m) => m !== 0)) return null;
+  // The flux fit used up two degrees of freedom of the residuals.
+  const dofShare = n / Math.max(n - 2, 1);
+  return { a2: a2 * dofShare, b2: (b2 * dofShare) / (top * top), model };
+}
+
+/** Most re-weightings of the variance regression; it settles in a handful. */
+const VARIANCE_PASSES = 30;
+
+/** Gaussian log-likelihood, up to a constant, of squared residuals e² under variances a² + b²m². */
+function logLikelihood(e2: Float64Array, m2: Float64Array, a2: number, b2: number): number {
+  let sum = 0;
+  for (let i = 0; i < e2.length; i++) {
+    const v = a2 + b2 * m2[i];
+    sum -= v > 0 ? Math.log(v) + e2[i] / v : Infinity;
+  }
+  return sum;
+}
+
+/** How many times the noise model is re-estimated and the fit re-weighted; the weights settle after two or three. */
+const NOISE_PASSES = 3;
+
+/** The noise assumption in words: which part of σ² = a² + (bF)² dominates at the typical flux of the spectrum. */
+function noiseWords(a2: number, b2: number, model: Float64Array): string {
+  const typical = median(Array.from(model, Math.abs));
+  const share = (b2 * typical * typical) / (a2 + b2 * typical * typical);
+  const which =
+    share > 0.8 ? 'mostly proportional to the flux' : share < 0.2 ? 'mostly the same at every point' : 'part the same at every point, part proportional to the flux';
+  return `no flux uncertainties given; the noise was estimated from the scatter about the fit as it varies with the flux level (σ² = a² + (b·F)², here ${which}) and the points weighted by it`;
+}
+
+/**
+ * Least-squares fit of scale × B_λ(T) to a 1-D spectrum (wavelength in m).
+ * A coarse grid in log T with the scale solved linearly gives the start;
+ * Levenberg–Marquardt on (ln T, ln scale) refines it. Uncertainties are from
+ * the inverse of JᵀWJ scaled by the reduced χ².
+ *
+ * The weights W are 1/σ² from the spectrum's flux uncertainties when it gives
+ * them. Without them, equal weights would assume the same noise on every
+ * point, and when the noise grows with the flux (the usual case) σ comes out
+ * several times too small; so the noise is estimated from the scatter about
+ * the fit as σᵢ² = a² + (b·Fᵢ)², which holds for noise the same at every
+ * point, proportional to the flux, or both, and the fit is re-weighted by it.
+ * `noise` says which assumption was used.
+ * Out: temperature in K, ln scale.
+ * Throws PhysicsError ('too_few_points', 'fit_failed') when no fit exists.
+ * @see Press et al., Numerical Recipes (3rd ed.) §15.5, Levenberg–Marquardt (from memory); CODATA 2018 h, c, k_B
+ */
+export function fitPlanck(spectrum: Spectrum): PlanckFit {
+  checkSpectrum(spectrum);
+  const n = spectrum.wavelengthM.length;
+  if (n < 4) throw new PhysicsError('too_few_points', 'temperature_planck', `a Planck fit needs at least 4 points (got ${n})`, '≥ 4 points');
+
+  let points: Weighted = {
+    wavelengthM: spectrum.wavelengthM,
+    flux: spectrum.flux,
+    weight: spectrum.fluxSigma ? Float64Array.from(spectrum.fluxSigma, (sigma) => 1 / (sigma * sigma)) : null,
+  };
+  const start = startingPoint(points);
+  if (!Number.isFinite(start.lnT)) {
+    throw new PhysicsError('fit_failed', 'temperature_planck', 'no positive Planck curve matches this spectrum');
+  }
+  let result = refine(points, start);
+  let iterations = result.iterations;
+  let noise: PlanckNoise = { model: 'given', words: 'weighted by the flux uncertainties given' };
+  if (!spectrum.fluxSigma) {
+    noise = { model: 'flux_level', constant: 0, proportional: 0, words: 'no flux uncertainties given; the scatter about the fit is zero' };
+    for (let pass = 0; pass < NOISE_PASSES; pass++) {
+      const level = noiseFromScatter(points, result.lnT, result.lnS);
+      if (!level) break;
+      const { a2, b2, model } = level;
+      points = { ...points, weight: Float64Array.from(model, (m) => 1 / (a2 + b2 * m * m)) };
+      noise = { model: 'flux_level', constant: Math.sqrt(a2), proportional: Math.sqrt(b2), words: noiseWords(a2, b2, model) };
+      result = refine(points, result);
+      iterations += result.iterations;
+    }
+  }
+  const { lnT, lnS, at: current } = result;
 
   const dof = n - 2;
   const [a, b, d] = current.jtj;
@@ -245,6 +403,7 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
     degreesOfFreedom: dof,
     reducedChiSquare,
     iterations,
+    noise,
     warnings,
   };
 }

@@ -56,12 +56,17 @@ export interface SpectrumPreview {
     temperatureSigmaK: number;
     logScale: number;
     /**
-     * χ² per degree of freedom. Without flux uncertainties the fit is
-     * unweighted (`weighted` false) and this is the residual variance in flux
-     * units squared, not a goodness-of-fit number.
+     * χ² per degree of freedom. Without flux uncertainties (`weighted` false)
+     * the points are weighted by a noise level estimated from the scatter
+     * itself, so this is near 1 by construction and not a goodness-of-fit
+     * number (spectra stored before that was so have the residual variance
+     * in flux units squared here).
      */
     reducedChiSquare: number;
+    /** Whether the file gave flux uncertainties. */
     weighted: boolean;
+    /** The fit's assumption about the noise, in words (absent on spectra stored before it was recorded). */
+    noiseWords?: string;
     /**
      * The continuum peak, found apart from the Planck fit: null when the data
      * do not turn over inside the observed range (a hot star seen in the

@@ -34,6 +34,9 @@ describe('spectrum upload: the Planck fit stands on its own', () => {
     expect(Math.abs(fit.temperatureK - 20_000)).toBeLessThan(fit.temperatureSigmaK);
     expect(fit.peakWavelengthM).toBeNull();
     expect(fit.noPeakReason).toMatch(/outside the observed range/);
+    // No flux column: the fit says it estimated the noise, and found it the same at every point, as it was drawn.
+    expect(fit.weighted).toBe(false);
+    expect(fit.noiseWords).toMatch(/no flux uncertainties given.*mostly the same at every point/);
 
     const done = await s.agent.post(`/api/projects/${world.projectId}/uploads/${up.id}/commit`).set('X-CSRF-Token', s.csrf).send({}).expect(200);
     expect(done.body.measurementsAdded).toBe(1);
@@ -42,6 +45,7 @@ describe('spectrum upload: the Planck fit stands on its own', () => {
     expect(kinds).toEqual(['planck_temperature']);
     const planck = m.body.measurements[0];
     expect(Math.abs(planck.valueSi - 20_000)).toBeLessThan(planck.uncertaintySi);
+    expect(planck.note).toMatch(/estimated from the scatter about the fit/);
     const d = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/derived`).expect(200);
     const quantities = d.body.derived.map((x: { quantity: string }) => x.quantity);
     expect(quantities).toContain('temperature_planck');

@@ -81,6 +81,7 @@ export function readSpectrum(
         logScale: fit.logScale.value,
         reducedChiSquare: fit.reducedChiSquare,
         weighted: sorted.fluxSigma !== undefined,
+        noiseWords: fit.noise.words,
         peakWavelengthM: peak?.value ?? null,
         peakWavelengthSigmaM: peak?.sigma ?? null,
         noPeakReason,

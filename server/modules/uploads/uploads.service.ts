@@ -244,7 +244,7 @@ export function createUploadsService(db: Db, clock: Clock) {
       unitAsSent: 'K',
       note: fit.weighted
         ? `Planck fit to the spectrum of upload ${uploadId} (reduced χ² ${fit.reducedChiSquare.toPrecision(3)}).`
-        : `Planck fit to the spectrum of upload ${uploadId} (no flux uncertainties given; σ from the scatter about the fit).`,
+        : `Planck fit to the spectrum of upload ${uploadId} (${fit.noiseWords ?? 'no flux uncertainties given; σ from the scatter about the fit'}).`,
     };
     // The peak is found apart from the fit; a hot star's lies outside the optical and only the fit is recorded.
     const peak =

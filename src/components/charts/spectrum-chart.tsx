@@ -13,6 +13,9 @@ const MOST_POINTS_DRAWN = 1500;
 
 const fluxTick = (v: number) => (v === 0 ? '0' : Math.abs(v) >= 1e4 || Math.abs(v) < 1e-2 ? v.toExponential(1).replace('-', '−') : v.toPrecision(3));
 
+/** The server's method words as a sentence. */
+const sentence = (words: string) => `${words.charAt(0).toUpperCase()}${words.slice(1)}.`;
+
 /** The continuum peak in nm, or null when the data do not turn over inside the range. */
 function peakOf(fit: SpectrumFit) {
   return fit.peakWavelengthM != null && fit.peakWavelengthSigmaM != null ? formatMeasured(fit.peakWavelengthM * 1e9, fit.peakWavelengthSigmaM * 1e9, 'nm') : null;
@@ -20,9 +23,9 @@ function peakOf(fit: SpectrumFit) {
 
 /**
  * The fit in figures. The reduced χ² is a goodness-of-fit number only when
- * the file gave flux uncertainties; without them the fit is unweighted, the
- * server's "χ²" is the residual variance in the file's flux units squared,
- * and showing it beside a weighted one would invite a false comparison.
+ * the file gave flux uncertainties; without them the server weighted the
+ * points by a noise level estimated from the scatter itself, so its χ² is
+ * near 1 by construction, and what is shown instead is that assumption.
  */
 function FitDetails({ fit, pointCount }: { fit: SpectrumFit; pointCount: number }) {
   const temperature = formatMeasured(fit.temperatureK, fit.temperatureSigmaK, 'K');
@@ -42,7 +45,7 @@ function FitDetails({ fit, pointCount }: { fit: SpectrumFit; pointCount: number 
         </DetailItem>
       ) : (
         <DetailItem label="Weighting">
-          <span data-testid="spectrum-fit-quality">No flux uncertainties given; σ from the scatter about the fit.</span>
+          <span data-testid="spectrum-fit-quality">{sentence(fit.noiseWords ?? 'no flux uncertainties given; σ from the scatter about the fit')}</span>
         </DetailItem>
       )}
       <DetailItem label="Continuum peak" numeric={peak !== null}>

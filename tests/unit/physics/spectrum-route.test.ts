@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { PhysicsError } from '@shared/physics/errors';
-import { findContinuumPeak, runningMedian } from '@shared/physics/planck';
+import { findContinuumPeak, fitPlanck, runningMedian } from '@shared/physics/planck';
 import { normalDeviates, syntheticSpectrum, WIEN_B } from '../../support/synthetic-spectrum';
 
 /** The error a call throws, for tests that read its code and words. */
@@ -92,5 +92,59 @@ describe('continuum peak: cost n log n', () => {
     const expected = WIEN_B / t;
     expect(Math.abs(peak.value - expected)).toBeLessThan(3 * peak.sigma);
     expect(Math.abs(peak.value / expected - 1)).toBeLessThan(0.005);
+  });
+});
+
+describe('Planck fit without flux uncertainties: honest σ whatever the noise', () => {
+  /**
+   * Share of fits whose 1σ interval holds the true temperature, over 200
+   * spectra drawn with the test's own generator: stars from 6000 to 40 000 K
+   * seen over 350–1000 or 300–2500 nm, where the flux falls steeply to the red
+   * and noise ∝ flux differs most from equal noise; the fit is told nothing of
+   * the noise.
+   */
+  function coverage(noise: { relativeNoise?: number; constantNoise?: number }, seedBase: number): { share: number; words: Set<string> } {
+    const temperatures = [6000, 10_000, 20_000, 40_000];
+    const ranges: [number, number][] = [
+      [350e-9, 1000e-9],
+      [300e-9, 2500e-9],
+    ];
+    let inside = 0;
+    const trials = 200;
+    const words = new Set<string>();
+    for (let k = 0; k < trials; k++) {
+      const t = temperatures[k % temperatures.length];
+      const [fromM, toM] = ranges[Math.floor(k / temperatures.length) % ranges.length];
+      const { wavelengthM, flux } = syntheticSpectrum({ temperatureK: t, fromM, toM, points: 300, seed: seedBase + k, ...noise });
+      const fit = fitPlanck({ wavelengthM, flux });
+      if (Math.abs(fit.temperatureK.value - t) < fit.temperatureK.sigma) inside++;
+      words.add(fit.noise.words);
+    }
+    return { share: inside / trials, words };
+  }
+
+  // A Gaussian puts 68.27 % within 1σ. Over 200 independent fits the share inside scatters by √(0.683 · 0.317 / 200) = 3.3 %
+  // (binomial); the band allows 2.5 of that either side, 60–76.5 %, which the old unweighted fit (42.5 % on these 200 with noise ∝ flux) fails; with equal noise the old fit was already right (66.5 %).
+  const band = (share: number) => {
+    expect(share).toBeGreaterThan(0.6827 - 2.5 * 0.0329);
+    expect(share).toBeLessThan(0.6827 + 2.5 * 0.0329);
+  };
+
+  it('with noise proportional to the flux (2 % of each point) the truth lies within 1σ in 68 % of fits, and the fit says it estimated the noise from the flux level', () => {
+    const { share, words } = coverage({ relativeNoise: 0.02 }, 1000);
+    band(share);
+    for (const w of words) expect(w).toMatch(/no flux uncertainties/i);
+    expect([...words].some((w) => /proportional to the flux/.test(w))).toBe(true);
+  });
+
+  it('with the same noise at every point (1 % of the brightest) the truth lies within 1σ in 68 % of fits', () => {
+    const { share, words } = coverage({ constantNoise: 0.01 }, 5000);
+    band(share);
+    expect([...words].some((w) => /same at every point/.test(w))).toBe(true);
+  });
+
+  it('with flux uncertainties given it says it weighted by them', () => {
+    const s = syntheticSpectrum({ temperatureK: 6000, fromM: 400e-9, toM: 700e-9, points: 300, seed: 3, relativeNoise: 0.02 });
+    expect(fitPlanck(s).noise.words).toMatch(/weighted by the flux uncertainties given/);
   });
 });
