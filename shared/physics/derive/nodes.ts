@@ -385,28 +385,28 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
     checks: [],
     options: [],
     derive: (ctx) => {
+      // A luminosity entered as known from elsewhere (a standard candle's) is what the team chose to use: it comes first, as entered.
+      const l = ctx.combined(ctx.measurements('luminosity'), 'given luminosities');
+      if (l) {
+        return {
+          value: l.value,
+          draws: l.draws,
+          method: { id: 'given', label: 'given luminosity (known from elsewhere), used as entered' },
+          propagation: l.ids.length > 1 ? 'combination' : 'as_measured',
+          ids: l.ids,
+          warnings: l.warnings,
+        };
+      }
       const f = ctx.quantity('bolometric_flux');
       // A distance known from elsewhere (a cluster's, a catalogue's) stands in for the parallax only when there is none.
       const parallax = f && ctx.quantity('distance_parallax');
       const given = f && !parallax ? ctx.combined(ctx.measurements('distance'), 'given distances') : null;
       const d = parallax ?? given;
-      if (f && d) {
-        return {
-          ...ctx.push2(luminosityFromFluxW, f, d),
-          method: { id: 'inverse_square', label: `inverse-square law, L = 4π d² F, with the ${parallax ? 'parallax' : 'given'} distance` },
-          ...(given ? { ids: given.ids, warnings: given.warnings } : {}),
-        };
-      }
-      // Without flux and distance, a luminosity known from elsewhere (a standard candle's), as entered.
-      const l = ctx.combined(ctx.measurements('luminosity'), 'given luminosities');
-      if (!l) return null;
+      if (!f || !d) return null;
       return {
-        value: l.value,
-        draws: l.draws,
-        method: { id: 'given', label: 'given luminosity (known from elsewhere), used as entered' },
-        propagation: l.ids.length > 1 ? 'combination' : 'as_measured',
-        ids: l.ids,
-        warnings: l.warnings,
+        ...ctx.push2(luminosityFromFluxW, f, d),
+        method: { id: 'inverse_square', label: `inverse-square law, L = 4π d² F, with the ${parallax ? 'parallax' : 'given'} distance` },
+        ...(given ? { ids: given.ids, warnings: given.warnings } : {}),
       };
     },
   },

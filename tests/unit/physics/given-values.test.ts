@@ -94,6 +94,17 @@ describe('the graph uses a given distance or luminosity, with provenance', () =>
     expect(graph.issues.filter((i) => i.code === 'measurement_unused')).toEqual([]);
   });
 
+  it('a given luminosity is used as entered even beside a flux, and rests on nothing else (its inputs are its own)', () => {
+    const flux = L_SUN_W / (4 * Math.PI * (10 * PC_M) ** 2);
+    const graph = deriveAll([
+      { id: 'lum', kind: 'luminosity', valueSi: 2 * L_SUN_W, uncertaintySi: 0.1 * L_SUN_W },
+      { id: 'f', kind: 'bolometric_flux', valueSi: flux, uncertaintySi: 0.01 * flux },
+    ]);
+    expect(graph.results.luminosity).toMatchObject({ value: 2 * L_SUN_W, inputs: ['lum'], dependsOn: [] });
+    // The distance from it: d = √(L / 4πF) = √2 × 10 pc.
+    expect(graph.results.distance_photometric!.value / (Math.SQRT2 * 10 * PC_M)).toBeCloseTo(1, 12);
+  });
+
   it('luminosity from a given distance and the measured flux: L☉ / 4π(10 pc)² at 10 pc gives back L☉ (inverse-square law)', () => {
     const flux = L_SUN_W / (4 * Math.PI * (10 * PC_M) ** 2);
     const graph = deriveAll([
