@@ -1,9 +1,8 @@
 import { fluxFromApparentBolometricMagnitudeWm2, SOLAR_ABSOLUTE_BOLOMETRIC_MAGNITUDE_MAG } from './bolometric';
-import { CONSTANTS } from './constants';
 import { PhysicsError, requireFinite, requirePositive } from './errors';
 import { DEFAULT_R_V } from './extinction';
 import type { Measured } from './measured';
-import { monteCarlo, type DrawModel, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
+import { monteCarlo, type MonteCarloOptions, type MonteCarloResult } from './monte-carlo';
 
 /**
  * Bolometric correction in V from effective temperature: Flower (1996, ApJ
@@ -144,10 +143,6 @@ export function bolometricFluxFromVWm2(magnitudeVMag: number, temperatureK: numb
   return flux;
 }
 
-const F0_WM2 = CONSTANTS.f_0.value;
-/** Within ± this −0.4 m_bol, f₀ 10^(−0.4 m_bol) is surely finite and above 0 (f₀ ≈ 10^-7.6 W m⁻²; doubles span 10^-323.3 to 10^308.25). */
-const SAFE_FLUX_EXPONENT = 300;
-
 /** Bolometric flux from V with its Monte Carlo uncertainty and warnings. */
 export interface FluxFromV {
   readonly fluxWm2: MonteCarloResult;
@@ -170,33 +165,12 @@ export function bolometricFluxFromV(
 ): FluxFromV {
   requireInsideBolometricCalibration(temperatureK.value);
   const excess = colourExcessMag ?? { value: 0, sigma: 0 };
-  // F = f₀ 10^(−0.4 m_bol) falls as m_bol grows, so the draws are ranked by
-  // −0.4 m_bol and the power of ten is taken for the few draws the interval
-  // is read from; rV is checked once, at the nominal inputs.
   // Draws of T outside the calibration are left out (counted as rejected), as the law refuses them.
-  const exponent = (v: number, temperature: number, reddening: number): number => {
-    if (!insideCalibration(temperature)) return Number.NaN;
-    const mBol = v - rV * reddening + bolometricCorrectionOfLogT(Math.log10(temperature)) + BC_SHIFT_TO_IAU_2015_MAG;
-    return Number.isFinite(mBol) ? -0.4 * mBol : Number.NaN;
-  };
-  const draws: DrawModel = {
-    rank: (draws) => {
-      for (let s = 0; s < draws.count; s++) {
-        const e = exponent(draws.input(0, s), draws.input(1, s), draws.input(2, s));
-        const unsafe = (e > SAFE_FLUX_EXPONENT && !Number.isFinite(F0_WM2 * Math.pow(10, e))) || (e < -SAFE_FLUX_EXPONENT && !(F0_WM2 * Math.pow(10, e) > 0));
-        draws.keep(s, unsafe ? Number.NaN : e);
-      }
-    },
-    // The power of ten is within an ulp, not proven monotone between neighbouring doubles: ranks that close are settled by the values.
-    rankError: 1e-13,
-    value: (x) => F0_WM2 * Math.pow(10, exponent(x[0], x[1], x[2])),
-  };
   const fluxWm2 = monteCarlo(
     (x) => bolometricFluxFromVWm2(x[0], x[1], x[2], rV),
     [magnitudeVMag, temperatureK, excess],
     'bolometric_flux',
     options,
-    draws,
   );
   return { fluxWm2 };
 }

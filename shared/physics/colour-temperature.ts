@@ -30,12 +30,6 @@ export function ballesterosTemperatureK(colourIndexMag: number): number {
       '> −0.674 mag',
     );
   }
-  return ballesterosUnchecked(colourIndexMag);
-}
-
-/** The Ballesteros relation without its checks, NaN at and below the singular colour: for Monte Carlo draws. */
-function ballesterosUnchecked(colourIndexMag: number): number {
-  if (colourIndexMag <= SINGULAR_COLOUR_MAG) return Number.NaN;
   const x = 0.92 * colourIndexMag;
   return 4600 * (1 / (x + 1.7) + 1 / (x + 0.62));
 }
@@ -79,18 +73,6 @@ export function colourTemperature(
 ): ColourTemperature {
   const excess = colourExcessMag ?? { value: 0, sigma: 0 };
   const intrinsic = dereddenedColourMag(colourIndexMag.value, excess.value);
-  // Above the singular colour T falls as (B−V)₀ grows, also as computed
-  // (each rounded step is monotone), so −(B−V)₀ ranks the draws and the two
-  // quotients are taken for the few the interval is read from.
-  const temperatureK = monteCarlo((x) => ballesterosTemperatureK(x[0] - x[1]), [colourIndexMag, excess], 'temperature_colour', options, {
-    rank: (draws) => {
-      for (let s = 0; s < draws.count; s++) {
-        const intrinsic = draws.input(0, s) - draws.input(1, s);
-        draws.keep(s, intrinsic <= SINGULAR_COLOUR_MAG ? Number.NaN : -intrinsic);
-      }
-    },
-    rankError: 0,
-    value: (x) => ballesterosUnchecked(x[0] - x[1]),
-  });
+  const temperatureK = monteCarlo((x) => ballesterosTemperatureK(x[0] - x[1]), [colourIndexMag, excess], 'temperature_colour', options);
   return { temperatureK, intrinsicColourMag: intrinsic, warnings: colourTemperatureWarnings(intrinsic) };
 }

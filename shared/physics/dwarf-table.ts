@@ -1,5 +1,4 @@
 import { PhysicsError, requirePositive } from './errors';
-import { Log10Grid } from './fast-log10';
 import { DWARF_SEQUENCE, type DwarfSequenceRow } from './tables/dwarf-sequence';
 
 /**
@@ -74,15 +73,13 @@ export function dwarfColumnSlope(temperatureK: number, column: (row: DwarfSequen
 }
 
 const LAST_ROW = LOG_T.length - 1;
-const TEFF_K = Float64Array.from(DWARF_SEQUENCE, (row) => row.teffK);
 
 /**
  * Cells of 16 K over the table's range, for finding a temperature's rows
- * without a search and for the fast logarithm of the draws. 16 K is finer
- * than the closest pair of rows (20 K apart), so a cell holds at most one.
+ * without a search. 16 K is finer than the closest pair of rows (20 K
+ * apart), so a cell holds at most one.
  */
 const CELL_K = 16;
-const TEMPERATURE_GRID = new Log10Grid(COOLEST_K, HOTTEST_K, CELL_K);
 
 /** The cell of a temperature in K inside the table. */
 function cellOf(temperatureK: number): number {
@@ -126,93 +123,4 @@ function hotterRow(temperatureK: number, x: number): number {
 function fractionTowardsCooler(hotter: number, x: number): number {
   const span = LOG_T[hotter] - LOG_T[hotter + 1];
   return span > 0 ? (LOG_T[hotter] - x) / span : 0;
-}
-
-/** Kelvins per block of a DwarfColumn's per-kelvin table: 2^10. */
-const KELVIN_BLOCK_BITS = 10;
-
-/** Every row's temperature is a whole number of kelvin: the per-kelvin tables below rely on it. */
-if (!DWARF_SEQUENCE.every((row) => Number.isInteger(row.teffK))) throw new Error('dwarf table temperatures must be whole kelvin');
-
-/**
- * A column of the dwarf table prepared for Monte Carlo draws, which ask for
- * it thousands of times per target. Methods, not imported functions: a
- * CommonJS loader such as tsx turns each use of an imported name into a
- * getter call, too slow for once per draw.
- */
-export class DwarfColumn {
-  private readonly values: Float64Array;
-  /**
-   * The column at each whole kelvin from the coolest row to the hottest,
-   * filled a block of 1024 K at a time as draws reach it: a star's draws
-   * span a few hundred kelvin, and 43 571 logarithms at once would delay the
-   * first derivation by several milliseconds.
-   */
-  private readonly perKelvin = new Float64Array(HOTTEST_K - COOLEST_K + 1);
-  private readonly blockFilled = new Uint8Array((this.perKelvin.length >> KELVIN_BLOCK_BITS) + 1);
-  /**
-   * Bound on |fast(T) − unchecked(T)|. Between two whole kelvin, fast
-   * replaces the line in log T by its chord, which lies off it by at most
-   * |slope| / (8 T² ln 10) (a second derivative bound over a step of 1 K;
-   * rows sit on whole kelvin, so no cell holds a corner): 1.4·10⁻⁷ dex at
-   * worst for log L, between M2.5V and M3V. Twice the largest, plus rounding.
-   */
-  readonly fastError: number;
-
-  constructor(column: (row: DwarfSequenceRow) => number) {
-    this.values = Float64Array.from(DWARF_SEQUENCE, column);
-    let chord = 0;
-    for (let row = 0; row < LAST_ROW; row++) {
-      const span = LOG_T[row] - LOG_T[row + 1];
-      if (!(span > 0)) continue;
-      const slope = (this.values[row] - this.values[row + 1]) / span;
-      chord = Math.max(chord, Math.abs(slope) / (8 * TEFF_K[row + 1] * TEFF_K[row + 1] * Math.LN10));
-    }
-    this.fastError = 2 * chord + 1e-12;
-  }
-
-  /**
-   * interpolateDwarfColumn without its checks, for Monte Carlo draws: the
-   * same arithmetic, NaN outside the table (2330–45900 K) instead of a throw.
-   * @see Pecaut & Mamajek (2013), ApJS 208, 9, Table 5 (Mamajek's version 2024.05.15)
-   */
-  unchecked(temperatureK: number): number {
-    if (!(temperatureK >= COOLEST_K && temperatureK <= HOTTEST_K)) return Number.NaN;
-    const x = Math.log10(temperatureK);
-    const hotter = hotterRow(temperatureK, x);
-    const a = this.values[hotter];
-    const b = this.values[hotter + 1];
-    return a + (b - a) * fractionTowardsCooler(hotter, x);
-  }
-
-  /**
-   * The column within `fastError` of `unchecked` (NaN in the same places),
-   * linear between whole kelvin: no logarithm and no search, for ranking
-   * Monte Carlo draws.
-   * @see Pecaut & Mamajek (2013), ApJS 208, 9, Table 5 (Mamajek's version 2024.05.15)
-   */
-  fast(temperatureK: number): number {
-    if (!(temperatureK >= COOLEST_K && temperatureK <= HOTTEST_K)) return Number.NaN;
-    const below = Math.floor(temperatureK);
-    const i = below - COOLEST_K;
-    const block = i >> KELVIN_BLOCK_BITS;
-    if (this.blockFilled[block] === 0) this.fillBlock(block);
-    const table = this.perKelvin;
-    if (below === HOTTEST_K) return table[i];
-    const a = table[i];
-    return a + (table[i + 1] - a) * (temperatureK - below);
-  }
-
-  /** log10 of a temperature in K within FAST_LOG10_ERROR, fastest inside the table's range: for ranking draws. */
-  fastLog10Temperature(temperatureK: number): number {
-    return TEMPERATURE_GRID.log10(temperatureK);
-  }
-
-  /** Fills a block's kelvins and the first of the next, so that every chord starting in the block has both ends. */
-  private fillBlock(block: number): void {
-    const first = block << KELVIN_BLOCK_BITS;
-    const end = Math.min(this.perKelvin.length, first + (1 << KELVIN_BLOCK_BITS) + 1);
-    for (let i = first; i < end; i++) this.perKelvin[i] = this.unchecked(COOLEST_K + i);
-    this.blockFilled[block] = 1;
-  }
 }

@@ -210,10 +210,13 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
         z = spectrumNormals.get(m.spectrumId) ?? normals(`spectrum ${String(m.spectrumId)}`);
         spectrumNormals.set(m.spectrumId, z);
       } else {
-        z = normals(`measurement ${String(m.id)}`);
+        // A measurement of its own: its deviates are drawn straight into its array.
+        z = draws;
+        fillStandardNormals(seedFor(opts.seed, `measurement ${String(m.id)}`), z);
       }
+      const value = m.value;
       const scale = (sign ?? 1) * m.sigma;
-      for (let s = 0; s < samples; s++) draws[s] = m.value + scale * z[s];
+      for (let s = 0; s < samples; s++) draws[s] = value + scale * z[s];
     } else {
       draws.fill(m.value);
     }
