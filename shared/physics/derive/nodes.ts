@@ -475,7 +475,7 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
         warnings.push({
           code: 'assumed_class',
           quantity: 'luminosity_hr',
-          message: `the assumed class ${LUMINOSITY_CLASS_LABELS[assumed]} differs from the class the parallax luminosity gives, ${derived.label ?? ''}`,
+          message: `the assumed class ${LUMINOSITY_CLASS_LABELS[assumed]} differs from the class its luminosity and temperature give, ${derived.label ?? ''}`,
           limit: LUMINOSITY_CLASS_LABELS[assumed],
         });
       }
