@@ -314,7 +314,7 @@ function noiseWords(a2: number, b2: number, model: Float64Array): string {
   const share = (b2 * typical * typical) / (a2 + b2 * typical * typical);
   const which =
     share > 0.8 ? 'mostly proportional to the flux' : share < 0.2 ? 'mostly the same at every point' : 'part the same at every point, part proportional to the flux';
-  return `no flux uncertainties given; the noise was estimated from the scatter about the fit as it varies with the flux level (σ² = a² + (b·F)², here ${which}) and the points weighted by it`;
+  return `no flux uncertainties given; points weighted by the noise estimated from the scatter about the fit at each flux level (σ² = a² + (b·F)², here ${which})`;
 }
 
 /**

@@ -45,7 +45,7 @@ describe('spectrum upload: the Planck fit stands on its own', () => {
     expect(kinds).toEqual(['planck_temperature']);
     const planck = m.body.measurements[0];
     expect(Math.abs(planck.valueSi - 20_000)).toBeLessThan(planck.uncertaintySi);
-    expect(planck.note).toMatch(/estimated from the scatter about the fit/);
+    expect(planck.note).toMatch(/noise estimated from the scatter about the fit/);
     const d = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/derived`).expect(200);
     const quantities = d.body.derived.map((x: { quantity: string }) => x.quantity);
     expect(quantities).toContain('temperature_planck');

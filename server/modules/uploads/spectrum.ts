@@ -73,7 +73,7 @@ export function readSpectrum(
         peak = findContinuumPeak(sorted);
       } catch (e) {
         if (!(e instanceof PhysicsError)) throw e;
-        noPeakReason = `No continuum peak is recorded: ${e.message}.`;
+        noPeakReason = `${e.message.charAt(0).toUpperCase()}${e.message.slice(1)}.`;
       }
       spectrum.fit = {
         temperatureK: fit.temperatureK.value,

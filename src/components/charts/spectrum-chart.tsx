@@ -52,7 +52,9 @@ function FitDetails({ fit, pointCount }: { fit: SpectrumFit; pointCount: number 
         {peak ? (
           peak.text
         ) : (
-          <span data-testid="spectrum-no-peak">{fit.noPeakReason ?? 'No continuum peak was found inside the observed range.'}</span>
+          <span data-testid="spectrum-no-peak">
+            None recorded. {fit.noPeakReason ?? 'The continuum does not turn over inside the observed range.'}
+          </span>
         )}
       </DetailItem>
       <DetailItem label="Points" numeric>
@@ -176,8 +178,8 @@ export function SpectrumChart({
           </ResponsiveContainer>
         </div>
         <figcaption className="mt-2 text-xs text-ink-soft">
-          Solid line: the spectrum as sent. Dashed line: the Planck curve of the fitted temperature, scaled by the fitted factor. Dotted
-          vertical line: the continuum peak.
+          Solid line: the spectrum as sent. Dashed line: the Planck curve of the fitted temperature, scaled by the fitted factor.
+          {peakNm !== null ? ' Dotted vertical line: the continuum peak.' : null}
         </figcaption>
       </figure>
       <div className="break-inside-avoid">

@@ -52,7 +52,7 @@ export function CommitPanel({
   const label =
     upload.kind === 'spectrum'
       ? upload.spectrum?.fit && upload.spectrum.fit.peakWavelengthM == null
-        ? 'Commit the Planck temperature (1 measurement; no continuum peak in range)'
+        ? 'Commit the Planck temperature (1 measurement)'
         : 'Commit the spectrum fit (2 measurements)'
       : `Commit all ${new Intl.NumberFormat('en-GB').format(upload.measurementCount)} measurement${upload.measurementCount === 1 ? '' : 's'}`;
 
