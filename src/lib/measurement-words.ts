@@ -1,6 +1,7 @@
 import type { Field } from '@shared/schemas/measurement-file';
 import type { MeasurementKind } from '@shared/physics/quantities';
-import { UNITS, type UnitName } from '@shared/physics/units';
+import { PhysicsError } from '@shared/physics/errors';
+import { parseUnit, UNITS } from '@shared/physics/units';
 
 /*
  * How pages name the measurement file's columns and the measured quantities:
@@ -45,8 +46,13 @@ export const FIELD_NAMES: Readonly<Record<Field, string>> = {
   note: 'Note',
 };
 
-/** A unit name as a file writes it (nm, angstrom, W/m2) → the symbol astronomers print (nm, Å, W m⁻²). */
+/** A unit name as a file writes it (nm, angstrom, W/m2, Lsun) → the symbol astronomers print (nm, Å, W m⁻², L☉). */
 export function unitSymbol(unit: string | null | undefined): string {
   if (!unit) return '';
-  return Object.prototype.hasOwnProperty.call(UNITS, unit) ? UNITS[unit as UnitName].symbol : unit;
+  try {
+    return UNITS[parseUnit(unit)].symbol;
+  } catch (error) {
+    if (error instanceof PhysicsError) return unit;
+    throw error;
+  }
 }

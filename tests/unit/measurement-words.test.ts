@@ -1,0 +1,19 @@
+import { describe, expect, it } from 'vitest';
+import { measurementKindName, unitSymbol } from '@/lib/measurement-words';
+
+describe('measurement words', () => {
+  it('prints the units as sent in a file with the symbols astronomers write (L☉ for the IAU 2015 B3 nominal solar luminosity)', () => {
+    expect(unitSymbol('Lsun')).toBe('L☉');
+    expect(unitSymbol('L☉')).toBe('L☉');
+    expect(unitSymbol('kpc')).toBe('kpc');
+    expect(unitSymbol('angstrom')).toBe('Å');
+    expect(unitSymbol('W/m2')).toBe('W m⁻²');
+    expect(unitSymbol('furlong')).toBe('furlong');
+    expect(unitSymbol(null)).toBe('');
+  });
+
+  it('names a distance or luminosity known from elsewhere as such', () => {
+    expect(measurementKindName('distance')).toBe('Distance (known from elsewhere)');
+    expect(measurementKindName('luminosity')).toBe('Luminosity (known from elsewhere)');
+  });
+});
