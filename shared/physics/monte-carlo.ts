@@ -136,18 +136,20 @@ export function summariseDraws(draws: Float64Array, scratch: Float64Array, quant
   const highPosition = HIGH_PROBABILITY * (n - 1);
   const kLow = Math.floor(lowPosition);
   const kHigh = Math.floor(highPosition);
-  selectInPlace(scratch, kHigh, 0, n - 1);
-  selectInPlace(scratch, kLow, 0, kHigh - 1);
-  const lowBelow = scratch[kLow];
-  const lowAbove = smallest(scratch, kLow + 1, kHigh + 1);
-  const highBelow = scratch[kHigh];
-  const highAbove = kHigh + 1 < n ? smallest(scratch, kHigh + 1, n) : highBelow;
+  const [lowBelow, lowAbove, highBelow, highAbove] = bySelection(scratch, n, kLow, kHigh);
   return {
     low: lowBelow + (lowAbove - lowBelow) * (lowPosition - kLow),
     high: highBelow + (highAbove - highBelow) * (highPosition - kHigh),
     accepted: n,
     rejected: draws.length - n,
   };
+}
+
+/** The values of ranks kLow, kLow + 1, kHigh, kHigh + 1 (the last clamped to n − 1) of a[0..n), by selection; a is rearranged. */
+function bySelection(a: Float64Array, n: number, kLow: number, kHigh: number): number[] {
+  selectInPlace(a, kHigh, 0, n - 1);
+  selectInPlace(a, kLow, 0, kHigh - 1);
+  return [a[kLow], smallest(a, kLow + 1, kHigh + 1), a[kHigh], kHigh + 1 < n ? smallest(a, kHigh + 1, n) : a[kHigh]];
 }
 
 /**

@@ -147,6 +147,28 @@ function pushDraws3(law: (a: number, b: number, c: number) => number, a: Float64
   }
 }
 
+/** Draw arrays handed out this many to one underlying buffer. */
+const ARRAYS_PER_BUFFER = 12;
+
+/**
+ * A source of zeroed arrays of `samples` draws, cut from buffers of
+ * ARRAYS_PER_BUFFER arrays each: the data of one derivation sit side by side
+ * and are freed together with it.
+ */
+function drawArrays(samples: number): () => Float64Array {
+  let buffer = new Float64Array(0);
+  let next = 0;
+  return () => {
+    if (next === buffer.length) {
+      buffer = new Float64Array(samples * ARRAYS_PER_BUFFER);
+      next = 0;
+    }
+    const out = buffer.subarray(next, next + samples);
+    next += samples;
+    return out;
+  };
+}
+
 /** A law's value at the nominal inputs, refused when it is not a finite number. */
 function nominal(value: number, quantity: string): number {
   if (!Number.isFinite(value)) {
@@ -182,7 +204,9 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
   const { valid, issues } = validateMeasurements(measurements);
   const results: Partial<Record<QuantityId, DerivedResult>> = {};
   const series = new Map<QuantityId, Series>();
-  const scratch = new Float64Array(samples);
+  // One buffer holds a run of draw arrays, so that a star's thirty-odd arrays cost a few allocations, not thirty.
+  const take = drawArrays(samples);
+  const scratch = take();
 
   const ofKind = new Map<MeasurementKind, ValidMeasurement[]>();
   for (const m of valid) {
@@ -193,7 +217,7 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
   const used = new Set<ValidMeasurement>();
 
   const normals = (label: string): Float64Array => {
-    const out = new Float64Array(samples);
+    const out = take();
     fillStandardNormals(seedFor(opts.seed, label), out);
     return out;
   };
@@ -202,7 +226,7 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
   const raw = (m: ValidMeasurement): Series => {
     const known = rawSeries.get(m);
     if (known) return known;
-    const draws = new Float64Array(samples);
+    const draws = take();
     if (m.sigma > 0) {
       const sign = m.spectrumId !== undefined ? SPECTRUM_DEVIATE_SIGN[m.kind] : undefined;
       let z: Float64Array;
@@ -224,7 +248,7 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
     rawSeries.set(m, out);
     return out;
   };
-  const constant = (value: number): Series => ({ value, draws: new Float64Array(samples).fill(value), sigma: 0, ids: [], warnings: [] });
+  const constant = (value: number): Series => ({ value, draws: take().fill(value), sigma: 0, ids: [], warnings: [] });
   const summary = (draws: Float64Array, quantity: string) => summariseDraws(draws, scratch, quantity);
   /** A series whose σ is read from its draws only when a combination asks for it (most are never combined). */
   const drawnSeries = (value: number, draws: Float64Array, ids: readonly MeasurementId[], warnings: readonly PhysicsWarning[], quantity: string): Series => {
@@ -259,7 +283,7 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
       code,
     );
     if (estimates.length === 1) return { value: estimates[0].value, draws: estimates[0].draws, note: '', warnings: [], weighted: combined.weighted };
-    const draws = new Float64Array(samples);
+    const draws = take();
     const extra = combined.standardError > 0 ? normals(`mean of ${quantity} ${what} ${names.join(' ')}`) : null;
     combineDraws(
       combined,
@@ -314,13 +338,13 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
       lineEstimate: (m, law) => {
         try {
           const observed = raw(m);
-          const restDraws = new Float64Array(samples);
+          const restDraws = take();
           if (m.restWavelengthSigma > 0) {
             const z = normals(`rest wavelength ${String(m.id)}`);
             for (let s = 0; s < samples; s++) restDraws[s] = m.restWavelength + m.restWavelengthSigma * z[s];
           } else restDraws.fill(m.restWavelength);
           const value = nominal(law(m.value, m.restWavelength), quantity);
-          const draws = new Float64Array(samples);
+          const draws = take();
           pushDraws2(law, observed.draws, restDraws, draws);
           return drawnSeries(value, draws, [m.id], observed.warnings, quantity);
         } catch (error) {
@@ -348,19 +372,19 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
       },
       constant,
       push1: (law, a) => {
-        const draws = new Float64Array(samples);
+        const draws = take();
         const value = law(a.value);
         pushDraws1(law, a.draws, draws);
         return push(draws, value);
       },
       push2: (law, a, b) => {
-        const draws = new Float64Array(samples);
+        const draws = take();
         const value = law(a.value, b.value);
         pushDraws2(law, a.draws, b.draws, draws);
         return push(draws, value);
       },
       push3: (law, a, b, c) => {
-        const draws = new Float64Array(samples);
+        const draws = take();
         const value = law(a.value, b.value, c.value);
         pushDraws3(law, a.draws, b.draws, c.draws, draws);
         return push(draws, value);
