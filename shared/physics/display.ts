@@ -87,7 +87,8 @@ function fixedAt(x: number, place: number): string {
  * Formats a value and its σ, both in `unitSymbol`'s unit, as a ledger line.
  * Values at or above 10⁶ or below 10⁻³ in magnitude are printed as
  * (mantissa ± σ) × 10ⁿ. `interval` (a Monte Carlo 68 % interval in the same
- * unit) is shown as +a/−b when its two sides differ by more than half.
+ * unit, given by the engine only where its two arms differ) is shown as +a/−b
+ * unless the two print alike.
  * Throws PhysicsError for non-finite input.
  * @see Particle Data Group, rounding of uncertainties (common practice, from memory)
  */
@@ -109,9 +110,11 @@ export function formatMeasured(value: number, sigma: number, unitSymbol: string,
   if (interval && s > 0) {
     const plus = (interval.high - value) / scale;
     const minus = (value - interval.low) / scale;
-    if (plus > 0 && minus > 0 && (plus / minus > 1.5 || minus / plus > 1.5)) {
+    // The engine gives an interval only where its arms differ (derive/evaluate.ts ASYMMETRY_LIMIT); it is shown unless they print alike.
+    if (plus > 0 && minus > 0) {
       const p = Math.min(lastDigitPlace(plus), lastDigitPlace(minus));
-      asymmetric = { plus: typeset(fixedAt(plus, p)), minus: typeset(fixedAt(minus, p)) };
+      const arms = { plus: typeset(fixedAt(plus, p)), minus: typeset(fixedAt(minus, p)) };
+      if (arms.plus !== arms.minus) asymmetric = arms;
     }
   }
   const spread = asymmetric ? ` +${asymmetric.plus}/${MINUS}${asymmetric.minus}` : sigmaText ? ` ± ${sigmaText}` : '';

@@ -5,6 +5,7 @@ import { affectedQuantities, deriveAll, dependentsOf, dependentsOfOption, type M
 import { MEASUREMENT_KINDS, QUANTITY_IDS, QUANTITY_SI_UNIT } from '@shared/physics/quantities';
 import { UNITS } from '@shared/physics/units';
 import { targetSeed } from '@shared/physics/random';
+import { formatResult } from '@shared/physics/display';
 import { bolometricFluxFromVWm2 } from '@shared/physics/bolometric-correction';
 import { ballesterosTemperatureK } from '@shared/physics/colour-temperature';
 import { ASSUMED_CLASS_MODELS, mainSequenceLogLuminosity } from '@shared/physics/main-sequence';
@@ -430,6 +431,11 @@ describe('the asymmetric 68 % interval where the draws are skewed (issue 8, defe
     expect(Math.abs(d.interval!.low / PC / reference.low - 1)).toBeLessThan(0.03);
     expect(Math.abs(d.interval!.high / PC / reference.high - 1)).toBeLessThan(0.04);
     expect(d.warnings.map((w) => w.code)).toEqual(expect.arrayContaining(['parallax_low_snr', 'monte_carlo_rejected']));
+  });
+
+  it('the sheet’s line shows the interval as +x/−y: 100 +85/−34 pc at the default 1000 draws', () => {
+    const { results } = deriveAll([{ id: 'p', kind: 'parallax', valueSi: 10 * MAS, uncertaintySi: 5 * MAS }]);
+    expect(formatResult(results.distance_parallax!).values[0].text).toMatch(/^100 \+8\d\/−3\d pc$/);
   });
 
   it('a precise, nearly linear result carries no interval: σ says it all', () => {
