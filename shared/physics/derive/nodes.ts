@@ -294,7 +294,7 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
       const label =
         names.length === 1
           ? `the only estimate, the ${words[names[0]]} temperature`
-          : `${combined.weighted ? 'inverse-variance mean' : 'mean'} of the ${wordList(names.map((q) => words[q]))} temperatures${combined.note ? `; ${combined.note}` : ''}; estimates from one spectrum move together`;
+          : `${combined.weighted ? 'inverse-variance mean' : 'mean'} of the ${wordList(names.map((q) => words[q]))} temperatures${combined.note ? `; ${combined.note}` : ''}`;
       return { value: combined.value, draws: combined.draws, method: { id: 'inverse_variance_mean', label }, propagation: 'combination', warnings: combined.warnings };
     },
   },
