@@ -1,6 +1,7 @@
 import { PhysicsError, type PhysicsErrorCode } from '../errors';
 import { isMeasurementKind, MEASUREMENT_SI_UNIT, type MeasurementKind } from '../quantities';
 import type { QuantityId } from '../quantities';
+import { DERIVATION_NODES } from './nodes';
 import type { DerivationIssue, MeasurementId, MeasurementInput } from './types';
 
 /** A measurement that passed the checks, with its defaults filled in. */
@@ -18,21 +19,14 @@ export interface ValidMeasurement {
   readonly spectrumId?: MeasurementId;
 }
 
-/** The quantity a refused measurement of each kind would have fed first. */
-const FIRST_QUANTITY: Readonly<Record<MeasurementKind, QuantityId>> = Object.freeze({
-  peak_wavelength: 'temperature_wien',
-  magnitude: 'bolometric_flux',
-  colour_index: 'temperature_colour',
-  bolometric_flux: 'bolometric_flux',
-  parallax: 'distance_parallax',
-  line_wavelength: 'radial_velocity',
-  limb_separation: 'rotation_velocity',
-  zeeman_separation: 'magnetic_field',
-  extinction: 'temperature_colour',
-  distance: 'luminosity',
-  luminosity: 'luminosity',
-  planck_temperature: 'temperature_planck',
-});
+/**
+ * The quantity a refused measurement of each kind would have fed first: the
+ * first node of the derivation table that reads the kind.
+ * @see DERIVATION_NODES
+ */
+function firstQuantity(kind: MeasurementKind): QuantityId | null {
+  return DERIVATION_NODES.find((node) => node.kinds.includes(kind))?.quantity ?? null;
+}
 
 /** Kinds whose value must be strictly positive. */
 const POSITIVE: ReadonlySet<MeasurementKind> = new Set([
@@ -127,7 +121,7 @@ export function validateMeasurements(measurements: readonly MeasurementInput[]):
       const raw = (m !== null && typeof m === 'object' ? m : null) as Partial<MeasurementInput> | null;
       const kind: MeasurementKind | null = raw && isMeasurementKind(raw.kind) ? raw.kind : null;
       const issue: DerivationIssue = {
-        quantity: kind ? FIRST_QUANTITY[kind] : null,
+        quantity: kind ? firstQuantity(kind) : null,
         code: error.code,
         message: `measurement ${String(raw ? raw.id : m)} refused: ${error.message}`,
       };

@@ -1,7 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { CONSTANTS } from '@shared/physics/constants';
-import { affectedQuantities, deriveAll, dependentsOf, dependentsOfOption, type MeasurementInput } from '@shared/physics/derive';
+import { affectedQuantities, deriveAll, dependentsOf, dependentsOfOption, QUANTITY_DEPENDENCIES, type MeasurementInput } from '@shared/physics/derive';
+import { DERIVATION_NODES } from '@shared/physics/derive/nodes';
 import { MEASUREMENT_KINDS, QUANTITY_IDS, QUANTITY_SI_UNIT } from '@shared/physics/quantities';
 import { UNITS } from '@shared/physics/units';
 import { targetSeed } from '@shared/physics/random';
@@ -199,6 +200,20 @@ describe('derivation engine', () => {
     expect(dependentsOf('parallax')).toEqual(affectedQuantities(graph, 'plx'));
     expect(dependentsOf('peak_wavelength')).toContain('distance_photometric');
     expect(dependentsOfOption('assumedClass')).toEqual(expect.arrayContaining(['luminosity_hr', 'distance_photometric', 'radius']));
+  });
+
+  it('one graph: what each result rests on, the dependency table and the refusals all read the table of nodes', () => {
+    const graph = deriveAll(solarTwinAt10pc());
+    for (const q of QUANTITY_IDS) {
+      const r = graph.results[q]!;
+      for (const d of [...r.dependsOn, ...r.checkedAgainst]) expect(QUANTITY_DEPENDENCIES[q].quantities).toContain(d);
+    }
+    // The photometric distance rests on the assumed-class luminosity and the flux, and so on every temperature and flux input.
+    expect(QUANTITY_DEPENDENCIES.distance_photometric.quantities).toEqual(expect.arrayContaining(['luminosity_hr', 'bolometric_flux', 'distance_parallax']));
+    for (const kind of ['peak_wavelength', 'colour_index', 'magnitude', 'bolometric_flux', 'planck_temperature'] as const) {
+      expect(dependentsOf(kind)).toContain('distance_photometric');
+    }
+    expect(new Set(DERIVATION_NODES.map((n) => n.quantity))).toEqual(new Set(QUANTITY_IDS));
   });
 
   it('a new measurement changes nothing it does not feed: the other values stay identical to the last digit', () => {
