@@ -275,6 +275,8 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
     quantity: string,
     code: 'measurements_disagree' | 'temperatures_disagree',
   ) => {
+    // One estimate is its own combination; its σ is not asked for (reading it costs a selection).
+    if (estimates.length === 1) return { value: estimates[0].value, draws: estimates[0].draws, note: '', warnings: [], weighted: true };
     const combined = combineEstimates(
       estimates.map((e) => ({ value: e.value, sigma: e.sigma })),
       names,
@@ -282,7 +284,6 @@ export function evaluate(measurements: readonly MeasurementInput[], options: Der
       quantity,
       code,
     );
-    if (estimates.length === 1) return { value: estimates[0].value, draws: estimates[0].draws, note: '', warnings: [], weighted: combined.weighted };
     const draws = take();
     const extra = combined.standardError > 0 ? normals(`mean of ${quantity} ${what} ${names.join(' ')}`) : null;
     combineDraws(
