@@ -2,7 +2,7 @@ import { Navigate, useNavigate, useSearchParams } from 'react-router-dom';
 import { paths, safeRedirect } from '@/config/paths';
 import { useMe } from '@/lib/auth';
 import { Wordmark } from '@/components/layouts/wordmark';
-import { ThemeToggle } from '@/components/layouts/theme-toggle';
+import { DimToggle, ThemeToggle } from '@/components/layouts/theme-toggle';
 import { StatusLine } from '@/components/ui/alert';
 import { QueryError } from '@/components/errors/query-error';
 import { SignInForm } from '@/features/auth/components/sign-in-form';
@@ -18,8 +18,9 @@ export function SignInRoute() {
   return (
     <div className="flex min-h-screen flex-col bg-paper text-ink">
       <title>Sign in · Starledger</title>
-      <div className="flex justify-end px-6 py-4">
+      <div className="flex justify-end gap-3 px-6 py-4">
         <ThemeToggle />
+        <DimToggle />
       </div>
       <main className="mx-auto w-full max-w-sm flex-1 px-6 pt-10 pb-16">
         <div className="mb-8 border-b-4 border-double border-rule pb-4 text-center">

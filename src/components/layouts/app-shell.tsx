@@ -3,7 +3,7 @@ import { Link, NavLink, useMatch, useNavigation } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { cn } from '@/lib/cn';
 import { Wordmark } from './wordmark';
-import { ThemeToggle } from './theme-toggle';
+import { DimToggle, ThemeToggle } from './theme-toggle';
 
 export interface ShellProject {
   id: number;
@@ -88,6 +88,7 @@ export function AppShell({
           </nav>
           <div className="ml-auto flex flex-wrap items-center gap-3">
             <ThemeToggle />
+            <DimToggle />
             <span className="text-sm text-ink" data-testid="signed-in-user">
               {userName}
             </span>
