@@ -17,6 +17,7 @@ import { targetsHandlers } from './modules/targets/targets.routes';
 import { tokenParams, tokensHandlers } from './modules/tokens/tokens.routes';
 import { createTokenBody } from '../shared/schemas/tokens';
 import { commitBody, createUploadFields, remapBody, uploadParams, uploadRowsQuery } from '../shared/schemas/uploads';
+import { hrQuery } from '../shared/schemas/hr';
 import { listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../shared/schemas/derived';
 import { uploadsHandlers } from './modules/uploads/uploads.routes';
 import { derivedValuesHandlers } from './modules/derived-values/derived-values.routes';
@@ -100,6 +101,7 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'get', path: `${P}/review-queue`, access: inProject('readQueue'), params: projectParams, query: reviewQueueQuery, handler: derived.queue },
     { method: 'post', path: `${P}/review`, access: inProject('review'), params: projectParams, body: reviewBody, handler: derived.review },
     { method: 'post', path: `${P}/rederive`, access: inProject('rederive'), params: projectParams, body: rederiveBody, handler: derived.rederive },
+    { method: 'get', path: `${P}/hr`, access: inProject('read'), params: projectParams, query: hrQuery, handler: derived.hr },
 
     // Uploads
     { method: 'get', path: `${P}/uploads`, access: inProject('read'), params: projectParams, handler: uploads.list },

@@ -62,6 +62,7 @@ const cases: Record<string, Case> = {
   'GET /projects/:projectId/review-queue': { rule: editors },
   'POST /projects/:projectId/review': { rule: leads, body: async (w) => ({ decision: 'reject', note: 'Wrong star.', items: [{ id: await proposeValue(w), version: 1 }] }) },
   'POST /projects/:projectId/rederive': { rule: editors, body: () => ({}) },
+  'GET /projects/:projectId/hr': { rule: everyone, query: '?include=proposed' },
   'GET /projects/:projectId/uploads': { rule: everyone },
   'POST /projects/:projectId/uploads': { rule: editors, file: true },
   'GET /projects/:projectId/uploads/templates/long.csv': { rule: everyone },

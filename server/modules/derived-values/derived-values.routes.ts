@@ -1,5 +1,6 @@
 import type { Request, Response } from 'express';
 import { listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../../../shared/schemas/derived';
+import { hrQuery } from '../../../shared/schemas/hr';
 import { targetParams } from '../../../shared/schemas/params';
 import { projectAccessOf } from '../../middleware/access';
 import { parsed } from '../../middleware/validate';
@@ -11,6 +12,10 @@ export function derivedValuesHandlers(derived: DerivedValuesService) {
       const { projectId, role } = projectAccessOf(res);
       const { targetId } = parsed(res, 'params', targetParams);
       res.json({ derived: await derived.list(projectId, targetId, parsed(res, 'query', listDerivedQuery).include, role) });
+    },
+    async hr(_req: Request, res: Response) {
+      const { projectId, role } = projectAccessOf(res);
+      res.json(await derived.hr(projectId, parsed(res, 'query', hrQuery).include, role));
     },
     async queue(_req: Request, res: Response) {
       res.json(await derived.queue(projectAccessOf(res).projectId, parsed(res, 'query', reviewQueueQuery)));

@@ -15,6 +15,7 @@ import type {
   ReviewResult,
   StaleValueDetail,
 } from '../../../shared/schemas/derived';
+import type { HrDiagram, HrQuery, HrStar } from '../../../shared/schemas/hr';
 import type { ProjectRole } from '../../../shared/schemas/roles';
 import { engineInputsFor } from '../measurements/measurements.repository';
 import { findTarget } from '../targets/targets.repository';
@@ -24,6 +25,7 @@ import {
   decide,
   derivationSettings,
   findDerivedInProject,
+  hrRevisions,
   idsOfRevisions,
   insertDerivedRows,
   latestRevisions,
@@ -35,6 +37,7 @@ import {
   supersedeProposals,
   toDerivedValue,
   type DerivedRow,
+  type HrRow,
   type NamedDerivedRow,
   type NewDerivedRow,
 } from './derived-values.repository';
@@ -318,6 +321,39 @@ export function createDerivedValuesService(db: Db, clock: Clock) {
         );
         return { targets: targetIds.length, proposed };
       });
+    },
+
+    /**
+     * Every target with a temperature and a luminosity, for the HR diagram.
+     * Readers get approved values only (PRODUCT.md, roles), whatever they
+     * ask; others may ask for each quantity's newest proposal, which is the
+     * newest revision among approved and proposed ones.
+     */
+    async hr(projectId: number, include: HrQuery['include'], role: ProjectRole): Promise<HrDiagram> {
+      const effective = role === 'reader' ? 'approved' : include;
+      const rows = await hrRevisions(db, projectId, effective === 'approved' ? ['approved'] : ['approved', 'proposed']);
+      const stars: HrStar[] = [];
+      let i = 0;
+      while (i < rows.length) {
+        const targetId = rows[i].targetId;
+        const newest = new Map<string, HrRow>();
+        let j = i;
+        for (; j < rows.length && rows[j].targetId === targetId; j++) newest.set(rows[j].quantity, rows[j]);
+        const t = newest.get('temperature');
+        const l = newest.get('luminosity');
+        if (t && l) {
+          stars.push({
+            id: targetId,
+            designation: rows[i].designation,
+            tags: rows[i].tags,
+            temperature: { value: t.value, sigma: t.uncertainty, status: t.status },
+            luminosity: { value: l.value, sigma: l.uncertainty, status: l.status },
+            luminosityClass: newest.get('luminosity_class')?.label ?? null,
+          });
+        }
+        i = j;
+      }
+      return { include: effective, stars };
     },
   };
 }
