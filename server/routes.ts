@@ -18,7 +18,7 @@ import { tokenParams, tokensHandlers } from './modules/tokens/tokens.routes';
 import { createTokenBody } from '../shared/schemas/tokens';
 import { commitBody, createUploadFields, remapBody, uploadParams, uploadRowsQuery } from '../shared/schemas/uploads';
 import { hrQuery } from '../shared/schemas/hr';
-import { listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../shared/schemas/derived';
+import { exportValuesQuery, listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../shared/schemas/derived';
 import { uploadsHandlers } from './modules/uploads/uploads.routes';
 import { derivedValuesHandlers } from './modules/derived-values/derived-values.routes';
 import { measurementsHandlers } from './modules/measurements/measurements.routes';
@@ -100,6 +100,8 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     // Derived values: the review queue, the lead's decisions, re-runs
     { method: 'get', path: `${P}/review-queue`, access: inProject('readQueue'), params: projectParams, query: reviewQueueQuery, handler: derived.queue },
     { method: 'post', path: `${P}/review`, access: inProject('review'), params: projectParams, body: reviewBody, handler: derived.review },
+    // Every member may take the values out; readers get approved values only (the service enforces it)
+    { method: 'get', path: `${P}/values/export`, access: inProject('read'), params: projectParams, query: exportValuesQuery, handler: derived.exportValues },
     { method: 'post', path: `${P}/rederive`, access: inProject('rederive'), params: projectParams, body: rederiveBody, handler: derived.rederive },
     { method: 'get', path: `${P}/hr`, access: inProject('read'), params: projectParams, query: hrQuery, handler: derived.hr },
 

@@ -148,3 +148,10 @@ export type ReviewQueue = z.infer<typeof reviewQueueSchema>;
 export const rederiveBody = z.object({ targetId: z.number().int().positive().optional() });
 export const rederiveResultSchema = z.object({ targets: z.number(), proposed: z.number() });
 export type RederiveResult = z.infer<typeof rederiveResultSchema>;
+
+/** The project's values as a file: CSV or a VOTable; readers get approved values whatever they ask. */
+export const exportValuesQuery = z.object({
+  format: z.enum(['csv', 'votable']).default('csv'),
+  include: z.enum(['approved', 'proposed']).default('approved'),
+});
+export type ExportValuesQuery = z.output<typeof exportValuesQuery>;

@@ -15,6 +15,8 @@ export const permissions = {
   /** See what awaits review (observers read the queue, only the lead decides). */
   readQueue: ['observer', 'lead'],
   rederive: ['observer', 'lead'],
+  /** Proposed (not yet approved) values: everyone but readers, who see approved values only. */
+  readProposed: ['observer', 'lead', 'pi'],
   /** The trail carries proposed values, which readers are not shown. */
   readTrail: ['observer', 'lead', 'pi'],
   manageMembers: ['lead'],

@@ -61,6 +61,7 @@ const cases: Record<string, Case> = {
   'GET /projects/:projectId/targets/:targetId/spectra': { rule: everyone },
   'GET /projects/:projectId/review-queue': { rule: editors },
   'POST /projects/:projectId/review': { rule: leads, body: async (w) => ({ decision: 'reject', note: 'Wrong star.', items: [{ id: await proposeValue(w), version: 1 }] }) },
+  'GET /projects/:projectId/values/export': { rule: everyone, query: '?format=votable&include=proposed' },
   'POST /projects/:projectId/rederive': { rule: editors, body: () => ({}) },
   'GET /projects/:projectId/hr': { rule: everyone, query: '?include=proposed' },
   'GET /projects/:projectId/uploads': { rule: everyone },

@@ -281,3 +281,47 @@ export async function hrRevisions(db: Db, projectId: number, statuses: readonly 
     status: r.status,
   }));
 }
+
+/** One target of a values export: where it is, and the chosen revision of each quantity it has. */
+export interface ExportTarget {
+  id: number;
+  designation: string;
+  raDeg: number;
+  decDeg: number;
+  values: Map<string, Pick<DerivedRow, 'value' | 'uncertainty' | 'unit' | 'label' | 'status' | 'revision'>>;
+}
+
+/**
+ * The project's targets in designation order, a batch at a time (keyset
+ * paging, so 10 000 targets never sit in memory at once), each with the
+ * newest revision of every quantity whose status is one of `statuses`.
+ */
+export async function* eachExportBatch(db: Db, projectId: number, statuses: readonly DerivedStatus[], batchSize = 500): AsyncGenerator<ExportTarget[]> {
+  let after: { key: string; id: number } | null = null;
+  for (;;) {
+    const q = db('targets').where({ project_id: projectId });
+    if (after) {
+      const { key, id } = after;
+      q.andWhere((w) => w.where('designation_key', '>', key).orWhere((x) => x.where('designation_key', '=', key).andWhere('id', '>', id)));
+    }
+    const targets: { id: number; designation: string; designation_key: string; ra_deg: number; dec_deg: number }[] = await q
+      .orderBy('designation_key')
+      .orderBy('id')
+      .limit(batchSize)
+      .select('id', 'designation', 'designation_key', 'ra_deg', 'dec_deg');
+    if (targets.length === 0) return;
+    const byId = new Map<number, ExportTarget>(targets.map((t) => [t.id, { id: t.id, designation: t.designation, raDeg: t.ra_deg, decDeg: t.dec_deg, values: new Map() }]));
+    const rows: Pick<DerivedRow, 'target_id' | 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label' | 'status' | 'revision'>[] = await db('derived_values')
+      .where({ project_id: projectId })
+      .whereIn('target_id', [...byId.keys()])
+      .whereIn('status', statuses as DerivedStatus[])
+      .orderBy('revision', 'asc')
+      .select('target_id', 'quantity', 'value', 'uncertainty', 'unit', 'label', 'status', 'revision');
+    // Ascending revisions: the newest of each quantity is written last and stays.
+    for (const r of rows) byId.get(r.target_id)!.values.set(r.quantity, { value: r.value, uncertainty: r.uncertainty, unit: r.unit, label: r.label, status: r.status, revision: r.revision });
+    yield [...byId.values()];
+    if (targets.length < batchSize) return;
+    const tail = targets[targets.length - 1];
+    after = { key: tail.designation_key, id: tail.id };
+  }
+}

@@ -1,7 +1,8 @@
 import type { Request, Response } from 'express';
-import { listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../../../shared/schemas/derived';
+import { exportValuesQuery, listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../../../shared/schemas/derived';
 import { hrQuery } from '../../../shared/schemas/hr';
 import { targetParams } from '../../../shared/schemas/params';
+import { sendDownload } from '../../lib/download';
 import { projectAccessOf } from '../../middleware/access';
 import { parsed } from '../../middleware/validate';
 import type { DerivedValuesService } from './derived-values.service';
@@ -22,6 +23,10 @@ export function derivedValuesHandlers(derived: DerivedValuesService) {
     },
     async review(req: Request, res: Response) {
       res.json(await derived.review(projectAccessOf(res).projectId, req.user!.id, parsed(res, 'body', reviewBody)));
+    },
+    async exportValues(req: Request, res: Response) {
+      const { projectId, role } = projectAccessOf(res);
+      await sendDownload(res, await derived.exportValues(projectId, req.user!.id, role, parsed(res, 'query', exportValuesQuery)));
     },
     async rederive(req: Request, res: Response) {
       res.json(await derived.rederive(projectAccessOf(res).projectId, req.user!.id, parsed(res, 'body', rederiveBody).targetId));

@@ -7,6 +7,7 @@ import { QUANTITY_IDS } from '../../../shared/physics/quantities';
 import { targetSeed } from '../../../shared/physics/random';
 import type {
   DerivedValue,
+  ExportValuesQuery,
   QueueItem,
   RederiveResult,
   ReviewBody,
@@ -16,7 +17,10 @@ import type {
   StaleValueDetail,
 } from '../../../shared/schemas/derived';
 import type { HrDiagram, HrQuery, HrStar } from '../../../shared/schemas/hr';
-import type { ProjectRole } from '../../../shared/schemas/roles';
+import { roleCan, type ProjectRole } from '../../../shared/schemas/roles';
+import type { Download } from '../../lib/download';
+import { getProjectForUser } from '../projects/projects.repository';
+import { csvChunks, votableChunks } from './values-export';
 import { engineInputsFor } from '../measurements/measurements.repository';
 import { findTarget } from '../targets/targets.repository';
 import { appendTrail, appendTrailMany, type TrailEntry } from '../trail/trail.repository';
@@ -24,6 +28,7 @@ import {
   approvedRevisions,
   decide,
   derivationSettings,
+  eachExportBatch,
   findDerivedInProject,
   hrRevisions,
   idsOfRevisions,
@@ -297,6 +302,26 @@ export function createDerivedValuesService(db: Db, clock: Clock) {
         const decided = await findDerivedInProject(trx, projectId, [...toDecide.keys()]);
         return { decided: decided.map((r: NamedDerivedRow) => toDerivedValue(r)), superseded };
       });
+    },
+
+    /**
+     * The project's values as a file, one row per target, produced a batch
+     * at a time so the route can stream it. Readers get approved values
+     * whatever they ask for (PRODUCT.md, roles); the others may add the
+     * newest proposed revision of each quantity.
+     */
+    async exportValues(projectId: number, userId: number, role: ProjectRole, query: ExportValuesQuery): Promise<Download> {
+      const project = await getProjectForUser(db, projectId, userId);
+      if (!project) throw notFound('No such project.');
+      const include = roleCan(role, 'readProposed') ? query.include : 'approved';
+      const batches = eachExportBatch(db, projectId, include === 'approved' ? ['approved'] : ['approved', 'proposed']);
+      return query.format === 'csv'
+        ? { filename: `${project.code}-values.csv`, contentType: 'text/csv; charset=utf-8', chunks: csvChunks(batches) }
+        : {
+            filename: `${project.code}-values.vot.xml`,
+            contentType: 'application/x-votable+xml; charset=utf-8',
+            chunks: votableChunks(batches, { projectCode: project.code, projectName: project.name, include, exportedAt: clock.now() }),
+          };
     },
 
     /** Re-runs the derivations of one target or the whole project in one transaction; proposes only what changed. */

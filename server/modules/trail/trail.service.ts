@@ -1,7 +1,7 @@
-import Papa from 'papaparse';
 import type { Db } from '../../db/knex';
 import { permissions } from '../../../shared/schemas/roles';
 import type { ListTrailQuery, TrailEntry } from '../../../shared/schemas/trail';
+import { neutraliseCell, toCsv } from '../../lib/csv';
 import { notFound } from '../../lib/errors';
 import { getProjectForUser } from '../projects/projects.repository';
 import { eachTrailBatch, listActivity, listTrail, type TrailFilters } from './trail.repository';
@@ -9,16 +9,6 @@ import { eachTrailBatch, listActivity, listTrail, type TrailFilters } from './tr
 export type TrailExportFormat = 'csv' | 'json';
 
 export const csvColumns = ['id', 'time_utc', 'person', 'action', 'subject', 'target', 'before', 'after', 'note'] as const;
-
-/**
- * A spreadsheet runs a cell that begins with =, +, -, @, a tab or a carriage
- * return as a formula (OWASP, "CSV Injection"). A leading single quote makes
- * it text in every common spreadsheet, and is visible to anyone reading the
- * file, so nothing is silently changed.
- */
-export function neutraliseCell(text: string): string {
-  return /^[=+\-@\t\r]/.test(text) ? `'${text}` : text;
-}
 
 function json(value: unknown): string {
   return value === null || value === undefined ? '' : JSON.stringify(value);
@@ -36,11 +26,6 @@ function csvRow(e: TrailEntry): string[] {
     json(e.after),
     e.note,
   ].map(neutraliseCell);
-}
-
-/** RFC 4180: CRLF between records, fields quoted when they hold a comma, a quote or a line break. */
-function toCsv(rows: string[][]): string {
-  return Papa.unparse(rows, { newline: '\r\n', header: false }) + '\r\n';
 }
 
 async function* csvChunks(batches: AsyncIterable<TrailEntry[]>): AsyncGenerator<string> {

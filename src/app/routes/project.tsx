@@ -10,6 +10,7 @@ import { QueryError } from '@/components/errors/query-error';
 import { useProject } from '@/features/projects/api/get-project';
 import { ProjectSite } from '@/features/projects/components/project-site';
 import { TargetsTable } from '@/features/targets/components/targets-table';
+import { ValuesExport } from '@/features/projects/components/values-export';
 
 /** A one-off message handed over by the page that sent the person here (such as "deleted"). */
 export interface ProjectPageNotice {
@@ -49,6 +50,7 @@ function ProjectPage({ projectId }: { projectId: number }) {
       {notice ? <Alert kind="done" title={notice} className="mb-4" /> : null}
       <h2 className="sr-only">Targets</h2>
       <TargetsTable projectId={projectId} canEdit={canEdit} canReadQueue={roleCan(data.myRole, 'readQueue')} />
+      {data.myRole ? <ValuesExport projectId={projectId} canSeeProposed={roleCan(data.myRole, 'readProposed')} /> : null}
     </>
   );
 }
