@@ -1,5 +1,6 @@
 import { PhysicsError } from './errors';
 import type { QuantityId } from './quantities';
+import { spectralTypeNearIndex } from './spectral-class';
 import { fromSi, UNITS, type UnitName } from './units';
 
 /**
@@ -166,6 +167,20 @@ export const QUANTITY_NAMES: Readonly<Record<QuantityId, string>> = Object.freez
   magnetic_field: 'Magnetic field',
 });
 
+/**
+ * A spectral class as a spectroscopist writes it, with its uncertainty as the
+ * range of types its 1σ spans: "G2, G1–G3". When that range stays inside the
+ * type, "G2 (1σ inside G2)"; a class without σ is its type alone. Never
+ * "± 0.0 subclass": a fraction of a subclass is finer than spectra are typed.
+ * @see Morgan & Keenan's decimal subclasses (from memory); spectral-class.ts for the table
+ */
+export function spectralClassText(label: string, index: number, sigma: number): string {
+  if (!(sigma > 0)) return label;
+  const low = spectralTypeNearIndex(index - sigma);
+  const high = spectralTypeNearIndex(index + sigma);
+  return low === high ? `${label} (1σ inside ${low})` : `${label}, ${low}–${high}`;
+}
+
 /** The parts of a derived result the display needs. */
 export interface DisplayableResult {
   readonly quantity: QuantityId;
@@ -192,12 +207,13 @@ export interface DisplayLine {
 export function formatResult(result: DisplayableResult): DisplayLine {
   const name = QUANTITY_NAMES[result.quantity];
   if (result.quantity === 'spectral_class') {
-    // Subclasses are tabulated in steps of 0.5 at best, so σ is shown to a tenth.
+    // Subclasses are tabulated in steps of 0.5 at best, so σ is kept to a tenth for σ's own change ("σ 0.9 → 0.5 subclass").
     const sigma = result.uncertainty.toFixed(1);
+    const label = result.label ?? spectralTypeNearIndex(result.value);
     return {
       name,
       label: result.label ?? null,
-      values: [{ value: result.label ?? '', uncertainty: sigma, exponent: null, unit: 'subclass', text: `${result.label ?? ''} ± ${sigma} subclass` }],
+      values: [{ value: label, uncertainty: sigma, exponent: null, unit: 'subclass', text: spectralClassText(label, result.value, result.uncertainty) }],
     };
   }
   if (result.quantity === 'luminosity_class') {

@@ -58,12 +58,26 @@ export function spectralIndexFromTemperature(temperatureK: number): number {
  */
 export function spectralClassFromTemperature(temperatureK: number): SpectralClass {
   const index = spectralIndexFromTemperature(temperatureK);
-  let nearestRow = 0;
-  for (let row = 0; row < INDEX_BY_ROW.length; row++) {
-    if (Math.abs(INDEX_BY_ROW[row] - index) < Math.abs(INDEX_BY_ROW[nearestRow] - index)) nearestRow = row;
-  }
-  const nearest = DWARF_SEQUENCE[nearestRow];
+  const nearest = nearestRow(index);
   return { index, label: nearest.spectralType.replace(/V$/, ''), dwarfType: nearest.spectralType };
+}
+
+/** The dwarf-table row whose type is nearest a spectral index; an index past either end reads the end row. */
+function nearestRow(index: number): DwarfSequenceRow {
+  let nearest = 0;
+  for (let row = 0; row < INDEX_BY_ROW.length; row++) {
+    if (Math.abs(INDEX_BY_ROW[row] - index) < Math.abs(INDEX_BY_ROW[nearest] - index)) nearest = row;
+  }
+  return DWARF_SEQUENCE[nearest];
+}
+
+/**
+ * Class and subclass (e.g. "G1") of the tabulated type nearest a spectral
+ * index, for printing the ends of an index's 1σ range.
+ * @see Pecaut & Mamajek (2013), ApJS 208, 9, Table 5 (Mamajek's version 2024.05.15)
+ */
+export function spectralTypeNearIndex(index: number): string {
+  return nearestRow(index).spectralType.replace(/V$/, '');
 }
 
 /**

@@ -33,3 +33,13 @@ export const QUANTITY_SECTIONS: readonly QuantitySection[] = [
     note: 'No barycentric or gravitational-redshift correction is applied.',
   },
 ];
+
+/**
+ * A caution read beside one quantity wherever it is shown. The spectral
+ * class's is PRODUCT.md's: a class is read from the temperature, and the
+ * lines a spectrum shows follow the temperature far more than the star's make-up.
+ */
+export const QUANTITY_NOTES: Readonly<Partial<Record<QuantityId, string>>> = {
+  spectral_class:
+    'A line’s absence from a spectrum does not mean the element is absent: hot stars ionise hydrogen, cool stars keep it in the ground state. Temperature, not composition, drives most differences between stellar spectra.',
+};

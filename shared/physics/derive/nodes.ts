@@ -221,7 +221,7 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
       const peak = ctx.combined(ctx.measurements('peak_wavelength'), 'peak wavelengths');
       if (!peak) return null;
       const t = ctx.push1(wienTemperatureK, peak);
-      return { ...t, method: { id: 'wien_displacement', label: "Wien's displacement law, T = b / λmax" }, ids: peak.ids, constants: ['b'], warnings: peak.warnings };
+      return { ...t, method: { id: 'wien_displacement', label: "Wien's displacement law, T = b / λ_max" }, ids: peak.ids, constants: ['b'], warnings: peak.warnings };
     },
   },
   {
@@ -450,7 +450,7 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
         warnings: cls.warnings,
         method: {
           id: 'main_sequence_offset',
-          label: `offset log(L / L_MS(T)) from the mean dwarf sequence and radius ${cls.radiusRsun.toPrecision(3)} R☉; thresholds are common practice`,
+          label: `offset log₁₀(L / L_MS(T)) from the mean dwarf sequence and radius ${cls.radiusRsun.toPrecision(3)} R☉; thresholds are common practice`,
         },
         constants: ['L_sun', 'R_sun', 'sigma'],
       };
@@ -541,7 +541,7 @@ export const DERIVATION_NODES: readonly DerivationNode[] = Object.freeze([
     derive: (ctx) => {
       const l = ctx.quantity('luminosity');
       if (!l) return null;
-      return { ...ctx.push1(absoluteBolometricMagnitudeMag, l), method: { id: 'iau_2015_b2', label: 'M_bol = −2.5 log10(L / L₀), IAU 2015 Resolution B2' }, constants: ['L_0'] };
+      return { ...ctx.push1(absoluteBolometricMagnitudeMag, l), method: { id: 'iau_2015_b2', label: 'M_bol = −2.5 log₁₀(L / L₀), IAU 2015 Resolution B2' }, constants: ['L_0'] };
     },
   },
   lineNode(

@@ -1,8 +1,8 @@
 import type { ComponentProps } from 'react';
 import type { DerivedValue } from '@shared/schemas/derived';
-import { readableMessage } from '@shared/physics/display';
 import { cn } from '@/lib/cn';
 import { DERIVED_STATUS_WORDS, derivedValueTexts } from '@/lib/derived-words';
+import { Notation } from './notation';
 
 /*
  * The parts of a derived value's ledger line that the target sheet and the
@@ -42,7 +42,7 @@ export function DerivedWarnings({ warnings, className, ...props }: { warnings: D
     <ul className={cn('space-y-0.5 text-xs', className)} {...props}>
       {warnings.map((w, i) => (
         <li key={i} className="text-alert">
-          <span className="font-semibold">Warning:</span> {readableMessage(w.message)}
+          <span className="font-semibold">Warning:</span> <Notation text={w.message} />
         </li>
       ))}
     </ul>

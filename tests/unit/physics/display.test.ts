@@ -33,7 +33,17 @@ describe('display of values with uncertainties', () => {
     expect(formatResult({ quantity: 'magnetic_field', value: 0.1295, uncertainty: 0.0259 }).values[0].text).toBe('1.30 ± 0.26 kG');
     expect(formatResult({ quantity: 'magnetic_field', value: 0.01, uncertainty: 0.002 }).values[0].text).toBe('100 ± 20 G');
     const sc = formatResult({ quantity: 'spectral_class', value: 42, uncertainty: 1.04, label: 'G2' });
-    expect(sc.values[0].text).toBe('G2 ± 1.0 subclass');
+    expect(sc.values[0].text).toBe('G2, G1–G3');
+  });
+
+  // Morgan & Keenan's sequence: ten subclasses a class, G9 followed by K0; Pecaut & Mamajek's table adds half types such as F9.5 and M0.5.
+  it('prints a spectral class with the types its 1σ spans, never a fraction of a subclass', () => {
+    const text = (value: number, uncertainty: number, label: string) => formatResult({ quantity: 'spectral_class', value, uncertainty, label }).values[0].text;
+    expect(text(50, 1.2, 'K0')).toBe('K0, G9–K1');
+    expect(text(39.6, 0.6, 'G0')).toBe('G0, F9–G0');
+    expect(text(42, 0.2, 'G2')).toBe('G2 (1σ inside G2)');
+    expect(text(42, 0, 'G2')).toBe('G2');
+    expect(text(42, 0.04, 'G2')).not.toMatch(/±|subclass/);
   });
 });
 

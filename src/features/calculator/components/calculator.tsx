@@ -22,6 +22,7 @@ import {
 import { LedgerLine } from './ledger-line';
 import { MeasuredField, selectClasses, UnitSelect } from './measured-field';
 import { nanometres, RestWavelengthField } from './rest-wavelength-field';
+import { Notation } from '@/components/ui/notation';
 
 const WAVELENGTH_UNITS: ReadonlyArray<{ value: WavelengthUnit; label: string }> = [
   { value: 'nm', label: 'nm' },
@@ -168,7 +169,7 @@ export function Calculator() {
               entry={form.ebv}
               onChange={set('ebv')}
               unit="mag"
-              hint="Dereddens B−V and gives A_V = R_V E(B−V); left empty, no reddening is assumed."
+              hint={<Notation text="Dereddens B−V and gives A_V = R_V E(B−V); left empty, no reddening is assumed." />}
               error={errors.ebv}
             />
             <MeasuredField label="V magnitude" entry={form.v} onChange={set('v')} unit="mag" error={errors.v} />
@@ -262,7 +263,7 @@ export function Calculator() {
               <span className="mt-1 block text-xs font-normal text-ink-soft">Used by the spectroscopic parallax and the radius check.</span>
             </label>
             <label className="block py-2 text-sm font-semibold text-ink">
-              R_V = A_V / E(B−V)
+              <Notation text="R_V = A_V / E(B−V)" />
               <input
                 inputMode="decimal"
                 autoComplete="off"

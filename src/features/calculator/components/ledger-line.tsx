@@ -1,6 +1,7 @@
 import type { DerivationIssue, DerivedResult } from '@shared/physics/derive';
 import { formatResult, QUANTITY_NAMES } from '@shared/physics/display';
 import type { QuantityId } from '@shared/physics/quantities';
+import { Notation } from '@/components/ui/notation';
 
 /**
  * One derived value as a ledger line: value ± σ and unit in tabular figures,
@@ -30,7 +31,7 @@ export function LedgerLine({
           {issues.length > 0 ? (
             issues.map((issue, i) => (
               <p key={i} className="text-alert">
-                <span className="font-semibold">Not derived:</span> {wording(issue.message)}
+                <span className="font-semibold">Not derived:</span> <Notation text={wording(issue.message)} />
               </p>
             ))
           ) : (
@@ -54,10 +55,10 @@ export function LedgerLine({
             </span>
           ))}
         </p>
-        <p className="mt-0.5 text-xs text-ink-soft">{wording(result.method.label)}</p>
+        <p className="mt-0.5 text-xs text-ink-soft"><Notation text={wording(result.method.label)} /></p>
         {result.warnings.map((w, i) => (
           <p key={i} className="mt-0.5 text-xs text-alert">
-            <span className="font-semibold">Warning:</span> {wording(w.message)}
+            <span className="font-semibold">Warning:</span> <Notation text={wording(w.message)} />
           </p>
         ))}
       </dd>

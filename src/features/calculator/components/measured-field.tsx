@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { Field } from '@/components/ui/field';
 import { cn } from '@/lib/cn';
 import type { ValueEntry } from './calculator-inputs';
+import { Notation } from '@/components/ui/notation';
 
 const inputClasses = (invalid: boolean) =>
   cn(
@@ -39,7 +40,7 @@ export function MeasuredField({
       error={
         error ? (
           <>
-            <span className="font-semibold">Not used:</span> {error}
+            <span className="font-semibold">Not used:</span> <Notation text={error} />
           </>
         ) : undefined
       }

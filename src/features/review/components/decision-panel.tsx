@@ -1,6 +1,5 @@
 import { useEffect, useRef, useState } from 'react';
 import { reviewBody, type QueueItem, type ReviewResult, type StaleValueDetail } from '@shared/schemas/derived';
-import { readableMessage } from '@shared/physics/display';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { TextAreaField } from '@/components/ui/field';
@@ -8,6 +7,7 @@ import { isApiError } from '@/lib/api-client';
 import { DERIVED_STATUS_WORDS, quantityNameInText } from '@/lib/derived-words';
 import { formatCount } from '@/lib/format';
 import { staleValues, unapprovableValues, useReviewValues, type UnapprovableDetail } from '../api/review-values';
+import { Notation } from '@/components/ui/notation';
 
 type Decision = 'approve' | 'reject';
 
@@ -203,7 +203,7 @@ export function DecisionPanel({
               <ul className="list-disc pl-5">
                 {problem.details.map((d) => (
                   <li key={d.id}>
-                    {designationOf(d.targetId)}, {quantityNameInText(d.quantity)}: {readableMessage(d.message)}{' '}
+                    {designationOf(d.targetId)}, {quantityNameInText(d.quantity)}: <Notation text={d.message} />{' '}
                     {d.current
                       ? `(current: revision ${d.current.revision}, ${DERIVED_STATUS_WORDS[d.current.status].toLowerCase()})`
                       : '(no longer in the queue)'}
@@ -217,7 +217,7 @@ export function DecisionPanel({
               <ul className="list-disc pl-5">
                 {problem.details.map((d) => (
                   <li key={d.id}>
-                    {quantityNameInText(d.quantity)}: {readableMessage(d.message)}
+                    {quantityNameInText(d.quantity)}: <Notation text={d.message} />
                   </li>
                 ))}
               </ul>

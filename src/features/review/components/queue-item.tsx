@@ -1,13 +1,13 @@
 import type { Ref } from 'react';
 import { Link } from 'react-router-dom';
 import type { InputProvenance, QueueItem } from '@shared/schemas/derived';
-import { readableMessage } from '@shared/physics/display';
 import { paths } from '@/config/paths';
 import { linkClasses } from '@/components/ui/button';
 import { formatDateTime } from '@/lib/format';
 import { DerivedFigures, DerivedWarnings } from '@/components/ui/derived-line';
 import { derivedValueTexts, quantityName, quantityNameInText, sigmaChangeText } from '@/lib/derived-words';
 import { measurementKindName } from '@/lib/measurement-words';
+import { Notation } from '@/components/ui/notation';
 
 /** Input measurements grouped by what was measured, then by the upload they came from, rows listed together. */
 function groupProvenance(provenance: InputProvenance[]) {
@@ -142,7 +142,7 @@ export function QueueItemLine({
             )}
           </p>
         </div>
-        <p className="mt-1 text-xs text-ink-soft">{readableMessage(proposed.methodLabel)}</p>
+        <p className="mt-1 text-xs text-ink-soft"><Notation text={proposed.methodLabel} /></p>
         <Inputs projectId={projectId} item={item} />
         {item.upstream.length > 0 ? (
           <p className="mt-1 text-xs text-ink">

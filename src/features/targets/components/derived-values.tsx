@@ -1,12 +1,13 @@
 import type { DerivedValue, Measurement } from '@shared/schemas/derived';
-import { QUANTITY_NAMES, readableMessage } from '@shared/physics/display';
+import { QUANTITY_NAMES } from '@shared/physics/display';
 import { Alert } from '@/components/ui/alert';
 import { DerivedFigures, DerivedWarnings } from '@/components/ui/derived-line';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
 import { DERIVED_STATUS_WORDS, derivedValueTexts, isKnownQuantity, quantityName, sigmaChangeText } from '@/lib/derived-words';
 import { formatDateTime } from '@/lib/format';
 import { measurementKindName } from '@/lib/measurement-words';
-import { QUANTITY_SECTIONS } from '@/lib/quantity-sections';
+import { QUANTITY_NOTES, QUANTITY_SECTIONS } from '@/lib/quantity-sections';
+import { Notation } from '@/components/ui/notation';
 
 /**
  * What a value was computed from, in words and compactly: measurements
@@ -73,7 +74,7 @@ function ValueLine({
       <DerivedFigures value={value} />
       {replaces ? <p className="text-xs text-ink">{sigmaChangeText(replaces, value)}</p> : null}
       <p className="mt-0.5 text-xs text-ink-soft">
-        {readableMessage(value.methodLabel)} · revision {value.revision} · {formatDateTime(value.createdAt)}
+        <Notation text={value.methodLabel} /> · revision {value.revision} · {formatDateTime(value.createdAt)}
       </p>
       {inputs.length > 0 ? <p className="mt-0.5 text-xs text-ink-soft">From {inputs.join(' · ')}</p> : null}
       {review ? <p className="mt-0.5 text-xs text-ink">{review}</p> : null}
@@ -169,6 +170,11 @@ function QuantityLine({ state, measurements }: { state: QuantityState; measureme
           ) : null}
           {!approved && !newer && state.revisions[0] ? <ValueLine value={state.revisions[0]} measurements={measurements} /> : null}
         </div>
+        {isKnownQuantity(state.quantity) && QUANTITY_NOTES[state.quantity] ? (
+          <p className="mt-1 max-w-prose text-xs text-ink-soft italic" data-testid="quantity-note">
+            {QUANTITY_NOTES[state.quantity]}
+          </p>
+        ) : null}
         <ReviewHistory name={name} revisions={state.revisions} />
       </dd>
     </div>
