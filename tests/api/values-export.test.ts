@@ -161,9 +161,10 @@ describe('exporting the project values as a VOTable', () => {
     expect(row.spectral_class_label).toBe(values.spectral_class.label);
 
     // Against outside sources: Wien's law with b = 2.897771955e-3 m K (CODATA 2018) at 502 nm,
-    // and 1/p with the IAU 2015 parsec (3.0856775814913673e16 m) at 41.2 mas.
+    // and 1/p at 41.2 mas with the IAU 2015 parsec, 648 000/π au of 149 597 870 700 m (IAU 2012).
+    const parsec = (648000 / Math.PI) * 149597870700;
     expect(Number(row.temperature_wien) / (2.897771955e-3 / 502e-9)).toBeCloseTo(1, 2);
-    expect(Number(row.distance_parallax) / (3.0856775814913673e16 / 0.0412)).toBeCloseTo(1, 2);
+    expect(Number(row.distance_parallax) / (parsec / 0.0412)).toBeCloseTo(1, 2);
   });
 
   it("gives a reader approved values only, even when the reader asks for proposals", async () => {
