@@ -48,6 +48,7 @@ export const router = createBrowserRouter([
           },
           { path: paths.project.review.path, lazy: async () => ({ Component: (await import('./routes/review')).ReviewRoute }) },
           { path: paths.project.trail.path, lazy: async () => ({ Component: (await import('./routes/trail')).TrailRoute }) },
+          { path: paths.project.hr.path, lazy: async () => ({ Component: (await import('./routes/hr-diagram')).HrDiagramRoute }) },
           { path: paths.account.tokens.path, lazy: async () => ({ Component: (await import('./routes/account-tokens')).AccountTokensRoute }) },
           { path: paths.admin.users.path, lazy: async () => ({ Component: (await import('./routes/admin-users')).AdminUsersRoute }) },
           { path: paths.calculator.path, lazy: async () => ({ Component: (await import('./routes/calculator')).CalculatorRoute }) },

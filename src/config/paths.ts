@@ -64,6 +64,10 @@ export const paths = {
       /** With a target, the queue opens filtered to that target's values. */
       getHref: (projectId: Id, targetId?: Id) => `/projects/${projectId}/review${targetId === undefined ? '' : `?target=${targetId}`}`,
     },
+    hr: {
+      path: '/projects/:projectId/hr',
+      getHref: (projectId: Id) => `/projects/${projectId}/hr`,
+    },
     trail: {
       path: '/projects/:projectId/trail',
       /** With a target, the trail opens filtered to that target's entries. */

@@ -57,8 +57,9 @@ export function AppShell({
   const onUploadsPage = onUploadsList || onUploadPreview;
   const onReviewPage = useMatch(paths.project.review.path) !== null;
   const onTrailPage = useMatch(paths.project.trail.path) !== null;
+  const onHrPage = useMatch(paths.project.hr.path) !== null;
   const onSettingsPage = useMatch(paths.project.settings.path) !== null;
-  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage && !onReviewPage && !onTrailPage && !onSettingsPage;
+  const onTargetsPage = !onMembersPage && !onUploadPage && !onUploadsPage && !onReviewPage && !onTrailPage && !onHrPage && !onSettingsPage;
 
   return (
     <div className="flex min-h-screen flex-col bg-paper text-ink">
@@ -132,6 +133,9 @@ export function AppShell({
                 >
                   Uploads
                 </Link>
+                <NavLink to={paths.project.hr.getHref(project.id)} className={navLinkClasses}>
+                  HR diagram
+                </NavLink>
                 {project.canReadQueue ? (
                   <NavLink to={paths.project.review.getHref(project.id)} className={navLinkClasses}>
                     Review
