@@ -35,6 +35,7 @@ const pages: { name: string; who: string; path: (ids: { target: number }) => str
   { name: 'project', who: 'lead@demo.invalid', path: () => '/projects/1', ready: (p) => p.getByRole('link', { name: 'GW 101', exact: true }).waitFor() },
   { name: 'review-queue', who: 'lead@demo.invalid', path: () => '/projects/1/review', ready: (p) => p.getByRole('heading', { name: 'GW 115' }).first().waitFor() },
   { name: 'trail', who: 'lead@demo.invalid', path: () => '/projects/1/trail', ready: (p) => p.getByTestId('trail-entry').first().waitFor() },
+  { name: 'hr-diagram', who: 'lead@demo.invalid', path: () => '/projects/1/hr', ready: (p) => p.waitForFunction(() => performance.getEntriesByName('hr:first-draw').length > 0) },
   { name: 'target-sheet', who: 'lead@demo.invalid', path: ({ target }) => `/projects/1/targets/${target}`, ready: (p) => p.getByTestId('derived-line').first().waitFor() },
   { name: 'settings', who: 'lead@demo.invalid', path: () => '/projects/1/settings', ready: (p) => p.getByLabel(/site name/i).waitFor() },
   { name: 'reader-target-sheet', who: 'reader@demo.invalid', path: ({ target }) => `/projects/1/targets/${target}`, ready: (p) => p.getByTestId('derived-line').first().waitFor() },

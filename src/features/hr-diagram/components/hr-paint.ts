@@ -1,4 +1,4 @@
-import { AXIS_TITLES, errorBarAlpha, pointRadius, type Palette, type Scene } from './hr-scene';
+import { AXIS_TITLES, errorBarAlpha, outlineWidth, pointRadius, type Palette, type Scene } from './hr-scene';
 
 /** Draws a scene on a 2D canvas context already scaled to CSS pixels. */
 export function paintCanvas(ctx: CanvasRenderingContext2D, scene: Scene, palette: Palette): void {
@@ -91,7 +91,7 @@ export function paintCanvas(ctx: CanvasRenderingContext2D, scene: Scene, palette
       ctx.globalAlpha = scene.highlighting && !highlighted ? 0.35 : 1;
       ctx.fillStyle = list[0].colour;
       ctx.strokeStyle = highlighted ? palette.accent : palette.redOnly ? palette.paper : palette.ink;
-      ctx.lineWidth = highlighted ? 2 : 0.75;
+      ctx.lineWidth = outlineWidth(n, highlighted);
       ctx.beginPath();
       for (const s of list) {
         ctx.moveTo(s.x + r, s.y);
@@ -177,7 +177,7 @@ export function sceneToSvg(scene: Scene, palette: Palette, title: string): strin
     const stroke = s.highlighted ? palette.accent : palette.redOnly ? palette.paper : palette.ink;
     const faint = scene.highlighting && !s.highlighted ? ' opacity="0.35"' : '';
     out.push(
-      `<circle cx="${f(s.x)}" cy="${f(s.y)}" r="${r}" fill="${s.colour}" stroke="${stroke}" stroke-width="${s.highlighted ? 2 : 0.75}"${faint}><title>${esc(s.star.designation)}</title></circle>`,
+      `<circle cx="${f(s.x)}" cy="${f(s.y)}" r="${r}" fill="${s.colour}" stroke="${stroke}" stroke-width="${outlineWidth(n, s.highlighted)}"${faint}><title>${esc(s.star.designation)}</title></circle>`,
     );
   }
   out.push('</g>');

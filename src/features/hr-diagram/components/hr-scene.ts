@@ -186,8 +186,14 @@ export function buildScene(
 
 /** Point radius in CSS px: smaller when the plot is crowded, so 10 000 stars stay readable. */
 export function pointRadius(count: number, highlighted: boolean): number {
-  const base = count > 2000 ? 2 : count > 300 ? 3 : 4.5;
+  const base = count > 2000 ? 2.5 : count > 300 ? 3 : 4.5;
   return highlighted ? base + 2 : base;
+}
+
+/** The outline that keeps a pale star visible on paper: thinner on small points, or it would hide their colour. */
+export function outlineWidth(count: number, highlighted: boolean): number {
+  if (highlighted) return 2;
+  return count > 2000 ? 0.35 : count > 300 ? 0.5 : 0.75;
 }
 
 /** Error bars fade as the diagram fills, so thousands of them shade the diagram instead of covering it. */
