@@ -355,7 +355,7 @@ export function createDerivedValuesService(db: Db, clock: Clock) {
      * newest revision among approved and proposed ones.
      */
     async hr(projectId: number, include: HrQuery['include'], role: ProjectRole): Promise<HrDiagram> {
-      const effective = role === 'reader' ? 'approved' : include;
+      const effective = roleCan(role, 'readProposed') ? include : 'approved';
       const rows = await hrRevisions(db, projectId, effective === 'approved' ? ['approved'] : ['approved', 'proposed']);
       const stars: HrStar[] = [];
       let i = 0;

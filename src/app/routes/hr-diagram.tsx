@@ -1,6 +1,7 @@
 import { useCallback, useMemo, useRef } from 'react';
 import { useNavigate, useSearchParams } from 'react-router-dom';
 import type { HrStar } from '@shared/schemas/hr';
+import { roleCan } from '@shared/schemas/roles';
 import { labelNamesClass } from '@shared/physics/luminosity-class';
 import { LUMINOSITY_CLASS_LABELS, LUMINOSITY_CLASSES, type LuminosityClassName } from '@shared/physics/main-sequence';
 import { paths } from '@/config/paths';
@@ -26,9 +27,9 @@ function HrDiagramPage({ projectId }: { projectId: number }) {
   const project = useProject(projectId);
   const navigate = useNavigate();
   const [search, setSearch] = useSearchParams();
-  const isReader = project.data?.myRole === 'reader';
+  const canSeeProposed = roleCan(project.data?.myRole, 'readProposed');
   // Readers are served approved values only; the choice is not offered to them.
-  const include = !isReader && search.get('include') === 'proposed' ? 'proposed' : 'approved';
+  const include = canSeeProposed && search.get('include') === 'proposed' ? 'proposed' : 'approved';
   const classParam = search.get('class');
   const lumClass = isClass(classParam) ? classParam : null;
   const tag = search.get('tag') || null;
@@ -84,7 +85,7 @@ function HrDiagramPage({ projectId }: { projectId: number }) {
         }
       />
       <form className="mb-4 grid gap-4 sm:grid-cols-3" role="search" aria-label="What the diagram shows" onSubmit={(e) => e.preventDefault()}>
-        {isReader ? null : (
+        {!canSeeProposed ? null : (
           <SelectField label="Values" value={include} onChange={(e) => set('include', e.target.value === 'proposed' ? 'proposed' : null)}>
             <option value="approved">Approved values only</option>
             <option value="proposed">Include the newest proposals</option>

@@ -55,7 +55,7 @@ export function paintCanvas(ctx: CanvasRenderingContext2D, scene: Scene, palette
   ctx.textBaseline = 'alphabetic';
   ctx.textAlign = 'left';
   for (const line of scene.radii) ctx.fillText(line.label, line.labelAt[0], line.labelAt[1]);
-  ctx.font = 'italic 12px "Source Serif 4 Variable", Georgia, serif';
+  ctx.font = `italic ${frame.width < 520 ? 10 : 12}px "Source Serif 4 Variable", Georgia, serif`;
   ctx.textAlign = 'center';
   for (const region of scene.regions) {
     if (region.outlines.length > 0) ctx.fillText(region.label, region.labelAt[0], region.labelAt[1]);

@@ -178,7 +178,8 @@ export function buildScene(
   const regions: Scene['regions'] = hrRegions(tMinK, tMaxK).map((region) => ({
     outlines: region.outlines.map((outline) => outline.map(([lt, ll]) => [xOf(lt), clampY(yOf(ll))] as [number, number])),
     label: region.label,
-    labelAt: [xOf(region.labelAt[0]), clampY(yOf(region.labelAt[1]))],
+    // Kept clear of the frame's edges, where the radius labels sit.
+    labelAt: [xOf(region.labelAt[0]), Math.min(bottom - 8, Math.max(top + 28, yOf(region.labelAt[1])))],
   }));
 
   return { frame, stars: plotted, xTicks, yTicks, radii, regions, highlighting: highlightTag !== null };

@@ -35,7 +35,7 @@ export function HrStarList({ stars, hrefOf }: { stars: HrStar[]; hrefOf: (star: 
               const values = starValues(star);
               return (
                 <LedgerRow key={star.id}>
-                  <LedgerCell>
+                  <LedgerCell className="whitespace-nowrap">
                     <Link to={hrefOf(star)} className={linkClasses}>
                       {star.designation}
                     </Link>
