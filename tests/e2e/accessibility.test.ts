@@ -30,42 +30,149 @@ async function axeViolations(page: Page): Promise<string[]> {
   return violations.map((v) => `${v.id}: ${v.help} — ${v.nodes.slice(0, 3).map(describeNode).join(' | ')}`);
 }
 
-const pages: { name: string; who: string; path: (ids: { target: number }) => string; ready: (page: Page) => Promise<unknown> }[] = [
+interface Ids {
+  target: number;
+  upload: number;
+}
+
+/** A page to check; `who` null is a visitor who has not signed in. `fitsPhone` pages must not scroll sideways at 390 px. */
+interface PageSpec {
+  name: string;
+  who: string | null;
+  path: (ids: Ids) => string;
+  ready: (page: Page) => Promise<unknown>;
+  fitsPhone?: boolean;
+}
+
+const pages: PageSpec[] = [
+  { name: 'sign-in', who: null, path: () => '/sign-in', ready: (p) => p.getByRole('heading', { name: 'Sign in' }).waitFor() },
   { name: 'home', who: 'lead@demo.invalid', path: () => '/', ready: (p) => p.getByRole('heading', { name: /recent activity/i }).waitFor() },
-  { name: 'project', who: 'lead@demo.invalid', path: () => '/projects/1', ready: (p) => p.getByRole('link', { name: 'GW 101', exact: true }).waitFor() },
+  {
+    name: 'project',
+    who: 'lead@demo.invalid',
+    path: () => '/projects/1',
+    ready: (p) => p.getByRole('link', { name: 'GW 101', exact: true }).waitFor(),
+    fitsPhone: true,
+  },
   { name: 'review-queue', who: 'lead@demo.invalid', path: () => '/projects/1/review', ready: (p) => p.getByRole('heading', { name: 'GW 115' }).first().waitFor() },
   { name: 'trail', who: 'lead@demo.invalid', path: () => '/projects/1/trail', ready: (p) => p.getByTestId('trail-entry').first().waitFor() },
-  { name: 'hr-diagram', who: 'lead@demo.invalid', path: () => '/projects/1/hr', ready: (p) => p.waitForFunction(() => performance.getEntriesByName('hr:first-draw').length > 0) },
-  { name: 'target-sheet', who: 'lead@demo.invalid', path: ({ target }) => `/projects/1/targets/${target}`, ready: (p) => p.getByTestId('derived-line').first().waitFor() },
+  {
+    name: 'target-sheet',
+    who: 'lead@demo.invalid',
+    path: ({ target }) => `/projects/1/targets/${target}`,
+    ready: (p) => p.getByTestId('derived-line').first().waitFor(),
+    fitsPhone: true,
+  },
+  {
+    name: 'upload-preview-errors',
+    who: 'lead@demo.invalid',
+    path: ({ upload }) => `/projects/1/uploads/${upload}`,
+    ready: (p) => p.getByTestId('commit-blocked').waitFor(),
+  },
+  {
+    name: 'hr-diagram',
+    who: 'lead@demo.invalid',
+    path: () => '/projects/1/hr',
+    ready: (p) => p.waitForFunction(() => performance.getEntriesByName('hr:first-draw').length > 0),
+    fitsPhone: true,
+  },
+  { name: 'calculator', who: 'lead@demo.invalid', path: () => '/calculator', ready: (p) => p.getByRole('heading', { name: 'Calculator' }).waitFor() },
   { name: 'settings', who: 'lead@demo.invalid', path: () => '/projects/1/settings', ready: (p) => p.getByLabel(/site name/i).waitFor() },
-  { name: 'reader-target-sheet', who: 'reader@demo.invalid', path: ({ target }) => `/projects/1/targets/${target}`, ready: (p) => p.getByTestId('derived-line').first().waitFor() },
+  {
+    name: 'reader-target-sheet',
+    who: 'reader@demo.invalid',
+    path: ({ target }) => `/projects/1/targets/${target}`,
+    ready: (p) => p.getByTestId('derived-line').first().waitFor(),
+    fitsPhone: true,
+  },
 ];
 
+/** A file whose rows fail (a decimal comma, a parallax in nm, a new target without a value) through the upload page; its preview's id. */
+async function uploadWithErrors(page: Page, baseUrl: string): Promise<number> {
+  await page.goto(`${baseUrl}/projects/1/upload`);
+  await page.getByLabel('Measurement file').setInputFiles({
+    name: 'night-with-errors.csv',
+    mimeType: 'text/csv',
+    buffer: Buffer.from('target,quantity,value,unit,band\nGW 107,magnitude,"7,12",mag,V\nGW 107,parallax,33.1,nm,\nGW 990,magnitude,,mag,V\n'),
+  });
+  await page.getByRole('button', { name: 'Upload and preview' }).click();
+  await page.waitForURL(/\/projects\/1\/uploads\/\d+$/);
+  return Number(new URL(page.url()).pathname.split('/').pop());
+}
+
 describe.skipIf(!chromiumAvailable)('accessibility of the review pages (axe-core)', () => {
-  const { pageAs, baseUrl } = browserSuite();
+  const { pageAs, newPage, baseUrl } = browserSuite();
 
   for (const theme of ['day', 'night'] as const) {
     it(`finds nothing on any page in the ${theme} theme at 390 and 1366 px`, async () => {
       const found: string[] = [];
-      const byWho = new Map<string, Page>();
-      for (const spec of pages) {
-        let page = byWho.get(spec.who);
+      const byWho = new Map<string | null, Page>();
+      const pageFor = async (who: string | null): Promise<Page> => {
+        let page = byWho.get(who);
         if (!page) {
-          page = await pageAs(spec.who);
+          page = who ? await pageAs(who) : await newPage();
+          if (!who) {
+            // Once the app has started: its theme effect stores the theme it began with.
+            await page.goto(`${baseUrl()}/sign-in`);
+            await page.getByRole('heading', { name: 'Sign in' }).waitFor();
+          }
           await page.evaluate((t) => window.localStorage.setItem('starledger.theme', t), theme);
-          byWho.set(spec.who, page);
+          byWho.set(who, page);
         }
-        const targets = await page.evaluate(async () => (await (await fetch('/api/projects/1/targets?q=GW101')).json()) as { items: { id: number }[] });
+        return page;
+      };
+      const lead = await pageFor('lead@demo.invalid');
+      const targets = await lead.evaluate(async () => (await (await fetch('/api/projects/1/targets?q=GW101')).json()) as { items: { id: number }[] });
+      const ids: Ids = { target: targets.items[0].id, upload: await uploadWithErrors(lead, baseUrl()) };
+      for (const spec of pages) {
+        const page = await pageFor(spec.who);
         for (const width of [390, 1366]) {
           await page.setViewportSize({ width, height: 900 });
-          await page.goto(`${baseUrl()}${spec.path({ target: targets.items[0].id })}`);
+          await page.goto(`${baseUrl()}${spec.path(ids)}`);
           await spec.ready(page);
           expect(await page.evaluate(() => document.documentElement.dataset.theme)).toBe(theme);
           await screenshot(page, `a11y-${spec.name}-${theme}-${width}`);
           for (const v of await axeViolations(page)) found.push(`${spec.name} ${width}px: ${v}`);
+          if (spec.fitsPhone && width === 390) {
+            const scrollWidth = await page.evaluate(() => document.documentElement.scrollWidth);
+            if (scrollWidth > 390) found.push(`${spec.name} 390px: scrolls sideways, ${scrollWidth} px wide`);
+          }
         }
       }
       expect(found).toEqual([]);
     });
   }
+
+  it('night theme: every colour is red light only, and the Dim control dims the page and is remembered', async () => {
+    const page = await pageAs('observer@demo.invalid');
+    await page.evaluate(() => window.localStorage.setItem('starledger.theme', 'day'));
+    await page.reload();
+    await page.getByRole('button', { name: /night theme/i }).waitFor();
+    expect(await page.getByRole('button', { name: /^Dim/ }).count()).toBe(0);
+    await page.getByRole('button', { name: /night theme/i }).click();
+    // Each token as the browser resolves it (the build may write #000000 as #000 or #ff0000 as red).
+    const tokens = await page.evaluate(() => {
+      const probe = document.body.appendChild(document.createElement('span'));
+      const colours = ['paper', 'paper-deep', 'ink', 'ink-soft', 'rule', 'brass', 'brass-deep', 'alert', 'good'].map((t) => {
+        probe.style.color = `var(--sl-${t})`;
+        return [t, getComputedStyle(probe).color];
+      });
+      probe.remove();
+      return colours;
+    });
+    for (const [token, colour] of tokens) expect(colour, token).toMatch(/^rgb\(\d+, 0, 0\)$/);
+    const dim = page.getByRole('button', { name: /^Dim/ });
+    expect(await dim.getAttribute('aria-pressed')).toBe('false');
+    await dim.click();
+    expect(await dim.getAttribute('aria-pressed')).toBe('true');
+    expect(await page.evaluate(() => getComputedStyle(document.documentElement).filter)).toBe('brightness(0.6)');
+    // The hint says the dimmed text no longer reaches 4.5:1: it is the observer's choice.
+    expect(await dim.getAttribute('title')).toMatch(/below the 4\.5:1/);
+    await page.reload();
+    await page.getByRole('button', { name: /^Dim/ }).waitFor();
+    expect(await page.evaluate(() => document.documentElement.dataset.dim)).toBe('on');
+    await screenshot(page, 'a11y-night-dimmed');
+    await page.getByRole('button', { name: /night theme/i }).click();
+    expect(await page.evaluate(() => getComputedStyle(document.documentElement).filter)).toBe('none');
+  });
 });

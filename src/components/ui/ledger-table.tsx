@@ -1,4 +1,4 @@
-import type { ComponentProps } from 'react';
+import { useEffect, useRef, useState, type ComponentProps } from 'react';
 import { cn } from '@/lib/cn';
 
 /*
@@ -6,10 +6,47 @@ import { cn } from '@/lib/cn';
  * under the column heads, figures right-aligned in tabular digits.
  */
 
+/** Whether the element's content is wider than the element, kept up to date as either resizes. */
+function useOverflowsSideways() {
+  const ref = useRef<HTMLDivElement>(null);
+  const [overflows, setOverflows] = useState(false);
+  useEffect(() => {
+    const box = ref.current;
+    if (!box) return;
+    const measure = () => setOverflows(box.scrollWidth > box.clientWidth + 1);
+    measure();
+    const observer = new ResizeObserver(measure);
+    observer.observe(box);
+    if (box.firstElementChild) observer.observe(box.firstElementChild);
+    return () => observer.disconnect();
+  }, []);
+  return { ref, overflows };
+}
+
+/**
+ * A table wider than the screen scrolls inside its own box. Only then is
+ * the box a named region in the tab order (so the keyboard can scroll it with
+ * the arrow keys, WCAG 2.1.1) with a line saying that it scrolls; a table
+ * that fits adds no tab stop.
+ */
 export function LedgerTable({ className, ...props }: ComponentProps<'table'>) {
+  const { ref, overflows } = useOverflowsSideways();
+  const label = props['aria-label'];
   return (
-    <div className="overflow-x-auto">
-      <table className={cn('w-full border-collapse text-sm', className)} {...props} />
+    <div>
+      {overflows ? (
+        <p className="mb-1 text-xs text-ink-soft" data-print="hide">
+          Wider than the screen: scroll sideways for more columns{label ? '' : '.'}
+          {label ? ` (focus the table “${label}” and use the arrow keys).` : null}
+        </p>
+      ) : null}
+      <div
+        ref={ref}
+        className="overflow-x-auto focus-visible:outline-2"
+        {...(overflows ? { tabIndex: 0, role: 'region', 'aria-label': label ? `${label}, scrolls sideways` : 'Table, scrolls sideways' } : {})}
+      >
+        <table className={cn('w-full border-collapse text-sm', className)} {...props} />
+      </div>
     </div>
   );
 }
