@@ -41,6 +41,14 @@ describe.skipIf(!chromiumAvailable)('HR diagram page', () => {
     expect(text).toMatch(/L☉/);
     expect(text).toMatch(/approved|proposed/);
     await screenshot(page, 'hr-diagram-day');
+    const png = page.waitForEvent('download');
+    await page.getByRole('button', { name: 'Save PNG' }).click();
+    // The PNG signature (ISO/IEC 15948): \x89 P N G \r \n \x1a \n.
+    expect(fs.readFileSync(await (await png).path()).subarray(0, 8).toString('hex')).toBe('89504e470d0a1a0a');
+    await page.getByLabel('Luminosity class').selectOption('white_dwarf');
+    await page.getByText(/^0 stars on the diagram|^\d+ stars? on the diagram.*white dwarf/).waitFor();
+    await page.getByLabel('Luminosity class').selectOption('');
+    await page.getByText(`${first.count} stars on the diagram`, { exact: false }).waitFor();
     await page.mouse.click(box.x + first.x, box.y + first.y);
     await page.waitForURL(/\/projects\/1\/targets\/\d+$/);
     await page.getByRole('heading', { name: first.designation, level: 1 }).waitFor();
