@@ -176,9 +176,15 @@ export const QUANTITY_NAMES: Readonly<Record<QuantityId, string>> = Object.freez
  */
 export function spectralClassText(label: string, index: number, sigma: number): string {
   if (!(sigma > 0)) return label;
-  const low = spectralTypeNearIndex(index - sigma);
-  const high = spectralTypeNearIndex(index + sigma);
-  return low === high ? `${label} (1σ inside ${low})` : `${label}, ${low}–${high}`;
+  const range = spectralClassRange(index, sigma);
+  return range.includes('–') ? `${label}, ${range}` : `${label} (1σ inside ${range})`;
+}
+
+/** The types a spectral index's 1σ spans, "G1–G3", or the one type when it stays inside it. */
+export function spectralClassRange(index: number, sigma: number): string {
+  const low = spectralTypeNearIndex(index - Math.max(0, sigma));
+  const high = spectralTypeNearIndex(index + Math.max(0, sigma));
+  return low === high ? low : `${low}–${high}`;
 }
 
 /** The parts of a derived result the display needs. */

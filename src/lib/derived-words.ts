@@ -1,5 +1,5 @@
 import type { DerivedStatus, DerivedValue } from '@shared/schemas/derived';
-import { formatResult, QUANTITY_NAMES } from '@shared/physics/display';
+import { formatResult, QUANTITY_NAMES, spectralClassRange } from '@shared/physics/display';
 import type { QuantityId } from '@shared/physics/quantities';
 
 /*
@@ -71,6 +71,10 @@ export function sigmaChangeText(
   from: Pick<DerivedValue, 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label'>,
   to: Pick<DerivedValue, 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label'>,
 ): string {
+  // A spectral class's σ is a range of types, not a fraction of a subclass.
+  if (from.quantity === 'spectral_class' && to.quantity === 'spectral_class') {
+    return `1σ range ${spectralClassRange(from.value, from.uncertainty)} → ${spectralClassRange(to.value, to.uncertainty)}`;
+  }
   const a = sigmaParts(from);
   const b = sigmaParts(to);
   const unit = (u: string) => (u ? ` ${u}` : '');

@@ -32,6 +32,14 @@ describe('derived value lines', () => {
     expect(sigmaChangeText(approved, proposed)).toBe('σ 0.23 × 10⁻¹² W m⁻² → 0.4 × 10⁻¹² W m⁻²');
   });
 
+  // Morgan & Keenan's sequence, ten subclasses a class: index 42 is G2, so 42 ± 1.04 spans G1–G3 and 42.1 ± 0.2 stays in G2.
+  it('says how the uncertainty of a spectral class changes as ranges of types, not fractions of a subclass', () => {
+    const approved = { quantity: 'spectral_class', value: 42, uncertainty: 1.04, unit: '1', label: 'G2' };
+    const proposed = { quantity: 'spectral_class', value: 42.1, uncertainty: 0.2, unit: '1', label: 'G2' };
+    expect(derivedValueTexts(approved)).toEqual(['G2, G1–G3']);
+    expect(sigmaChangeText(approved, proposed)).toBe('1σ range G1–G3 → G2');
+  });
+
   it('falls back to the stored SI figures for a quantity the display does not know', () => {
     expect(derivedValueTexts({ quantity: 'surface_gravity', value: 274, uncertainty: 3, unit: 'm/s2', label: null })).toEqual(['274 ± 3 m/s2']);
   });
