@@ -55,11 +55,6 @@ export function paintCanvas(ctx: CanvasRenderingContext2D, scene: Scene, palette
   ctx.textBaseline = 'alphabetic';
   ctx.textAlign = 'left';
   for (const line of scene.radii) ctx.fillText(line.label, line.labelAt[0], line.labelAt[1]);
-  ctx.font = `italic ${frame.width < 520 ? 10 : 12}px "Source Serif 4 Variable", Georgia, serif`;
-  ctx.textAlign = 'center';
-  for (const region of scene.regions) {
-    if (region.outlines.length > 0) ctx.fillText(region.label, region.labelAt[0], region.labelAt[1]);
-  }
 
   // Error bars, one path.
   const n = scene.stars.length;
@@ -102,6 +97,19 @@ export function paintCanvas(ctx: CanvasRenderingContext2D, scene: Scene, palette
     }
   }
   ctx.globalAlpha = 1;
+
+  // Region names last, on a halo of paper, so a crowded band does not hide its own name.
+  ctx.font = `italic ${frame.width < 520 ? 10 : 12}px "Source Serif 4 Variable", Georgia, serif`;
+  ctx.textAlign = 'center';
+  ctx.lineJoin = 'round';
+  ctx.lineWidth = 3;
+  ctx.strokeStyle = palette.paper;
+  ctx.fillStyle = palette.inkSoft;
+  for (const region of scene.regions) {
+    if (region.outlines.length === 0) continue;
+    ctx.strokeText(region.label, region.labelAt[0], region.labelAt[1]);
+    ctx.fillText(region.label, region.labelAt[0], region.labelAt[1]);
+  }
   ctx.restore();
 
   // Axes, ticks and titles.
@@ -163,11 +171,6 @@ export function sceneToSvg(scene: Scene, palette: Palette, title: string): strin
     `<path d="${scene.radii.map((l) => `M${f(l.points[0][0])} ${f(l.points[0][1])}L${f(l.points[1][0])} ${f(l.points[1][1])}`).join('')}" stroke="${palette.rule}" stroke-dasharray="4 4" fill="none"/>`,
   );
   for (const l of scene.radii) out.push(`<text x="${f(l.labelAt[0])}" y="${f(l.labelAt[1])}" font-size="11" fill="${palette.inkSoft}">${esc(l.label)}</text>`);
-  for (const r of scene.regions) {
-    if (r.outlines.length > 0) {
-      out.push(`<text x="${f(r.labelAt[0])}" y="${f(r.labelAt[1])}" font-size="12" font-style="italic" font-family="Source Serif 4, Georgia, serif" text-anchor="middle" fill="${palette.inkSoft}">${esc(r.label)}</text>`);
-    }
-  }
   out.push(
     `<path d="${scene.stars.map((s) => `M${f(s.x0)} ${f(s.y)}H${f(s.x1)}M${f(s.x)} ${f(s.y0)}V${f(s.y1)}`).join('')}" stroke="${palette.inkSoft}" stroke-opacity="${errorBarAlpha(n)}" fill="none"/>`,
   );
@@ -179,6 +182,13 @@ export function sceneToSvg(scene: Scene, palette: Palette, title: string): strin
     out.push(
       `<circle cx="${f(s.x)}" cy="${f(s.y)}" r="${r}" fill="${s.colour}" stroke="${stroke}" stroke-width="${outlineWidth(n, s.highlighted)}"${faint}><title>${esc(s.star.designation)}</title></circle>`,
     );
+  }
+  for (const r of scene.regions) {
+    if (r.outlines.length > 0) {
+      out.push(
+        `<text x="${f(r.labelAt[0])}" y="${f(r.labelAt[1])}" font-size="12" font-style="italic" font-family="Source Serif 4, Georgia, serif" text-anchor="middle" fill="${palette.inkSoft}" stroke="${palette.paper}" stroke-width="3" stroke-linejoin="round" paint-order="stroke">${esc(r.label)}</text>`,
+      );
+    }
   }
   out.push('</g>');
   out.push(`<rect x="${left + 0.5}" y="${top + 0.5}" width="${right - left - 1}" height="${bottom - top - 1}" fill="none" stroke="${palette.ink}"/>`);
