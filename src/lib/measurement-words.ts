@@ -29,6 +29,11 @@ export function measurementKindName(kind: string): string {
   return MEASUREMENT_KIND_NAMES[kind as MeasurementKind] ?? kind;
 }
 
+/** A photometric band as astronomers print it: a colour index with a true minus sign (files write B-V, the page B−V). */
+export function bandName(band: string): string {
+  return band.replace(/^([A-Za-z]{1,2})\s*-\s*([A-Za-z]{1,2})$/, '$1\u2212$2');
+}
+
 /** A column of the measurement file in words, with its header name, e.g. "Right ascension (ra)". */
 export const FIELD_NAMES: Readonly<Record<Field, string>> = {
   target: 'Target designation',

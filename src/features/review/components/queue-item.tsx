@@ -6,14 +6,14 @@ import { linkClasses } from '@/components/ui/button';
 import { formatDateTime } from '@/lib/format';
 import { DerivedFigures, DerivedWarnings } from '@/components/ui/derived-line';
 import { derivedValueTexts, quantityName, quantityNameInText, sigmaChangeText } from '@/lib/derived-words';
-import { measurementKindName } from '@/lib/measurement-words';
+import { bandName, measurementKindName } from '@/lib/measurement-words';
 import { Notation } from '@/components/ui/notation';
 
 /** Input measurements grouped by what was measured, then by the upload they came from, rows listed together. */
 function groupProvenance(provenance: InputProvenance[]) {
   const groups = new Map<string, Map<string, { uploadId: number | null; filename: string | null; rows: number[] }>>();
   for (const p of provenance) {
-    const what = `${measurementKindName(p.kind)}${p.band ? ` ${p.band}` : ''}`;
+    const what = `${measurementKindName(p.kind)}${p.band ? ` ${bandName(p.band)}` : ''}`;
     const sources = groups.get(what) ?? new Map<string, { uploadId: number | null; filename: string | null; rows: number[] }>();
     const key = String(p.uploadId ?? 'direct');
     const source = sources.get(key) ?? { uploadId: p.uploadId, filename: p.uploadFilename, rows: [] };

@@ -5,7 +5,7 @@ import { DerivedFigures, DerivedWarnings } from '@/components/ui/derived-line';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
 import { DERIVED_STATUS_WORDS, derivedValueTexts, isKnownQuantity, quantityName, sigmaChangeText } from '@/lib/derived-words';
 import { formatDateTime } from '@/lib/format';
-import { measurementKindName } from '@/lib/measurement-words';
+import { bandName, measurementKindName } from '@/lib/measurement-words';
 import { QUANTITY_NOTES, QUANTITY_SECTIONS } from '@/lib/quantity-sections';
 import { Notation } from '@/components/ui/notation';
 
@@ -27,7 +27,7 @@ function inputWords(inputs: DerivedValue['inputs'], measurements: ReadonlyMap<nu
       others.push(`measurement ${input}`);
       continue;
     }
-    const what = `${measurementKindName(m.kind)}${m.band ? ` ${m.band}` : ''}`;
+    const what = `${measurementKindName(m.kind)}${m.band ? ` ${bandName(m.band)}` : ''}`;
     const source = m.uploadId === null ? 'entered directly' : `upload ${m.uploadId}`;
     const bySource = groups.get(what) ?? new Map<string, number[]>();
     const rows = bySource.get(source) ?? [];

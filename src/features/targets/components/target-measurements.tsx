@@ -6,7 +6,7 @@ import { paths } from '@/config/paths';
 import { linkClasses } from '@/components/ui/button';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
 import { formatDateTime } from '@/lib/format';
-import { measurementKindName, unitSymbol } from '@/lib/measurement-words';
+import { bandName, measurementKindName, unitSymbol } from '@/lib/measurement-words';
 
 const MAG_KINDS = new Set(['magnitude', 'colour_index', 'extinction']);
 
@@ -40,7 +40,7 @@ function sentValue(m: Measurement): string {
 
 /** Band for photometry; for a line, its rest wavelength in the unit the observed one came in. */
 function bandOrLine(m: Measurement): string {
-  if (m.band) return m.band;
+  if (m.band) return bandName(m.band);
   if (m.restWavelengthSi === null) return '';
   const unit = m.unitAsSent && Object.prototype.hasOwnProperty.call(UNITS, m.unitAsSent) ? (m.unitAsSent as UnitName) : 'nm';
   const rest = `rest ${asWritten(Number(fromSi(m.restWavelengthSi, unit).toPrecision(9)))} ${UNITS[unit].symbol}`;
