@@ -76,7 +76,7 @@ const pages: PageSpec[] = [
     ready: (p) => p.waitForFunction(() => performance.getEntriesByName('hr:first-draw').length > 0),
     fitsPhone: true,
   },
-  { name: 'calculator', who: 'lead@demo.invalid', path: () => '/calculator', ready: (p) => p.getByRole('heading', { name: 'Calculator' }).waitFor() },
+  { name: 'calculator', who: 'lead@demo.invalid', path: () => '/calculator', ready: fillCalculator },
   { name: 'settings', who: 'lead@demo.invalid', path: () => '/projects/1/settings', ready: (p) => p.getByLabel(/site name/i).waitFor() },
   {
     name: 'reader-target-sheet',
@@ -86,6 +86,21 @@ const pages: PageSpec[] = [
     fitsPhone: true,
   },
 ];
+
+/** A Sun-like star typed into the calculator, so its derived lines (methods with their subscripts, warnings) are on the page. */
+async function fillCalculator(page: Page): Promise<void> {
+  const typed: [string, string, string][] = [
+    ['Continuum peak wavelength', '500', '5'],
+    ['Colour excess E(B−V)', '0.02', '0.01'],
+    ['V magnitude', '4.8', '0.02'],
+    ['Parallax', '100', '0.5'],
+  ];
+  for (const [label, value, sigma] of typed) {
+    await page.getByLabel(label, { exact: true }).fill(value);
+    await page.getByLabel(`Uncertainty (1σ) of ${label}`, { exact: true }).fill(sigma);
+  }
+  await page.getByRole('region', { name: 'Derived values' }).locator('[data-quantity="bolometric_flux"] sub').first().waitFor();
+}
 
 /** A file whose rows fail (a decimal comma, a parallax in nm, a new target without a value) through the upload page; its preview's id. */
 async function uploadWithErrors(page: Page, baseUrl: string): Promise<number> {
