@@ -53,9 +53,11 @@ const PAIRS: readonly { a: string; b: string; words: string }[] = [
 
 /** A σ distance in words: agreement within 1σ, else the distance to one decimal and whether the engine calls it a disagreement. */
 function pairCheck(id: string, words: string, apart: number): CrossCheck {
-  const shown = apart.toFixed(1);
-  if (apart <= 1) return { id, verdict: 'agree', text: `${capital(words)} agree within 1 σ (${shown} σ apart).`, sigmaApart: apart };
-  if (apart <= DISAGREEMENT_SIGMA)
+  // The verdict follows the figure printed, so "1.0 σ" never reads as a difference; past the engine's limit a second decimal keeps "3.0 σ" from reading as within it.
+  const rounded = Math.round(apart * 10) / 10;
+  const shown = apart > DISAGREEMENT_SIGMA && rounded <= DISAGREEMENT_SIGMA ? apart.toFixed(2) : apart.toFixed(1);
+  if (rounded <= 1) return { id, verdict: 'agree', text: `${capital(words)} agree within 1 σ (${shown} σ apart).`, sigmaApart: apart };
+  if (!(apart > DISAGREEMENT_SIGMA))
     return { id, verdict: 'differ', text: `${capital(words)} differ by ${shown} σ, within the ${DISAGREEMENT_SIGMA} σ the engine accepts.`, sigmaApart: apart };
   return { id, verdict: 'disagree', text: `${capital(words)} differ by ${shown} σ, more than the ${DISAGREEMENT_SIGMA} σ the engine accepts.`, sigmaApart: apart };
 }

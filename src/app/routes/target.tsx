@@ -1,3 +1,4 @@
+import { lazy, Suspense } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { useQueryClient } from '@tanstack/react-query';
 import { roleCan } from '@shared/schemas/roles';
@@ -20,8 +21,15 @@ import { useSpectra } from '@/features/targets/api/get-spectra';
 import { DerivedValues, ModelCaution } from '@/features/targets/components/derived-values';
 import { TargetMeasurements } from '@/features/targets/components/target-measurements';
 import { TargetSpectra } from '@/features/targets/components/target-spectra';
+import { CrossChecks, currentValues } from '@/features/targets/components/cross-checks';
 import { RederiveButton } from '@/features/review/components/rederive-button';
 import type { ProjectPageNotice } from './project';
+
+// The chart code is fetched only by a sheet that has a star to draw.
+const TargetHr = lazy(() => import('@/features/hr-diagram/components/target-hr'));
+
+/** Space held for the small diagram and its caption, so the sheet does not shift when the chart code arrives. */
+const TARGET_HR_SPACE = 'min-h-[23rem]';
 
 /** The target's derived values, spectra and the measurements behind them; they load after the sheet's head so it shows at once. */
 function TargetReadings({
@@ -32,6 +40,7 @@ function TargetReadings({
   canRederive,
   canReadQueue,
   isReader,
+  canSeeProposed,
 }: {
   projectId: number;
   targetId: number;
@@ -42,12 +51,15 @@ function TargetReadings({
   canReadQueue: boolean;
   /** Readers (students, guests) are sent approved values only, so an empty list may still hide values under review. */
   isReader: boolean;
+  canSeeProposed: boolean;
 }) {
   // Every revision: the sheet shows the approved value and any newer proposal at a glance, and each quantity's review history.
   const derived = useDerived(projectId, targetId, 'all');
   const awaiting = derived.data?.filter((d) => d.status === 'proposed').length ?? 0;
   const spectra = useSpectra(projectId, targetId);
   const measurements = useMeasurements(projectId, targetId);
+  const current = derived.data ? currentValues(derived.data) : [];
+  const onDiagram = current.some((v) => v.quantity === 'temperature') && current.some((v) => v.quantity === 'luminosity');
   const uploadLink = canUpload ? (
     <Link className={linkClasses} to={paths.project.upload.getHref(projectId)}>
       Upload measurements
@@ -88,6 +100,20 @@ function TargetReadings({
           )
         ) : null}
       </Section>
+      {derived.data && derived.data.length > 0 ? (
+        <Section title="Cross-checks" className="mt-10">
+          <CrossChecks revisions={derived.data} />
+        </Section>
+      ) : null}
+      {onDiagram ? (
+        <Section title="On the HR diagram" className="mt-10">
+          <div className={TARGET_HR_SPACE}>
+            <Suspense fallback={<StatusLine>Loading the diagram…</StatusLine>}>
+              <TargetHr projectId={projectId} targetId={targetId} designation={designation} canSeeProposed={canSeeProposed} />
+            </Suspense>
+          </div>
+        </Section>
+      ) : null}
       {spectra.isError ? (
         <Section title="Spectra" className="mt-10">
           <QueryError what="The spectra" error={spectra.error} onRetry={() => void spectra.refetch()} />
@@ -166,6 +192,7 @@ function TargetPage({ projectId, targetId }: { projectId: number; targetId: numb
         canRederive={roleCan(project.data.myRole, 'rederive')}
         canReadQueue={roleCan(project.data.myRole, 'readQueue')}
         isReader={project.data.myRole === 'reader'}
+        canSeeProposed={roleCan(project.data.myRole, 'readProposed')}
       />
     </>
   );

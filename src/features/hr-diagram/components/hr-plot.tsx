@@ -1,4 +1,4 @@
-import { useEffect, useMemo, useRef, useState, type MouseEvent } from 'react';
+import { useEffect, useMemo, useRef, useState, type MouseEvent, type ReactNode } from 'react';
 import type { HrStar } from '@shared/schemas/hr';
 import { formatResult } from '@shared/physics/display';
 import { useTheme } from '@/lib/theme';
@@ -41,12 +41,18 @@ export function HrPlot({
   label,
   onOpen,
   onScene,
+  fixedHeight,
+  children,
 }: {
   stars: HrStar[];
   highlightTag: string | null;
   label: string;
   onOpen: (star: HrStar) => void;
   onScene?: (scene: Scene, palette: Palette, canvas: HTMLCanvasElement) => void;
+  /** A set height in CSS px (the target sheet's small diagram); otherwise the height follows the width. */
+  fixedHeight?: number;
+  /** Drawn over the canvas in the same CSS pixels (a marked star). */
+  children?: ReactNode;
 }) {
   const { theme } = useTheme();
   const box = useRef<HTMLDivElement>(null);
@@ -63,7 +69,7 @@ export function HrPlot({
     return () => observer.disconnect();
   }, []);
 
-  const height = Math.round(Math.min(680, Math.max(340, width * 0.68)));
+  const height = fixedHeight ?? Math.round(Math.min(680, Math.max(340, width * 0.68)));
   const palette = useMemo(() => (width > 0 ? readPalette(theme) : null), [theme, width]);
   const scene = useMemo(
     () => (palette && width > 0 ? buildScene(stars, { width, height }, palette, highlightTag) : null),
@@ -116,6 +122,7 @@ export function HrPlot({
           if (star) onOpen(star.star);
         }}
       />
+      {children}
       {hovered && values ? (
         <div
           role="tooltip"
