@@ -94,7 +94,12 @@ export interface Upload {
   errors: RowError[];
   mapping: ColumnMapping | null;
   headers: string[];
+  /** Targets the commit creates: new designations with at least one row free of errors. */
   newTargets: string[];
+  /** Rows of the file that name a target the project does not have and have errors. */
+  newTargetErrorRows: number;
+  /** Every row names a target the project already has (false when the file cannot say). */
+  everyRowKnownTarget: boolean;
   cautions: Caution[];
   duplicateOf: number | null;
   spectrum: SpectrumPreview | null;

@@ -337,3 +337,49 @@ describe('measurement uploads: bad input', () => {
     expect(res.body.upload.cautions[0].message).toMatch(/from the Sun.*solar filter/);
   });
 });
+
+describe('measurement uploads: the preview summary agrees with its rows', () => {
+  const summaryOf = (up: { newTargets: string[]; newTargetErrorRows: number; everyRowKnownTarget: boolean }) => ({
+    newTargets: up.newTargets,
+    newTargetErrorRows: up.newTargetErrorRows,
+    everyRowKnownTarget: up.everyRowKnownTarget,
+  });
+
+  it('does not say every row names a known target when the only row for a new target has an error', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const res = await upload(s, world, 'target,ra,dec,quantity,value,unit\nNew 5,05 14 32.3,-08 12 05,parallax,abc,mas\nT 1,,,parallax,12,mas\n');
+    expect(res.body.upload.errors.map((e: { row: number }) => e.row)).toEqual([2]);
+    expect(summaryOf(res.body.upload)).toEqual({ newTargets: [], newTargetErrorRows: 1, everyRowKnownTarget: false });
+  });
+
+  it('never lists a target among those to be created when it cannot be created', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    // No row gives New 6 a position, so every one of its rows fails, each saying why.
+    const res = await upload(s, world, 'target,quantity,value,unit\nNew 6,parallax,12,mas\nNew 6,distance,80,pc\nT 1,parallax,12,mas\n');
+    expect(res.body.upload.errors.filter((e: { column: string }) => e.column === 'ra').map((e: { row: number }) => e.row)).toEqual([2, 3]);
+    expect(summaryOf(res.body.upload)).toEqual({ newTargets: [], newTargetErrorRows: 2, everyRowKnownTarget: false });
+  });
+
+  it('lists a new target with one good row, and counts its failing row apart', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const res = await upload(
+      s,
+      world,
+      'target,ra,dec,quantity,value,unit\nNew 7,05 14 32.3,-08 12 05,parallax,12,mas\nNew 7,,,parallax,-3,parsec\nNew 8,,,distance,x,pc\n',
+    );
+    expect(summaryOf(res.body.upload)).toEqual({ newTargets: ['New 7'], newTargetErrorRows: 2, everyRowKnownTarget: false });
+  });
+
+  it('says every row names a known target only when it is so', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const known = await upload(s, world, 'target,quantity,value,unit\nT 1,parallax,12,mas\nt1,distance,80,pc\n');
+    expect(summaryOf(known.body.upload)).toEqual({ newTargets: [], newTargetErrorRows: 0, everyRowKnownTarget: true });
+    // A row that names no target at all is not a row for a known one.
+    const unnamed = await upload(s, world, 'target,quantity,value,unit\nT 1,parallax,12,mas\n,distance,80,pc\n');
+    expect(summaryOf(unnamed.body.upload)).toEqual({ newTargets: [], newTargetErrorRows: 0, everyRowKnownTarget: false });
+  });
+});

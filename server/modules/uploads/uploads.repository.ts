@@ -8,6 +8,8 @@ export interface PreviewSummary {
   headers: string[];
   measurementCount: number;
   newTargets: string[];
+  newTargetErrorRows: number;
+  everyRowKnownTarget: boolean;
   cautions: Caution[];
   duplicateOf: number | null;
   spectrum: SpectrumPreview | null;
@@ -74,6 +76,9 @@ function toUpload(r: UploadRow, preview: PreviewSummary | null): Upload {
     mapping: 'layout' in mapping ? (mapping as ColumnMapping) : null,
     headers: preview?.headers ?? [],
     newTargets: preview?.newTargets ?? [],
+    // Previews saved before these were counted said "every row is known" whenever no target was to be created.
+    newTargetErrorRows: preview?.newTargetErrorRows ?? 0,
+    everyRowKnownTarget: preview?.everyRowKnownTarget ?? (preview?.newTargets.length === 0 && r.error_count === 0),
     cautions: preview?.cautions ?? [],
     duplicateOf: preview?.duplicateOf ?? null,
     spectrum: preview?.spectrum ?? null,

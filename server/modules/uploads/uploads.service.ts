@@ -3,6 +3,7 @@ import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
 import { AppError, conflict, notFound, validationFailed } from '../../lib/errors';
 import { sunCaution } from '../../../shared/sun-proximity';
+import { designationKey } from '../../../shared/coordinates';
 import { readMeasurementRecords, suggestMapping, type ColumnMapping, type NormalisedRow, type RowError } from '../../../shared/schemas/measurement-file';
 import type { Caution, CreateUploadFields, Upload, UploadRowsPage } from '../../../shared/schemas/uploads';
 import { appendTrail, appendTrailMany } from '../trail/trail.repository';
@@ -47,23 +48,52 @@ async function projectTargets(db: Db, projectId: number): Promise<Map<string, Kn
 }
 
 /**
- * Matches rows to the project's targets, names the targets the commit will
- * create, and adds the errors and cautions that need the project's data.
+ * The designation each record of the file gives as sent ('' for none), or
+ * null when the mapping names no target column and no record can be placed.
  */
-function matchTargets(rows: NormalisedRow[], known: Map<string, KnownTarget>, errors: RowError[]): { newTargets: string[]; cautions: Caution[] } {
-  const fresh = new Map<string, { designation: string; firstRow: number; raDeg: number | null; decDeg: number | null }>();
+function recordTargets(headers: string[], records: string[][], mapping: ColumnMapping): { column: string; texts: string[] } | null {
+  const column = Object.entries(mapping.columns).find(([, r]) => r.role === 'field' && r.field === 'target')?.[0];
+  const index = column === undefined ? -1 : headers.indexOf(column);
+  if (column === undefined || index < 0) return null;
+  return { column, texts: records.map((record) => (record[index] ?? '').trim()) };
+}
+
+interface TargetSummary {
+  newTargets: string[];
+  newTargetErrorRows: number;
+  everyRowKnownTarget: boolean;
+  cautions: Caution[];
+}
+
+/**
+ * Matches rows to the project's targets, adds the errors and cautions that
+ * need the project's data, and sums up the targets from the same per-row
+ * errors the row table shows: a target is named as one the commit creates
+ * only when at least one of its rows is free of errors, and rows for new
+ * targets that have errors are counted apart.
+ */
+function matchTargets(
+  rows: NormalisedRow[],
+  known: Map<string, KnownTarget>,
+  errors: RowError[],
+  targets: { column: string; texts: string[] } | null,
+): TargetSummary {
+  const fresh = new Map<string, { designation: string; rows: Set<number>; raDeg: number | null; decDeg: number | null }>();
   for (const r of rows) {
     if (known.has(r.targetKey)) continue;
-    const entry = fresh.get(r.targetKey) ?? { designation: r.target, firstRow: r.row, raDeg: null, decDeg: null };
+    const entry = fresh.get(r.targetKey) ?? { designation: r.target, rows: new Set<number>(), raDeg: null, decDeg: null };
+    entry.rows.add(r.row);
     if (entry.raDeg === null && r.raDeg !== null) {
       entry.raDeg = r.raDeg;
       entry.decDeg = r.decDeg;
     }
     fresh.set(r.targetKey, entry);
   }
+  // Without a position the target cannot be created, so none of its rows can be imported; each says why.
   for (const f of fresh.values()) {
-    if (f.raDeg === null) {
-      errors.push({ row: f.firstRow, column: 'ra', message: `"${f.designation}" is not a target of this project yet; give its ra and dec on one of its rows to create it.` });
+    if (f.raDeg !== null) continue;
+    for (const row of f.rows) {
+      errors.push({ row, column: 'ra', message: `"${f.designation}" is not a target of this project yet; give its ra and dec on one of its rows to create it.` });
     }
   }
   const cautions: Caution[] = [];
@@ -80,7 +110,26 @@ function matchTargets(rows: NormalisedRow[], known: Map<string, KnownTarget>, er
     if (caution) cautions.push({ row: r.row, target: r.target, message: caution.message });
   }
   errors.sort((a, b) => a.row - b.row);
-  return { newTargets: [...fresh.values()].map((f) => f.designation), cautions };
+
+  const rowsWithErrors = new Set(errors.map((e) => e.row));
+  const created = new Set<string>();
+  let newTargetErrorRows = 0;
+  let everyRowKnownTarget = targets !== null && !rowsWithErrors.has(1);
+  targets?.texts.forEach((text, i) => {
+    const row = i + 2;
+    const unreadable = text === '' || errors.some((e) => e.row === row && e.column === targets.column);
+    if (unreadable) {
+      everyRowKnownTarget = false;
+      return;
+    }
+    const key = designationKey(text);
+    if (known.has(key)) return;
+    everyRowKnownTarget = false;
+    if (rowsWithErrors.has(row)) newTargetErrorRows += 1;
+    else created.add(key);
+  });
+  const newTargets = [...fresh.entries()].filter(([key, f]) => f.raDeg !== null && created.has(key)).map(([, f]) => f.designation);
+  return { newTargets, newTargetErrorRows, everyRowKnownTarget, cautions };
 }
 
 export function createUploadsService(db: Db, clock: Clock) {
@@ -111,6 +160,8 @@ export function createUploadsService(db: Db, clock: Clock) {
           headers: table.headers,
           rows: [],
           newTargets: [],
+          newTargetErrorRows: 0,
+          everyRowKnownTarget: false,
           cautions: caution ? [{ row: null, target: target.designation, message: caution.message }] : [],
           measurementCount: 0,
           duplicateOf,
@@ -122,12 +173,12 @@ export function createUploadsService(db: Db, clock: Clock) {
     const mapping =
       options.mapping ?? (await rememberedMapping(db, projectId, headerSignature(table.headers))) ?? suggestMapping(table.headers);
     const { rows, errors } = readMeasurementRecords(table.headers, table.records, mapping);
-    const { newTargets, cautions } = matchTargets(rows, await projectTargets(db, projectId), errors);
+    const targets = matchTargets(rows, await projectTargets(db, projectId), errors, recordTargets(table.headers, table.records, mapping));
     await savePreview(db, uploadId, {
       rowCount: table.records.length,
       errors,
       mapping,
-      preview: { headers: table.headers, rows, measurementCount: rows.length, newTargets, cautions, duplicateOf, spectrum: null },
+      preview: { headers: table.headers, rows, measurementCount: rows.length, ...targets, duplicateOf, spectrum: null },
     });
   }
 

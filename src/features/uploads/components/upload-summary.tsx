@@ -31,6 +31,38 @@ export function SunCautions({ upload }: { upload: Pick<Upload, 'cautions'> }) {
   );
 }
 
+/**
+ * What the file's rows say about targets, from the same per-row errors the
+ * row table shows: a row with errors never counts towards a target created.
+ */
+function NewTargets({ upload }: { upload: Upload }) {
+  const { newTargets, newTargetErrorRows, everyRowKnownTarget } = upload;
+  if (newTargets.length === 0 && newTargetErrorRows === 0) {
+    return (
+      <span className="text-ink-soft" data-testid="new-targets">
+        {everyRowKnownTarget ? 'None; every row names a target the project already has.' : 'None: no row free of errors names a new target.'}
+      </span>
+    );
+  }
+  return (
+    <span className="block space-y-1" data-testid="new-targets">
+      {newTargets.length > 0 ? (
+        <span className="block">
+          {upload.status === 'committed' ? 'Created: ' : 'Committing creates '}
+          {formatCount(newTargets.length, 'target')}: {newTargets.join(', ')}
+        </span>
+      ) : (
+        <span className="block">None: no row free of errors names a new target.</span>
+      )}
+      {newTargetErrorRows > 0 ? (
+        <span className="block font-semibold text-alert" data-testid="new-target-error-rows">
+          {formatCount(newTargetErrorRows, 'row')} for new targets {newTargetErrorRows === 1 ? 'has errors' : 'have errors'}; {newTargetErrorRows === 1 ? 'it creates' : 'they create'} nothing until fixed.
+        </span>
+      ) : null}
+    </span>
+  );
+}
+
 /** What the file is and what committing it would do: counts, new targets, and whether the same bytes came before. */
 export function UploadSummary({ projectId, upload }: { projectId: number; upload: Upload }) {
   const isSpectrum = upload.kind === 'spectrum';
@@ -78,14 +110,7 @@ export function UploadSummary({ projectId, upload }: { projectId: number; upload
       </DetailItem>
       {!isSpectrum ? (
         <DetailItem label="New targets">
-          {upload.newTargets.length === 0 ? (
-            <span className="text-ink-soft">None; every row names a target the project already has.</span>
-          ) : (
-            <span data-testid="new-targets">
-              {upload.status === 'committed' ? 'Created: ' : 'Committing creates '}
-              {formatCount(upload.newTargets.length, 'target')}: {upload.newTargets.join(', ')}
-            </span>
-          )}
+          <NewTargets upload={upload} />
         </DetailItem>
       ) : null}
       {upload.duplicateOf !== null ? (
