@@ -1,9 +1,10 @@
-import { useMemo, type ReactNode } from 'react';
-import { CartesianGrid, ComposedChart, Legend, Line, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
+import { CartesianGrid, ComposedChart, Line, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
 import { formatMeasured } from '@shared/physics/display';
 import { planckSpectralRadiance } from '@shared/physics/planck';
 import type { SpectrumPreview } from '@shared/schemas/uploads';
 import { DetailItem, DetailList } from '@/components/ui/detail-list';
+import { niceStep, niceTicks, tickRoom } from './nice-ticks';
 
 /** A Planck fit as the server sends it, for an upload's preview or a stored spectrum alike. */
 export type SpectrumFit = NonNullable<SpectrumPreview['fit']>;
@@ -11,7 +12,202 @@ export type SpectrumFit = NonNullable<SpectrumPreview['fit']>;
 /** More points than a chart this wide can show; beyond it every n-th point is drawn (the fit used them all). */
 const MOST_POINTS_DRAWN = 1500;
 
-const fluxTick = (v: number) => (v === 0 ? '0' : Math.abs(v) >= 1e4 || Math.abs(v) < 1e-2 ? v.toExponential(1).replace('-', '−') : v.toPrecision(3));
+/*
+ * The chart's look is the theme's own: the data as small dots in the soft ink,
+ * the fit as a brass line on a halo of paper drawn over them, the peak in the
+ * alert colour. Every colour is a theme token, so the night theme stays red
+ * and print takes the print tokens.
+ */
+const PALETTE = {
+  points: 'var(--sl-ink-soft)',
+  fit: 'var(--sl-brass)',
+  halo: 'var(--sl-paper)',
+  peak: 'var(--sl-alert)',
+  grid: 'var(--sl-rule)',
+  axis: 'var(--sl-ink-soft)',
+  text: 'var(--sl-ink)',
+  /** The points are drawn fainter than the fit: in the night theme every token is the same red, and brightness is what tells them apart. */
+  pointsOpacity: 0.55,
+} as const;
+
+const CHART_HEIGHT = 320;
+const MARGIN = { top: 12, right: 16, bottom: 30, left: 22 };
+const Y_AXIS_WIDTH = 52;
+/** Widest tick label in px at 12 px type ("1000", "−2.5"), for the room between ticks. */
+const X_LABEL_PX = 30;
+/** A tick label's height with the space it needs above and below, so the flux axis keeps about six ticks. */
+const Y_LABEL_PX = 24;
+
+const SUPERSCRIPT = '⁰¹²³⁴⁵⁶⁷⁸⁹';
+const superscript = (n: number) => `${n < 0 ? '⁻' : ''}${String(Math.abs(n)).split('').map((d) => SUPERSCRIPT[Number(d)]).join('')}`;
+const minus = (text: string) => text.replace('-', '−');
+
+type Point = { nm: number; flux: number; fit: number | undefined };
+
+/** The chart's width as laid out, so the number of ticks follows the room there is. */
+function useWidth() {
+  const box = useRef<HTMLDivElement>(null);
+  const [width, setWidth] = useState(0);
+  useEffect(() => {
+    const el = box.current;
+    if (!el) return;
+    const observer = new ResizeObserver((entries) => setWidth(Math.floor(entries[0].contentRect.width)));
+    observer.observe(el);
+    return () => observer.disconnect();
+  }, []);
+  return { box, width };
+}
+
+/**
+ * The flux axis: round ticks from zero (or the lowest point) to past the
+ * highest, and one power of ten taken out into the axis title when the
+ * numbers are very large or small, so a label never outgrows its room.
+ */
+function fluxAxis(data: readonly Point[], plotHeight: number) {
+  let low = 0;
+  let high = 0;
+  for (const d of data) {
+    low = Math.min(low, d.flux, d.fit ?? 0);
+    high = Math.max(high, d.flux, d.fit ?? 0);
+  }
+  if (!(high > low)) high = low + 1;
+  const biggest = Math.max(Math.abs(low), Math.abs(high));
+  const exponent = biggest >= 1e4 || biggest < 1e-2 ? Math.floor(Math.log10(biggest)) : 0;
+  const scale = Math.pow(10, exponent);
+  const room = tickRoom(plotHeight, Y_LABEL_PX);
+  const step = niceStep((high - low) / scale / room) * scale;
+  const lo = Math.floor(low / step) * step;
+  const hi = Math.ceil(high / step) * step;
+  const { ticks } = niceTicks(lo / scale, hi / scale, room + 1);
+  const decimals = Math.max(0, -Math.floor(Math.log10(step / scale) + 1e-9));
+  return {
+    domain: [lo, hi] as [number, number],
+    ticks: ticks.map((t) => t * scale),
+    format: (v: number) => minus((v / scale).toFixed(decimals)),
+    title: exponent === 0 ? 'Flux (as sent)' : `Flux (as sent, × 10${superscript(exponent)})`,
+  };
+}
+
+/** Our own legend: the chart's three marks, each with its swatch and words. */
+function SpectrumLegend({ pointCount, drawnCount, fitText, peakText }: { pointCount: number; drawnCount: number; fitText: string | null; peakText: string | null }) {
+  return (
+    <ul className="mb-2 flex flex-wrap gap-x-5 gap-y-1 text-xs text-ink" data-testid="spectrum-legend">
+      <li className="flex items-center gap-1.5">
+        <svg width="22" height="10" aria-hidden="true">
+          {[3, 8, 13, 18].map((x, i) => (
+            <circle key={x} cx={x} cy={i % 2 === 0 ? 6 : 4} r={1.8} fill={PALETTE.points} fillOpacity={PALETTE.pointsOpacity} />
+          ))}
+        </svg>
+        Spectrum as sent, {pointCount} points{drawnCount < pointCount ? ` (${drawnCount} drawn)` : ''}
+      </li>
+      {fitText ? (
+        <li className="flex items-center gap-1.5">
+          <svg width="22" height="10" aria-hidden="true">
+            <path d="M1 5h20" stroke={PALETTE.halo} strokeWidth={7} />
+            <path d="M1 5h20" stroke={PALETTE.fit} strokeWidth={3} />
+          </svg>
+          Planck fit, {fitText}
+        </li>
+      ) : null}
+      {peakText ? (
+        <li className="flex items-center gap-1.5">
+          <svg width="12" height="12" aria-hidden="true">
+            <path d="M6 0v12" stroke={PALETTE.peak} strokeWidth={1.5} strokeDasharray="3 2" />
+          </svg>
+          Continuum peak, {peakText}
+        </li>
+      ) : null}
+    </ul>
+  );
+}
+
+/** The plot itself, at the measured width, with ticks chosen for that width. */
+function SpectrumPlot({
+  data,
+  width,
+  first,
+  last,
+  peakNm,
+  peakText,
+  hasFit,
+}: {
+  data: Point[];
+  width: number;
+  first: number;
+  last: number;
+  peakNm: number | null;
+  peakText: string | null;
+  hasFit: boolean;
+}) {
+  const plotWidth = width - MARGIN.left - MARGIN.right - Y_AXIS_WIDTH;
+  const plotHeight = CHART_HEIGHT - MARGIN.top - MARGIN.bottom;
+  const xTicks = niceTicks(first, last, tickRoom(plotWidth, X_LABEL_PX)).ticks;
+  const y = fluxAxis(data, plotHeight);
+  const dense = data.length > 400;
+  return (
+    <ComposedChart width={width} height={CHART_HEIGHT} data={data} margin={MARGIN}>
+      <CartesianGrid stroke={PALETTE.grid} strokeDasharray="2 4" horizontalValues={y.ticks} verticalValues={xTicks} />
+      <XAxis
+        dataKey="nm"
+        type="number"
+        domain={[first, last]}
+        ticks={xTicks}
+        interval={0}
+        allowDataOverflow
+        tickFormatter={(v: number) => String(v)}
+        stroke={PALETTE.axis}
+        tick={{ fill: PALETTE.text, fontSize: 12 }}
+        label={{ value: 'Wavelength (nm)', position: 'insideBottom', offset: -18, fill: PALETTE.text, fontSize: 12 }}
+      />
+      <YAxis
+        type="number"
+        domain={y.domain}
+        ticks={y.ticks}
+        interval={0}
+        tickFormatter={y.format}
+        stroke={PALETTE.axis}
+        tick={{ fill: PALETTE.text, fontSize: 12 }}
+        width={Y_AXIS_WIDTH}
+        label={{ value: y.title, angle: -90, position: 'left', offset: 6, fill: PALETTE.text, fontSize: 12, style: { textAnchor: 'middle' } }}
+      />
+      <Tooltip
+        formatter={(value, name) => [typeof value === 'number' ? value.toPrecision(4) : String(value), name]}
+        labelFormatter={(label) => `${Number(label).toFixed(1)} nm`}
+        contentStyle={{ background: 'var(--sl-paper)', borderColor: 'var(--sl-rule)', color: 'var(--sl-ink)' }}
+      />
+      <Line
+        type="linear"
+        dataKey="flux"
+        name="Spectrum as sent"
+        stroke="none"
+        dot={{ r: dense ? 1.2 : 1.8, fill: PALETTE.points, fillOpacity: PALETTE.pointsOpacity, stroke: 'none' }}
+        activeDot={{ r: 3, fill: PALETTE.points, stroke: PALETTE.halo }}
+        isAnimationActive={false}
+      />
+      {hasFit ? (
+        <Line type="monotone" dataKey="fit" stroke={PALETTE.halo} strokeWidth={7} dot={false} activeDot={false} tooltipType="none" isAnimationActive={false} />
+      ) : null}
+      {hasFit ? (
+        <Line type="monotone" dataKey="fit" name="Planck fit" stroke={PALETTE.fit} strokeWidth={3} dot={false} isAnimationActive={false} />
+      ) : null}
+      {peakNm !== null ? (
+        <ReferenceLine
+          x={peakNm}
+          stroke={PALETTE.peak}
+          strokeWidth={1.5}
+          strokeDasharray="3 2"
+          // The label sits on the side of the line with more room, so it is never cut at the plot's edge.
+          label={{
+            value: `Peak ${peakText ?? ''}`,
+            position: peakNm - first < last - peakNm ? 'insideBottomLeft' : 'insideBottomRight',
+            fill: PALETTE.text,
+            fontSize: 12,
+          }}
+        />
+      ) : null}
+    </ComposedChart>
+  );
+}
 
 /** The server's method words as a sentence. */
 const sentence = (words: string) => `${words.charAt(0).toUpperCase()}${words.slice(1)}.`;
@@ -94,6 +290,7 @@ export function SpectrumChart({
         fit: fit ? planckSpectralRadiance(wavelengthM, fit.temperatureK) * scale : undefined,
       }));
   }, [points, fit]);
+  const { box, width } = useWidth();
 
   if (data.length === 0) return <p className="text-sm text-ink-soft italic">No points could be read from the file.</p>;
 
@@ -108,79 +305,24 @@ export function SpectrumChart({
 
   return (
     <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)] print:grid-cols-1">
-      <figure className="break-inside-avoid">
+      <figure className="min-w-0 break-inside-avoid">
+        <SpectrumLegend
+          pointCount={points.length}
+          drawnCount={data.length}
+          fitText={temperature ? temperature.text : null}
+          peakText={peakNm !== null ? (peak?.text ?? null) : null}
+        />
         {/* Paper has no pointer: a tooltip left open by the last hover would print as part of the figure. */}
         <div
+          ref={box}
           role="img"
           aria-label={description}
-          className="h-80 w-full print:[&_.recharts-tooltip-cursor]:hidden print:[&_.recharts-tooltip-wrapper]:hidden"
+          className="w-full print:[&_.recharts-tooltip-cursor]:hidden print:[&_.recharts-tooltip-wrapper]:hidden"
+          style={{ height: CHART_HEIGHT }}
           data-testid="spectrum-chart"
         >
-          <ResponsiveContainer width="100%" height="100%">
-            <ComposedChart data={data} margin={{ top: 16, right: 16, bottom: 24, left: 24 }}>
-              <CartesianGrid stroke="var(--sl-rule)" strokeDasharray="2 4" />
-              <XAxis
-                dataKey="nm"
-                type="number"
-                domain={['dataMin', 'dataMax']}
-                tickFormatter={(v: number) => v.toFixed(0)}
-                stroke="var(--sl-ink-soft)"
-                label={{ value: 'Wavelength (nm)', position: 'insideBottom', offset: -12, fill: 'var(--sl-ink)' }}
-              />
-              <YAxis
-                tickFormatter={fluxTick}
-                stroke="var(--sl-ink-soft)"
-                width={64}
-                label={{ value: 'Flux (as sent)', angle: -90, position: 'left', offset: 8, fill: 'var(--sl-ink)', style: { textAnchor: 'middle' } }}
-              />
-              <Tooltip
-                formatter={(value, name) => [typeof value === 'number' ? value.toPrecision(4) : String(value), name]}
-                labelFormatter={(label) => `${Number(label).toFixed(1)} nm`}
-                contentStyle={{ background: 'var(--sl-paper)', borderColor: 'var(--sl-rule)', color: 'var(--sl-ink)' }}
-              />
-              <Legend verticalAlign="top" height={28} />
-              <Line
-                type="linear"
-                dataKey="flux"
-                name="Spectrum as sent"
-                stroke="var(--sl-ink)"
-                strokeWidth={1.25}
-                dot={false}
-                isAnimationActive={false}
-              />
-              {fit ? (
-                <Line
-                  type="monotone"
-                  dataKey="fit"
-                  name={`Planck fit, ${temperature?.text}`}
-                  stroke="var(--sl-brass)"
-                  strokeWidth={2.5}
-                  strokeDasharray="8 4"
-                  dot={false}
-                  isAnimationActive={false}
-                />
-              ) : null}
-              {peakNm !== null ? (
-                <ReferenceLine
-                  x={peakNm}
-                  stroke="var(--sl-alert)"
-                  strokeDasharray="3 3"
-                  // The label sits on the side of the line with more room, so it is never cut at the plot's edge.
-                  label={{
-                    value: `Continuum peak ${peak?.text}`,
-                    position: peakNm - first < last - peakNm ? 'insideBottomLeft' : 'insideBottomRight',
-                    fill: 'var(--sl-ink)',
-                    fontSize: 12,
-                  }}
-                />
-              ) : null}
-            </ComposedChart>
-          </ResponsiveContainer>
+          {width > 0 ? <SpectrumPlot data={data} width={width} first={first} last={last} peakNm={peakNm} peakText={peak?.text ?? null} hasFit={fit !== null} /> : null}
         </div>
-        <figcaption className="mt-2 text-xs text-ink-soft">
-          Solid line: the spectrum as sent. Dashed line: the Planck curve of the fitted temperature, scaled by the fitted factor.
-          {peakNm !== null ? ' Dotted vertical line: the continuum peak.' : null}
-        </figcaption>
       </figure>
       <div className="break-inside-avoid">
         {fit ? <FitDetails fit={fit} pointCount={points.length} /> : null}
