@@ -6,21 +6,49 @@ import { cn } from '@/lib/cn';
  * under the column heads, figures right-aligned in tabular digits.
  */
 
-/** Whether the element's content is wider than the element, kept up to date as either resizes. */
+/**
+ * Whether the element's content is wider than the element, and whether more
+ * of it lies hidden before or after the part in view, kept up to date as
+ * either resizes or the box scrolls.
+ */
 function useOverflowsSideways() {
   const ref = useRef<HTMLDivElement>(null);
-  const [overflows, setOverflows] = useState(false);
+  const [state, setState] = useState({ overflows: false, moreBefore: false, moreAfter: false });
   useEffect(() => {
     const box = ref.current;
     if (!box) return;
-    const measure = () => setOverflows(box.scrollWidth > box.clientWidth + 1);
+    const measure = () => {
+      const overflows = box.scrollWidth > box.clientWidth + 1;
+      const moreBefore = overflows && box.scrollLeft > 1;
+      const moreAfter = overflows && box.scrollLeft + box.clientWidth < box.scrollWidth - 1;
+      setState((s) => (s.overflows === overflows && s.moreBefore === moreBefore && s.moreAfter === moreAfter ? s : { overflows, moreBefore, moreAfter }));
+    };
     measure();
     const observer = new ResizeObserver(measure);
     observer.observe(box);
     if (box.firstElementChild) observer.observe(box.firstElementChild);
-    return () => observer.disconnect();
+    box.addEventListener('scroll', measure, { passive: true });
+    return () => {
+      observer.disconnect();
+      box.removeEventListener('scroll', measure);
+    };
   }, []);
-  return { ref, overflows };
+  return { ref, ...state };
+}
+
+/** A shade at an edge of a scrolling box behind which more columns lie; drawn only, never read out. */
+function EdgeShade({ side }: { side: 'before' | 'after' }) {
+  return (
+    <div
+      aria-hidden="true"
+      data-print="hide"
+      data-edge-shade={side}
+      className={cn(
+        'pointer-events-none absolute inset-y-0 w-6 from-ink/25 to-transparent',
+        side === 'before' ? 'left-0 bg-linear-to-r' : 'right-0 bg-linear-to-l',
+      )}
+    />
+  );
 }
 
 /**
@@ -30,7 +58,7 @@ function useOverflowsSideways() {
  * that fits adds no tab stop.
  */
 export function LedgerTable({ className, ...props }: ComponentProps<'table'>) {
-  const { ref, overflows } = useOverflowsSideways();
+  const { ref, overflows, moreBefore, moreAfter } = useOverflowsSideways();
   const label = props['aria-label'];
   return (
     <div>
@@ -40,12 +68,16 @@ export function LedgerTable({ className, ...props }: ComponentProps<'table'>) {
           {label ? ` (focus the table “${label}” and use the arrow keys).` : null}
         </p>
       ) : null}
-      <div
-        ref={ref}
-        className="overflow-x-auto focus-visible:outline-2"
-        {...(overflows ? { tabIndex: 0, role: 'region', 'aria-label': label ? `${label}, scrolls sideways` : 'Table, scrolls sideways' } : {})}
-      >
-        <table className={cn('w-full border-collapse text-sm', className)} {...props} />
+      <div className="relative">
+        <div
+          ref={ref}
+          className="overflow-x-auto focus-visible:outline-2"
+          {...(overflows ? { tabIndex: 0, role: 'region', 'aria-label': label ? `${label}, scrolls sideways` : 'Table, scrolls sideways' } : {})}
+        >
+          <table className={cn('w-full border-collapse text-sm', className)} {...props} />
+        </div>
+        {moreBefore ? <EdgeShade side="before" /> : null}
+        {moreAfter ? <EdgeShade side="after" /> : null}
       </div>
     </div>
   );
