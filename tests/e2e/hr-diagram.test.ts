@@ -74,9 +74,10 @@ describe.skipIf(!chromiumAvailable)('HR diagram page', () => {
     const first = await openDiagram(page, baseUrl());
     expect(await page.getByLabel('Values', { exact: true }).count()).toBe(0);
     await page.getByText(/^Stars on the diagram/).click();
+    // The list is drawn when it opens: wait for it before counting.
+    await page.getByRole('link', { name: first.designation, exact: true }).waitFor();
     const links = page.locator('details table a');
     expect(await links.count()).toBe(first.count);
-    await page.getByRole('link', { name: first.designation, exact: true }).waitFor();
     const download = page.waitForEvent('download');
     await page.getByRole('button', { name: 'Save SVG' }).click();
     const file = await (await download).path();

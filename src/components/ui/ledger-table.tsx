@@ -71,7 +71,8 @@ export function LedgerTable({ className, ...props }: ComponentProps<'table'>) {
       <div className="relative">
         <div
           ref={ref}
-          className="overflow-x-auto focus-visible:outline-2"
+          // Positioned, so absolutely placed text inside cells (sr-only words) scrolls with the table instead of widening the page.
+          className="relative overflow-x-auto focus-visible:outline-2"
           {...(overflows ? { tabIndex: 0, role: 'region', 'aria-label': label ? `${label}, scrolls sideways` : 'Table, scrolls sideways' } : {})}
         >
           <table className={cn('w-full border-collapse text-sm', className)} {...props} />
