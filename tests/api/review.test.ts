@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import type { DerivedValue, QueueItem } from '../../shared/schemas/derived';
 import { hashPassword } from '../../server/lib/passwords';
 import { makeWorld, PASSWORD, signIn, type Session, type World } from '../support/world';
+import { commitFile, NIGHT, newestDerived } from '../support/night';
 
 /**
  * The lead's sign-off: statuses and revisions, approval of upstream values,
@@ -12,26 +13,8 @@ import { makeWorld, PASSWORD, signIn, type Session, type World } from '../suppor
 let world: World;
 afterEach(async () => world?.db.destroy());
 
-const NIGHT = [
-  'target,quantity,value,uncertainty,unit,band',
-  'T 1,magnitude,7.42,0.02,mag,V',
-  'T 1,colour_index,0.65,0.02,mag,B-V',
-  'T 1,parallax,41.2,0.4,mas,',
-  'T 1,peak_wavelength,502,5,nm,',
-].join('\n');
 
-async function commitFile(s: Session, w: World, content: string) {
-  const made = await s.agent.post(`/api/projects/${w.projectId}/uploads`).set('X-CSRF-Token', s.csrf).attach('file', Buffer.from(content), 'night.csv').expect(201);
-  await s.agent.post(`/api/projects/${w.projectId}/uploads/${made.body.upload.id}/commit`).set('X-CSRF-Token', s.csrf).send({ confirmDuplicate: true }).expect(200);
-}
 
-async function current(s: Session, w: World): Promise<Record<string, DerivedValue>> {
-  const res = await s.agent.get(`/api/projects/${w.projectId}/targets/${w.targetId}/derived`).expect(200);
-  const out: Record<string, DerivedValue> = {};
-  // Newest first within a quantity: keep the first seen.
-  for (const d of res.body.derived as DerivedValue[]) out[d.quantity] ??= d;
-  return out;
-}
 
 const review = (s: Session, w: World, body: object) => s.agent.post(`/api/projects/${w.projectId}/review`).set('X-CSRF-Token', s.csrf).send(body);
 const item = (d: DerivedValue) => ({ id: d.id, version: d.version });
@@ -45,7 +28,7 @@ describe('approving and rejecting derived values', () => {
     world = await makeWorld();
     const lead = await signIn(world.app, 'lead');
     await commitFile(lead, world, NIGHT);
-    const before = await current(lead, world);
+    const before = await newestDerived(lead, world);
     expect(before.luminosity.status).toBe('proposed');
     expect(before.luminosity.dependsOn).toEqual(expect.arrayContaining(['bolometric_flux', 'distance_parallax']));
 
@@ -68,7 +51,7 @@ describe('approving and rejecting derived values', () => {
 
     // A reader sees exactly the approved values.
     const reader = await signIn(world.app, 'reader');
-    const seen = await current(reader, world);
+    const seen = await newestDerived(reader, world);
     expect(Object.keys(seen).sort()).toEqual(decided);
 
     const approvals = (await trailActions(world)).filter((e) => e.action === 'value.approved');
@@ -80,7 +63,7 @@ describe('approving and rejecting derived values', () => {
     world = await makeWorld();
     const lead = await signIn(world.app, 'lead');
     await commitFile(lead, world, NIGHT);
-    const v = await current(lead, world);
+    const v = await newestDerived(lead, world);
 
     const noNote = await review(lead, world, { decision: 'reject', items: [item(v.temperature)] }).expect(400);
     expect(noNote.body.error.details).toEqual([expect.objectContaining({ path: 'note' })]);
@@ -89,7 +72,7 @@ describe('approving and rejecting derived values', () => {
     const refused = await review(lead, world, { decision: 'approve', items: [item(v.radius)] }).expect(409);
     expect(refused.body.error.code).toBe('upstream_not_approvable');
     expect(refused.body.error.message).toMatch(/temperature revision 1, which is rejected/);
-    expect((await current(lead, world)).radius.status).toBe('proposed');
+    expect((await newestDerived(lead, world)).radius.status).toBe('proposed');
 
     const history = await lead.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/derived?include=all`).expect(200);
     const temperature = (history.body.derived as DerivedValue[]).find((d) => d.quantity === 'temperature')!;
@@ -104,7 +87,7 @@ describe('approving and rejecting derived values', () => {
     world = await makeWorld();
     const lead = await signIn(world.app, 'lead');
     await commitFile(lead, world, NIGHT);
-    const first = await current(lead, world);
+    const first = await newestDerived(lead, world);
     await review(lead, world, { decision: 'approve', items: [item(first.distance_parallax)] }).expect(200);
 
     await commitFile(lead, world, 'target,quantity,value,uncertainty,unit\nT 1,parallax,40.8,0.3,mas\n');
@@ -116,13 +99,13 @@ describe('approving and rejecting derived values', () => {
     expect([second.revision, second.status, old.revision, old.status]).toEqual([2, 'proposed', 1, 'approved']);
 
     const reader = await signIn(world.app, 'reader');
-    expect((await current(reader, world)).distance_parallax.revision).toBe(1);
+    expect((await newestDerived(reader, world)).distance_parallax.revision).toBe(1);
 
     const res = await review(lead, world, { decision: 'approve', items: [item(second)] }).expect(200);
     expect(res.body.superseded).toEqual([old.id]);
     const [now, then] = await history();
     expect([now.status, then.status]).toEqual(['approved', 'superseded']);
-    expect((await current(reader, world)).distance_parallax.revision).toBe(2);
+    expect((await newestDerived(reader, world)).distance_parallax.revision).toBe(2);
   });
 });
 
@@ -131,7 +114,7 @@ describe('versions: a decision on a value that changed since it was seen', () =>
     world = await makeWorld();
     const lead = await signIn(world.app, 'lead');
     await commitFile(lead, world, NIGHT);
-    const seen = await current(lead, world);
+    const seen = await newestDerived(lead, world);
     // A new parallax arrives: distance_parallax revision 1 is superseded by revision 2.
     await commitFile(lead, world, 'target,quantity,value,uncertainty,unit\nT 1,parallax,40.8,0.3,mas\n');
 
@@ -142,7 +125,7 @@ describe('versions: a decision on a value that changed since it was seen', () =>
     ]);
     expect(res.body.error.message).toMatch(/revision 1 is now superseded; the newest is revision 2/);
     // All or nothing: the temperature, which had not changed, was not approved either.
-    expect((await current(lead, world)).temperature.status).toBe('proposed');
+    expect((await newestDerived(lead, world)).temperature.status).toBe('proposed');
 
     const wrongVersion = await review(lead, world, { decision: 'reject', note: 'x', items: [{ id: seen.temperature.id, version: 7 }] }).expect(409);
     expect(wrongVersion.body.error.code).toBe('stale_value');
@@ -157,7 +140,7 @@ describe('versions: a decision on a value that changed since it was seen', () =>
     const lead = await signIn(world.app, 'lead');
     const other = await signInAs(world, 'lead2@test.invalid');
     await commitFile(lead, world, NIGHT);
-    const v = await current(lead, world);
+    const v = await newestDerived(lead, world);
 
     // Values with no upstream, so each race is about exactly one row.
     for (const quantity of ['temperature_wien', 'temperature_colour', 'distance_parallax']) {
@@ -186,10 +169,10 @@ describe('re-running derivations', () => {
 
     // R_V feeds A_V = R_V E(B−V), hence the bolometric flux and all that rests on it; the colour temperature does not use it.
     await world.db('projects').where({ id: world.projectId }).update({ r_v: 3.6 });
-    const before = await current(observer, world);
+    const before = await newestDerived(observer, world);
     const rerun = await observer.agent.post(`/api/projects/${world.projectId}/rederive`).set('X-CSRF-Token', observer.csrf).send({}).expect(200);
     expect(rerun.body.proposed).toBeGreaterThan(0);
-    const after = await current(observer, world);
+    const after = await newestDerived(observer, world);
     expect(after.bolometric_flux.revision).toBe(before.bolometric_flux.revision + 1);
     expect(after.luminosity.revision).toBe(before.luminosity.revision + 1);
     expect(after.temperature_colour.revision).toBe(before.temperature_colour.revision);
@@ -232,7 +215,7 @@ describe('the review queue', () => {
     expect((withW.body.items as QueueItem[]).every((i) => i.proposed.warnings.length > 0)).toBe(true);
     expect((without.body.items as QueueItem[]).every((i) => i.proposed.warnings.length === 0)).toBe(true);
 
-    const v = await current(lead, world);
+    const v = await newestDerived(lead, world);
     await review(lead, world, { decision: 'approve', items: [item(v.distance_parallax)] }).expect(200);
     await commitFile(lead, world, 'target,quantity,value,uncertainty,unit\nT 1,parallax,40.8,0.3,mas\n');
     const replaced = await lead.agent.get(`/api/projects/${world.projectId}/review-queue?quantity=distance_parallax`).expect(200);

@@ -3,8 +3,8 @@ import { XMLParser, XMLValidator } from 'fast-xml-parser';
 import type { Response } from 'superagent';
 import { afterEach, describe, expect, it } from 'vitest';
 import { QUANTITY_IDS } from '../../shared/physics/quantities';
-import type { DerivedValue } from '../../shared/schemas/derived';
 import { makeWorld, signIn, type Session, type World } from '../support/world';
+import { commitFile, NIGHT, newestDerived } from '../support/night';
 
 /**
  * The project's values out, as CSV and as a VOTable 1.4 document. The
@@ -22,38 +22,20 @@ import { makeWorld, signIn, type Session, type World } from '../support/world';
 let world: World;
 afterEach(async () => world?.db.destroy());
 
-const NIGHT = [
-  'target,quantity,value,uncertainty,unit,band',
-  'T 1,magnitude,7.42,0.02,mag,V',
-  'T 1,colour_index,0.65,0.02,mag,B-V',
-  'T 1,parallax,41.2,0.4,mas,',
-  'T 1,peak_wavelength,502,5,nm,',
-].join('\n');
 
-async function commitFile(s: Session, w: World, content: string) {
-  const made = await s.agent.post(`/api/projects/${w.projectId}/uploads`).set('X-CSRF-Token', s.csrf).attach('file', Buffer.from(content), 'night.csv').expect(201);
-  await s.agent.post(`/api/projects/${w.projectId}/uploads/${made.body.upload.id}/commit`).set('X-CSRF-Token', s.csrf).send({ confirmDuplicate: true }).expect(200);
-}
 
-/** The newest revision of each quantity of the world's target, as the target sheet reads it. */
-async function newest(s: Session, w: World): Promise<Record<string, DerivedValue>> {
-  const res = await s.agent.get(`/api/projects/${w.projectId}/targets/${w.targetId}/derived`).expect(200);
-  const out: Record<string, DerivedValue> = {};
-  for (const d of res.body.derived as DerivedValue[]) out[d.quantity] ??= d;
-  return out;
-}
 
 /** Lead uploads a night and approves the luminosity (with what it rests on); the rest stays proposed. */
 async function nightWithSomeApproved(w: World) {
   const lead = await signIn(w.app, 'lead');
   await commitFile(lead, w, NIGHT);
-  const before = await newest(lead, w);
+  const before = await newestDerived(lead, w);
   await lead.agent
     .post(`/api/projects/${w.projectId}/review`)
     .set('X-CSRF-Token', lead.csrf)
     .send({ decision: 'approve', note: 'Checked.', items: [{ id: before.luminosity.id, version: before.luminosity.version }] })
     .expect(200);
-  return { lead, values: await newest(lead, w) };
+  return { lead, values: await newestDerived(lead, w) };
 }
 
 function asText(res: Response, done: (err: Error | null, body: string) => void) {

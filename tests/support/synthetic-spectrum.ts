@@ -6,6 +6,7 @@
  * The blackbody itself is computed here from Planck's law with the CODATA 2018
  * values of h, c and k_B typed in, for the same reason.
  */
+import { normalDeviates } from './reference-random';
 
 /** CODATA 2018 (exact by the 2019 SI): Planck constant, speed of light, Boltzmann constant. */
 const H = 6.62607015e-34;
@@ -17,23 +18,6 @@ export const WIEN_B = 2.897771955e-3;
 /** Planck's law B_λ(T) in W m⁻² m⁻¹ sr⁻¹ (CODATA 2018 h, c, k_B). */
 export function blackbody(wavelengthM: number, temperatureK: number): number {
   return (2 * H * C * C) / wavelengthM ** 5 / Math.expm1((H * C) / (wavelengthM * K_B * temperatureK));
-}
-
-/**
- * Standard normal deviates: mulberry32 uniforms (T. Ettinger, public domain,
- * 2017; from memory) through the Box–Muller transform (Box & Muller 1958,
- * Ann. Math. Stat. 29, 610), one deviate per pair for simplicity.
- */
-export function normalDeviates(seed: number): () => number {
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
 }
 
 export interface SyntheticOptions {

@@ -10,6 +10,7 @@ import { formatResult } from '@shared/physics/display';
 import { bolometricFluxFromVWm2 } from '@shared/physics/bolometric-correction';
 import { ballesterosTemperatureK } from '@shared/physics/colour-temperature';
 import { ASSUMED_CLASS_MODELS, mainSequenceLogLuminosity } from '@shared/physics/main-sequence';
+import { normalDeviates } from '../../support/reference-random';
 
 const NM = UNITS.nm.toSi;
 const MAS = UNITS.mas.toSi;
@@ -268,18 +269,6 @@ describe('derivation engine', () => {
  * two scatters by some 0.75 %, so 4 % is five of its σ, while the
  * independent-input propagation this replaces was off by 0.7–1.75×.
  */
-function referenceNormal(seed: number): () => number {
-  // mulberry32 (T. Ettinger, public domain) and Box–Muller (Ann. Math. Stat. 29, 610, 1958).
-  let a = seed >>> 0;
-  const uniform = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-  return () => Math.sqrt(-2 * Math.log(1 - uniform())) * Math.cos(2 * Math.PI * uniform());
-}
 
 /** 15.87th and 84.13th type-7 percentiles of the finite values, and half their distance. */
 function referenceInterval(values: number[]): { low: number; high: number; sigma: number } {
@@ -309,7 +298,7 @@ describe('correlated Monte Carlo through the whole graph (issue 8, defect 1)', (
     { id: 'plx', kind: 'parallax', valueSi: 10 * MAS, uncertaintySi: 0.2 * MAS },
   ];
   const graph = deriveAll(star, { monteCarloSamples: REFERENCE_DRAWS, seed: 8 });
-  const normal = referenceNormal(2024);
+  const normal = normalDeviates(2024);
   const draws = { luminosity: [] as number[], radius: [] as number[], distance_photometric: [] as number[], luminosity_class: [] as number[], temperature: [] as number[] };
   const scatter = ASSUMED_CLASS_MODELS.main_sequence.scatterDex;
   for (let s = 0; s < INDEPENDENT_DRAWS; s++) {
@@ -378,7 +367,7 @@ describe('each target its own reproducible Monte Carlo stream (issue 8, defect 2
 
   it('over many targets the assumed-class luminosity’s σ scatters about the independent Monte Carlo’s, not about one shared bias', () => {
     const t = { value: 5772, sigma: 23 };
-    const normal = referenceNormal(7);
+    const normal = normalDeviates(7);
     const values: number[] = [];
     for (let s = 0; s < 200_000; s++) values.push(L_SUN * 10 ** (mainSequenceLogLuminosity(t.value + t.sigma * normal()) + 0.15 * normal()));
     const reference = referenceInterval(values).sigma;
@@ -432,7 +421,7 @@ describe('one inverse-variance combination with the disagreement warning and the
 describe('the asymmetric 68 % interval where the draws are skewed (issue 8, defect 8)', () => {
   it('distance from p = 10 ± 5 mas: 100 pc with the draws’ interval 66 to 186 pc (−34/+86), as the independent Monte Carlo finds', () => {
     const { results } = deriveAll([{ id: 'p', kind: 'parallax', valueSi: 10 * MAS, uncertaintySi: 5 * MAS }], { monteCarloSamples: REFERENCE_DRAWS });
-    const normal = referenceNormal(99);
+    const normal = normalDeviates(99);
     const values: number[] = [];
     for (let s = 0; s < REFERENCE_DRAWS; s++) {
       const p = 10 + 5 * normal();

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { PhysicsError } from '@shared/physics/errors';
 import { findContinuumPeak, fitPlanck, runningMedian } from '@shared/physics/planck';
-import { normalDeviates, syntheticSpectrum, WIEN_B } from '../../support/synthetic-spectrum';
+import { normalDeviates } from '../../support/reference-random';
+import { syntheticSpectrum, WIEN_B } from '../../support/synthetic-spectrum';
 
 /** The error a call throws, for tests that read its code and words. */
 function thrown(f: () => unknown): PhysicsError {
