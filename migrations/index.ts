@@ -4,6 +4,7 @@ import * as measurements from './20261201010000_measurements';
 import * as uploadSummary from './20261201020000_upload_summary';
 import * as review from './20261202000000_review';
 import * as trailAppendOnly from './20261202010000_trail_append_only';
+import * as mailOutbox from './20261202020000_mail_outbox';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -17,6 +18,7 @@ const migrations: Record<string, Knex.Migration> = {
   '20261201020000_upload_summary': uploadSummary,
   '20261202000000_review': review,
   '20261202010000_trail_append_only': trailAppendOnly,
+  '20261202020000_mail_outbox': mailOutbox,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {
