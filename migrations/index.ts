@@ -5,6 +5,8 @@ import * as uploadSummary from './20261201020000_upload_summary';
 import * as review from './20261202000000_review';
 import * as trailAppendOnly from './20261202010000_trail_append_only';
 import * as mailOutbox from './20261202020000_mail_outbox';
+import * as derivedInterval from './20261202040000_derived_interval';
+import * as mailSummaryPreferences from './20261202030000_mail_summary_preferences';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -19,6 +21,8 @@ const migrations: Record<string, Knex.Migration> = {
   '20261202000000_review': review,
   '20261202010000_trail_append_only': trailAppendOnly,
   '20261202020000_mail_outbox': mailOutbox,
+  '20261202040000_derived_interval': derivedInterval,
+  '20261202030000_mail_summary_preferences': mailSummaryPreferences,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -6,12 +6,16 @@ export type DerivedStatus = (typeof derivedStatuses)[number];
 
 export const warningSchema = z.object({ code: z.string(), quantity: z.string(), message: z.string(), limit: z.string().optional() });
 
+export const intervalSchema = z.object({ low: z.number(), high: z.number() });
+
 export const derivedValueSchema = z.object({
   id: z.number(),
   targetId: z.number(),
   quantity: z.string(),
   value: z.number(),
   uncertainty: z.number(),
+  /** The 68 % interval (SI) where its arms differ, printed +a/−b; null where ±σ says it. */
+  interval: intervalSchema.nullable(),
   unit: z.string(),
   label: z.string().nullable(),
   method: z.string(),

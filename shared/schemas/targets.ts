@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { parseDeclination, parseRightAscension } from '../coordinates';
 import { paginationQuery } from './common';
 import { LUMINOSITY_CLASSES } from '../physics/main-sequence';
-import { derivedStatuses } from './derived';
+import { derivedStatuses, intervalSchema } from './derived';
 
 /** Luminosity class assumed for the spectroscopic-parallax route (luminosity_hr, distance_photometric). */
 export const assumedClass = z.enum(LUMINOSITY_CLASSES);
@@ -105,6 +105,7 @@ export const tableValueSchema = z.object({
   quantity: z.string(),
   value: z.number(),
   uncertainty: z.number(),
+  interval: intervalSchema.nullable(),
   unit: z.string(),
   label: z.string().nullable(),
   status: z.enum(derivedStatuses),

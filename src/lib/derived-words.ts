@@ -33,13 +33,14 @@ const displayable = (d: Pick<DerivedValue, 'quantity' | 'value' | 'uncertainty'>
 /**
  * The value in astronomers' units (one text per display unit), or the stored
  * SI figures when the quantity is not one the display knows. A non-detection
- * (an `upper_limit` warning) reads as its limit first: "< 0.46 km s⁻¹ (1σ), not detected (0.0 ± 0.5 km s⁻¹)".
+ * (an `upper_limit` warning) reads as its limit first; an asymmetric 68 %
+ * interval prints as +a/−b ("98 +86/−32 pc") in place of ±σ: "< 0.46 km s⁻¹ (1σ), not detected (0.0 ± 0.5 km s⁻¹)".
  */
 export function derivedValueTexts(
-  d: Pick<DerivedValue, 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label'> & { warnings?: DerivedValue['warnings'] },
+  d: Pick<DerivedValue, 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label'> & { warnings?: DerivedValue['warnings']; interval?: DerivedValue['interval'] },
 ): string[] {
   if (!displayable(d)) return [`${d.value} ± ${d.uncertainty} ${d.unit}`];
-  const line = formatResult({ quantity: d.quantity, value: d.value, uncertainty: d.uncertainty, label: d.label ?? undefined });
+  const line = formatResult({ quantity: d.quantity, value: d.value, uncertainty: d.uncertainty, label: d.label ?? undefined, interval: d.interval ?? undefined });
   const texts = line.values.map((v) => v.text);
   const upperLimit = d.warnings?.find((w) => w.code === 'upper_limit' && w.limit)?.limit;
   if (upperLimit) return texts.map((t) => `${upperLimit}, not detected (${t})`);

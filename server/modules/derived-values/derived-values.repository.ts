@@ -13,6 +13,9 @@ export interface DerivedRow {
   quantity: string;
   value: number;
   uncertainty: number;
+  /** The 68 % interval's ends (SI) where it is asymmetric; both null otherwise. */
+  interval_low: number | null;
+  interval_high: number | null;
   unit: string;
   label: string | null;
   method: string;
@@ -37,6 +40,11 @@ export interface NamedDerivedRow extends DerivedRow {
   reviewer_name: string | null;
 }
 
+/** The stored interval, or null where the value's interval is symmetric. */
+export function intervalOf(r: Pick<DerivedRow, 'interval_low' | 'interval_high'>): { low: number; high: number } | null {
+  return r.interval_low !== null && r.interval_high !== null && r.interval_low !== undefined && r.interval_high !== undefined ? { low: r.interval_low, high: r.interval_high } : null;
+}
+
 export function toDerivedValue(r: NamedDerivedRow): DerivedValue {
   return {
     id: r.id,
@@ -44,6 +52,7 @@ export function toDerivedValue(r: NamedDerivedRow): DerivedValue {
     quantity: r.quantity,
     value: r.value,
     uncertainty: r.uncertainty,
+    interval: intervalOf(r),
     unit: r.unit,
     label: r.label,
     method: r.method,

@@ -51,6 +51,8 @@ function sameAs(row: DerivedRow, r: DerivedResult): boolean {
   return (
     row.value === r.value &&
     row.uncertainty === r.uncertainty &&
+    row.interval_low === (r.interval?.low ?? null) &&
+    row.interval_high === (r.interval?.high ?? null) &&
     row.label === (r.label ?? null) &&
     row.method === r.method.id &&
     row.inputs_json === JSON.stringify(r.inputs) &&
@@ -96,6 +98,8 @@ export async function rederiveTargets(trx: Db, projectId: number, targetIds: num
         quantity: result.quantity,
         value: result.value,
         uncertainty: result.uncertainty,
+        interval_low: result.interval?.low ?? null,
+        interval_high: result.interval?.high ?? null,
         unit: result.unit,
         label: result.label ?? null,
         method: result.method.id,

@@ -5,7 +5,7 @@ import type { DerivedStatus } from '../../../shared/schemas/derived';
 import { tableQuantities, tableQuantitySources, type ListTargetsQuery, type TableQuantity, type TableValue, type Target, type TargetRow } from '../../../shared/schemas/targets';
 import type { Page } from '../../../shared/schemas/common';
 import { parseJson, toIso } from '../../lib/rows';
-import type { DerivedRow } from '../derived-values/derived-values.repository';
+import { intervalOf, type DerivedRow } from '../derived-values/derived-values.repository';
 
 export interface TargetRecord {
   id: number;
@@ -77,14 +77,14 @@ function shownRevisions(db: Db, projectId: number, quantity: string, statuses: r
     });
 }
 
-type ShownRow = Pick<DerivedRow, 'target_id' | 'quantity' | 'value' | 'uncertainty' | 'unit' | 'label' | 'status'>;
+type ShownRow = Pick<DerivedRow, 'target_id' | 'quantity' | 'value' | 'uncertainty' | 'interval_low' | 'interval_high' | 'unit' | 'label' | 'status'>;
 
 /** The table's values of the given targets, each column from the first of its sources that has a shown revision. */
 async function tableValuesOf(db: Db, targetIds: number[], statuses: readonly DerivedStatus[]): Promise<Map<number, TargetRow['values']>> {
   const stored = [...new Set(Object.values(tableQuantitySources).flat())];
   const rows: ShownRow[] = targetIds.length
     ? await db('derived_values')
-        .select('target_id', 'quantity', 'value', 'uncertainty', 'unit', 'label', 'status')
+        .select('target_id', 'quantity', 'value', 'uncertainty', 'interval_low', 'interval_high', 'unit', 'label', 'status')
         .whereIn('target_id', targetIds)
         .whereIn('quantity', stored)
         .whereIn('status', [...statuses])
@@ -102,6 +102,7 @@ async function tableValuesOf(db: Db, targetIds: number[], statuses: readonly Der
           quantity: found.quantity,
           value: found.value,
           uncertainty: found.uncertainty,
+          interval: intervalOf(found),
           unit: found.unit,
           label: found.label,
           status: found.status,
