@@ -6,6 +6,7 @@ import { rateLimit } from 'express-rate-limit';
 import type { Db } from './db/knex';
 import { systemClock, type Clock } from './lib/clock';
 import type { Mailer } from './mail/mailer';
+import type { MailInbox } from './mail/fake-smtp';
 import { createPassport, passportMiddleware } from './middleware/auth';
 import { csrfProtection } from './middleware/csrf';
 import { bearerAuth } from './middleware/bearer';
@@ -24,13 +25,17 @@ export interface AppOptions {
   /** Built client to serve (dist/); omitted in API tests. */
   clientDir?: string;
   loginAttemptsPerWindow?: number;
+  /** The address people open Starledger at, for links in mail (PUBLIC_URL). */
+  publicUrl?: string;
+  /** The local mail fake's inbox, shown to the site admin; absent when mail goes to a real SMTP server. */
+  mailInbox?: MailInbox;
   sessionCleanupIntervalMs?: number;
 }
 
 export function createApp(options: AppOptions): Express {
   const { db } = options;
   const clock = options.clock ?? systemClock;
-  const services = createServices(db, clock);
+  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox });
   const passport = createPassport(services.users);
 
   const app = express();

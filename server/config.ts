@@ -8,6 +8,10 @@ export const config = {
   host: process.env.HOST ?? '127.0.0.1',
   databaseUrl: process.env.DATABASE_URL,
   smtpUrl: process.env.SMTP_URL,
+  /** Where people open Starledger, for the links in mail; behind a proxy, the proxy's address. */
+  publicUrl: (process.env.PUBLIC_URL ?? process.env.APP_URL ?? `http://localhost:${Number(process.env.PORT ?? 3000)}`).replace(/\/+$/, ''),
+  /** The outbox worker and the summary scheduler; MAIL_WORKER=false leaves them to another process on the same database. */
+  mailWorker: process.env.MAIL_WORKER !== 'false',
   mailFrom: process.env.MAIL_FROM ?? 'Starledger <starledger@localhost>',
   secureCookies: process.env.COOKIE_SECURE === 'true',
   seedDemo: process.env.SEED_DEMO !== 'false',

@@ -2,8 +2,12 @@ import path from 'node:path';
 import { createApp } from './app';
 import { config, sessionSecret } from './config';
 import { createDb, migrateLatest } from './db/knex';
+import { systemClock } from './lib/clock';
 import { createSmtpMailer } from './mail/mailer';
 import { startFakeSmtp } from './mail/fake-smtp';
+import { createOutboxWorker } from './mail/outbox-worker';
+import { createSummaryService } from './modules/summary/summary.service';
+import { createSummaryScheduler } from './modules/summary/summary-scheduler';
 import { seedDemoIfEmpty } from './db/demo';
 
 async function main() {
@@ -15,23 +19,42 @@ async function main() {
   const fake = smtpUrl ? undefined : await startFakeSmtp({ folder: path.join(config.dataDir, 'mail') });
   if (fake) {
     smtpUrl = fake.url;
-    console.log(`Local mail fake on ${fake.url}; messages are kept in ${path.join(config.dataDir, 'mail')}.`);
+    console.log(`Local mail fake on ${fake.url}; messages are kept in ${path.join(config.dataDir, 'mail')} and shown to the site admin at /admin/mail.`);
   }
   const mailer = createSmtpMailer(smtpUrl!, config.mailFrom);
+  const worker = config.mailWorker ? createOutboxWorker({ db, mailer }) : undefined;
+  const scheduler = config.mailWorker ? createSummaryScheduler(createSummaryService(db, systemClock, { publicUrl: config.publicUrl })) : undefined;
 
-  const app = createApp({ db, mailer, sessionSecret: sessionSecret(), secureCookies: config.secureCookies, clientDir: config.clientDir });
+  const app = createApp({
+    db,
+    mailer,
+    sessionSecret: sessionSecret(),
+    secureCookies: config.secureCookies,
+    clientDir: config.clientDir,
+    publicUrl: config.publicUrl,
+    mailInbox: fake?.inbox,
+  });
   const server = app.listen(config.port, config.host, () => {
     console.log(`Starledger is running: sign in at http://localhost:${config.port}/sign-in`);
+    worker?.start();
+    scheduler?.start();
   });
 
+  let closing = false;
   const shutdown = (signal: string) => {
+    if (closing) return;
+    closing = true;
     console.log(`${signal}: closing.`);
+    setTimeout(() => process.exit(1), 10_000).unref();
     server.close(async () => {
+      // The scheduler and worker finish the round under way first, so no claimed message is left half-sent.
+      await scheduler?.stop();
+      await worker?.stop();
       await fake?.close();
       await db.destroy();
       process.exit(0);
     });
-    setTimeout(() => process.exit(1), 10_000).unref();
+    server.closeIdleConnections();
   };
   process.on('SIGINT', () => shutdown('SIGINT'));
   process.on('SIGTERM', () => shutdown('SIGTERM'));

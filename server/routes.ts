@@ -25,6 +25,10 @@ import { measurementsHandlers } from './modules/measurements/measurements.routes
 import { uploadFile } from './middleware/upload-file';
 import { activityQuery, exportTrailQuery, listTrailQuery } from '../shared/schemas/trail';
 import { trailHandlers } from './modules/trail/trail.routes';
+import { updateMailPreferenceBody, updateSummaryScheduleBody } from '../shared/schemas/mail';
+import { summaryHandlers } from './modules/summary/summary.routes';
+import { mailPreferencesHandlers } from './modules/mail-preferences/mail-preferences.routes';
+import { caughtMailParams, mailFakeHandlers } from './modules/mail-fake/mail-fake.routes';
 
 type Method = 'get' | 'post' | 'patch' | 'delete';
 
@@ -58,6 +62,9 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
   const derived = derivedValuesHandlers(services.derivedValues);
   const measurements = measurementsHandlers(services.measurements);
   const trail = trailHandlers(services.trail);
+  const summary = summaryHandlers(services.summary);
+  const mailPreferences = mailPreferencesHandlers(services.mailPreferences);
+  const mailFake = mailFakeHandlers(services.mailFake);
   const P = '/projects/:projectId';
 
   return [
@@ -70,6 +77,13 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'get', path: '/tokens', access: signedIn, handler: tokens.list },
     { method: 'post', path: '/tokens', access: signedIn, body: createTokenBody, handler: tokens.create },
     { method: 'delete', path: '/tokens/:tokenId', access: signedIn, params: tokenParams, handler: tokens.revoke },
+
+    // Mail preferences (each person's own, per project they belong to)
+    { method: 'get', path: '/mail-preferences', access: signedIn, handler: mailPreferences.list },
+
+    // The local mail fake's inbox (site admin; 404 when real SMTP is configured)
+    { method: 'get', path: '/admin/mail', access: siteAdmin, handler: mailFake.list },
+    { method: 'get', path: '/admin/mail/:messageId', access: siteAdmin, params: caughtMailParams, handler: mailFake.get },
 
     // Accounts (site admin)
     { method: 'get', path: '/users', access: siteAdmin, handler: users.list },
@@ -116,6 +130,13 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'post', path: `${P}/uploads/:uploadId/mapping`, access: inProject('upload'), params: uploadParams, body: remapBody, handler: uploads.remap },
     { method: 'post', path: `${P}/uploads/:uploadId/commit`, access: inProject('upload'), params: uploadParams, body: commitBody, handler: uploads.commit },
     { method: 'post', path: `${P}/uploads/:uploadId/discard`, access: inProject('upload'), params: uploadParams, handler: uploads.discard },
+
+    // Weekly summary (PI and lead) and each member's mail preferences for the project
+    { method: 'get', path: `${P}/summary`, access: inProject('manageSummary'), params: projectParams, handler: summary.settings },
+    { method: 'patch', path: `${P}/summary`, access: inProject('manageSummary'), params: projectParams, body: updateSummaryScheduleBody, handler: summary.updateSchedule },
+    { method: 'get', path: `${P}/summary/preview`, access: inProject('manageSummary'), params: projectParams, handler: summary.preview },
+    { method: 'post', path: `${P}/summary/send`, access: inProject('manageSummary'), params: projectParams, handler: summary.sendNow },
+    { method: 'patch', path: `${P}/mail-preferences`, access: inProject('read'), params: projectParams, body: updateMailPreferenceBody, handler: mailPreferences.update },
 
     // Review trail (readers are not shown it: it carries values the lead has not approved)
     { method: 'get', path: '/activity', access: signedIn, query: activityQuery, handler: trail.activity },

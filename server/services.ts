@@ -9,9 +9,23 @@ import { createUploadsService } from './modules/uploads/uploads.service';
 import { createDerivedValuesService } from './modules/derived-values/derived-values.service';
 import { createMeasurementsService } from './modules/measurements/measurements.service';
 import { createTrailService } from './modules/trail/trail.service';
+import { createSummaryService } from './modules/summary/summary.service';
+import { createMailPreferencesService } from './modules/mail-preferences/mail-preferences.service';
+import { createMailFakeService } from './modules/mail-fake/mail-fake.service';
+import type { MailInbox } from './mail/fake-smtp';
+
+export interface ServiceOptions {
+  /** The address people open Starledger at, for links in mail. */
+  publicUrl?: string;
+  /** What the local mail fake caught, when it is the one receiving mail. */
+  mailInbox?: MailInbox;
+}
+
+export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
 
 /** Services are built once per app, with the app's database and clock. */
-export function createServices(db: Db, clock: Clock) {
+export function createServices(db: Db, clock: Clock, options: ServiceOptions = {}) {
+  const publicUrl = options.publicUrl ?? DEFAULT_PUBLIC_URL;
   return {
     users: createUsersService(db, clock),
     projects: createProjectsService(db, clock),
@@ -19,9 +33,12 @@ export function createServices(db: Db, clock: Clock) {
     targets: createTargetsService(db, clock),
     tokens: createTokensService(db, clock),
     uploads: createUploadsService(db, clock),
-    derivedValues: createDerivedValuesService(db, clock),
+    derivedValues: createDerivedValuesService(db, clock, { publicUrl }),
     measurements: createMeasurementsService(db),
     trail: createTrailService(db),
+    summary: createSummaryService(db, clock, { publicUrl }),
+    mailPreferences: createMailPreferencesService(db, clock),
+    mailFake: createMailFakeService(options.mailInbox),
   };
 }
 

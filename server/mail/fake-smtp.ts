@@ -5,19 +5,43 @@ import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
 
 export interface CaughtMessage {
+  id: number;
+  from: string;
   to: string[];
   subject: string;
   text: string;
+  /** The HTML part as sent, or null for a text-only message. */
+  html: string | null;
   receivedAt: string;
+}
+
+/** What the local mail fake caught, newest last; read by the site admin's mail page and by tests. */
+export interface MailInbox {
+  messages(): CaughtMessage[];
+  find(id: number): CaughtMessage | undefined;
+  add(message: Omit<CaughtMessage, 'id'>): CaughtMessage;
+}
+
+export function createMailInbox(): MailInbox {
+  const caught: CaughtMessage[] = [];
+  return {
+    messages: () => [...caught],
+    find: (id) => caught.find((m) => m.id === id),
+    add(message) {
+      const stored = { id: caught.length + 1, ...message };
+      caught.push(stored);
+      return stored;
+    },
+  };
 }
 
 /**
  * A local SMTP server that accepts every message on loopback, keeps it in
- * memory and, when given a folder, writes it there as an .eml file, so
+ * the inbox and, when given a folder, writes it there as an .eml file, so
  * development, the demo and tests never send real mail.
  */
-export async function startFakeSmtp(options: { port?: number; folder?: string } = {}) {
-  const inbox: CaughtMessage[] = [];
+export async function startFakeSmtp(options: { port?: number; folder?: string; inbox?: MailInbox } = {}) {
+  const inbox = options.inbox ?? createMailInbox();
   if (options.folder) fs.mkdirSync(options.folder, { recursive: true });
   const server = new SMTPServer({
     authOptional: true,
@@ -32,15 +56,25 @@ export async function startFakeSmtp(options: { port?: number; folder?: string } 
           .then((mail) => {
             const to = [mail.to].flat().flatMap((a) => (a ? a.value.map((v) => v.address ?? '') : []));
             const receivedAt = new Date().toISOString();
-            inbox.push({ to, subject: mail.subject ?? '', text: mail.text ?? '', receivedAt });
-            if (options.folder) fs.writeFileSync(path.join(options.folder, `${receivedAt.replace(/[:.]/g, '-')}.eml`), raw);
+            const stored = inbox.add({
+              from: mail.from?.text ?? '',
+              to,
+              subject: mail.subject ?? '',
+              text: mail.text ?? '',
+              html: typeof mail.html === 'string' ? mail.html : null,
+              receivedAt,
+            });
+            if (options.folder) fs.writeFileSync(path.join(options.folder, `${receivedAt.replace(/[:.]/g, '-')}-${stored.id}.eml`), raw);
             callback();
           })
           .catch((err: Error) => callback(err));
       });
     },
   });
-  await new Promise<void>((resolve) => server.listen(options.port ?? 0, '127.0.0.1', resolve));
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(options.port ?? 0, '127.0.0.1', () => resolve());
+  });
   const { port } = server.server.address() as AddressInfo;
   return {
     port,
@@ -49,3 +83,5 @@ export async function startFakeSmtp(options: { port?: number; folder?: string } 
     close: () => new Promise<void>((resolve) => server.close(() => resolve())),
   };
 }
+
+export type FakeSmtp = Awaited<ReturnType<typeof startFakeSmtp>>;

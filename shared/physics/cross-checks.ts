@@ -128,3 +128,14 @@ export function crossChecks(values: readonly CheckedValue[]): CrossCheck[] {
   }
   return checks;
 }
+
+/** The newest standing (approved or proposed) revision of each quantity, the one the sheet shows first and the cross-checks read. */
+export function newestStanding<T extends { readonly quantity: string; readonly revision: number; readonly status: string }>(revisions: readonly T[]): T[] {
+  const best = new Map<string, T>();
+  for (const r of revisions) {
+    if (r.status !== 'approved' && r.status !== 'proposed') continue;
+    const held = best.get(r.quantity);
+    if (!held || r.revision > held.revision) best.set(r.quantity, r);
+  }
+  return [...best.values()];
+}

@@ -21,6 +21,7 @@ const everyone = ['lead', 'observer', 'reader', 'pi'] as const;
 const editors = ['lead', 'observer'] as const;
 const leads = ['lead'] as const;
 const trailReaders = ['lead', 'observer', 'pi'] as const;
+const summaryKeepers = ['lead', 'pi'] as const;
 
 interface Case {
   rule: Rule;
@@ -38,6 +39,9 @@ const cases: Record<string, Case> = {
   'GET /tokens': { rule: 'signed-in' },
   'POST /tokens': { rule: 'signed-in', body: () => ({ name: 'night pipeline' }) },
   'DELETE /tokens/:tokenId': { rule: 'signed-in' },
+  'GET /mail-preferences': { rule: 'signed-in' },
+  'GET /admin/mail': { rule: 'site-admin' },
+  'GET /admin/mail/:messageId': { rule: 'site-admin' },
   'GET /users': { rule: 'site-admin' },
   'POST /users': { rule: 'site-admin', body: () => ({ email: 'new@test.invalid', name: 'New Person', password: 'long-enough-password' }) },
   'GET /projects': { rule: 'signed-in' },
@@ -77,6 +81,11 @@ const cases: Record<string, Case> = {
   },
   'POST /projects/:projectId/uploads/:uploadId/commit': { rule: editors, body: () => ({}) },
   'POST /projects/:projectId/uploads/:uploadId/discard': { rule: editors },
+  'GET /projects/:projectId/summary': { rule: summaryKeepers },
+  'PATCH /projects/:projectId/summary': { rule: summaryKeepers, body: () => ({ enabled: true, weekday: 5, time: '07:30' }) },
+  'GET /projects/:projectId/summary/preview': { rule: summaryKeepers },
+  'POST /projects/:projectId/summary/send': { rule: summaryKeepers },
+  'PATCH /projects/:projectId/mail-preferences': { rule: everyone, body: () => ({ weeklySummary: true }) },
   'GET /activity': { rule: 'signed-in' },
   'GET /projects/:projectId/trail': { rule: trailReaders, query: '?page=1&pageSize=10' },
   'GET /projects/:projectId/trail/export': { rule: trailReaders, query: '?format=csv' },
@@ -158,6 +167,10 @@ describe('access to every API route', () => {
           const made = await session.agent.post('/api/tokens').set('X-CSRF-Token', session.csrf).send({ name: 'to revoke' }).expect(201);
           tokenId = String(made.body.apiToken.id);
         }
+        let messageId = '1';
+        if (pattern.includes(':messageId')) {
+          messageId = String(world.mailInbox.add({ from: 'starledger@localhost', to: [emails.pi], subject: 'Caught', text: 'Caught.', html: null, receivedAt: '2026-12-01T03:00:00.000Z' }).id);
+        }
         const path =
           '/api' +
           pattern
@@ -165,7 +178,8 @@ describe('access to every API route', () => {
             .replace(':targetId', String(world.targetId))
             .replace(':userId', String(world.userIds.observer))
             .replace(':tokenId', tokenId)
-            .replace(':uploadId', uploadId) +
+            .replace(':uploadId', uploadId)
+            .replace(':messageId', messageId) +
           (c.query ?? '');
         const agent = session?.agent ?? request(world.app);
         let req = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](path);

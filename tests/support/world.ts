@@ -4,6 +4,7 @@ import { createApp } from '../../server/app';
 import { createDb, migrateLatest, type Db } from '../../server/db/knex';
 import { fixedClock } from '../../server/lib/clock';
 import { hashPassword } from '../../server/lib/passwords';
+import { createMailInbox, type MailInbox } from '../../server/mail/fake-smtp';
 
 export const PASSWORD = 'correct-horse-battery';
 // One hash for every test account: hashing is deliberately slow.
@@ -26,6 +27,8 @@ export interface World {
   otherProjectId: number;
   targetId: number;
   userIds: Record<Who, number>;
+  /** The mail fake's inbox the site admin's mail page reads (tests add to it directly). */
+  mailInbox: MailInbox;
 }
 
 /**
@@ -55,14 +58,16 @@ export async function makeWorld(options: { loginAttemptsPerWindow?: number } = {
   const [t] = await db('targets')
     .insert({ project_id: p1.id, designation: 'T 1', designation_key: 't1', ra_deg: 10, dec_deg: -5, notes: '', tags: '[]', created_at: at, updated_at: at })
     .returning('id');
+  const mailInbox = createMailInbox();
   const app = createApp({
     db,
     clock: fixedClock('2026-12-01T03:00:00.000Z'),
     sessionSecret: 'test-secret',
     sessionCleanupIntervalMs: 0,
     loginAttemptsPerWindow: options.loginAttemptsPerWindow,
+    mailInbox,
   });
-  return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds };
+  return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds, mailInbox };
 }
 
 export interface Session {

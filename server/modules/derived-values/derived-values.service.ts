@@ -24,6 +24,7 @@ import { csvChunks, votableChunks } from './values-export';
 import { engineInputsFor } from '../measurements/measurements.repository';
 import { findTarget } from '../targets/targets.repository';
 import { appendTrail, appendTrailMany, type TrailEntry } from '../trail/trail.repository';
+import { enqueueReviewNotices } from '../mail-preferences/review-notice';
 import {
   approvedRevisions,
   decide,
@@ -173,9 +174,40 @@ function upstreamOf(row: DerivedRow, latest: Map<string, DerivedRow>): { propose
   return { proposed: [...proposed.values()], problem: null };
 }
 
-export function createDerivedValuesService(db: Db, clock: Clock) {
+export function createDerivedValuesService(db: Db, clock: Clock, options: { publicUrl?: string } = {}) {
   async function requireTarget(projectId: number, targetId: number) {
     if (!(await findTarget(db, projectId, targetId))) throw notFound('No such target in this project.');
+  }
+
+  /** Mails the people who proposed the decided values and asked to hear of it, in the review's transaction. */
+  async function notifyProposers(trx: Db, projectId: number, reviewerUserId: number, decision: 'approved' | 'rejected', note: string, decided: NamedDerivedRow[], at: Date) {
+    if (!decided.some((r) => r.proposed_by_user_id !== null && r.proposed_by_user_id !== reviewerUserId)) return;
+    const project = await trx('projects').where({ id: projectId }).first('name');
+    const reviewer = await trx('users').where({ id: reviewerUserId }).first('name');
+    const designations = new Map<number, string>(
+      (await trx('targets').whereIn('id', [...new Set(decided.map((r) => r.target_id))]).select('id', 'designation')).map((t: { id: number; designation: string }) => [t.id, t.designation]),
+    );
+    await enqueueReviewNotices(trx, {
+      projectId,
+      projectName: project?.name ?? '',
+      reviewerUserId,
+      reviewerName: reviewer?.name ?? 'The lead astronomer',
+      decision,
+      note,
+      at,
+      publicUrl: options.publicUrl ?? 'http://localhost:3000',
+      values: decided.map((r) => ({
+        id: r.id,
+        version: r.version,
+        targetId: r.target_id,
+        designation: designations.get(r.target_id) ?? '',
+        quantity: r.quantity,
+        value: r.value,
+        uncertainty: r.uncertainty,
+        label: r.label,
+        proposedByUserId: r.proposed_by_user_id,
+      })),
+    });
   }
 
   return {
@@ -304,6 +336,7 @@ export function createDerivedValuesService(db: Db, clock: Clock) {
         }
         await appendTrailMany(trx, entries, now);
         const decided = await findDerivedInProject(trx, projectId, [...toDecide.keys()]);
+        await notifyProposers(trx, projectId, reviewerUserId, decision, body.note, decided, now);
         return { decided: decided.map((r: NamedDerivedRow) => toDerivedValue(r)), superseded };
       });
     },

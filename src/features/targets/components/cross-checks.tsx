@@ -1,16 +1,10 @@
 import type { DerivedValue } from '@shared/schemas/derived';
-import { crossChecks, type CrossCheckVerdict } from '@shared/physics/cross-checks';
+import { crossChecks, newestStanding, type CrossCheckVerdict } from '@shared/physics/cross-checks';
 import { Notation } from '@/components/ui/notation';
 
 /** The newest revision of each quantity still standing (approved or proposed), the one the sheet shows first. */
 export function currentValues(revisions: readonly DerivedValue[]): DerivedValue[] {
-  const best = new Map<string, DerivedValue>();
-  for (const r of revisions) {
-    if (r.status !== 'approved' && r.status !== 'proposed') continue;
-    const held = best.get(r.quantity);
-    if (!held || r.revision > held.revision) best.set(r.quantity, r);
-  }
-  return [...best.values()];
+  return newestStanding(revisions);
 }
 
 /** The verdict as a word, so it never rests on colour alone. */
