@@ -28,6 +28,20 @@ describe('calculator inputs', () => {
     expect(byId.flux.valueSi).toBeCloseTo(2e-3, 18);
   });
 
+  it('a distance and a luminosity known from elsewhere go in as their own kinds, in SI (IAU 2015 B2: 1 pc = 648 000/π au, L☉ = 3.828e26 W; IAU 2012 B2 au; 1 ly = c × 365.25 d)', () => {
+    const form = emptyForm();
+    form.distance = { value: '2.5', sigma: '0.1', unit: 'kpc' };
+    form.luminosity = { value: '120', sigma: '10', unit: 'L_sun' };
+    const byId = Object.fromEntries(readForm(form).measurements.map((m) => [m.id, m]));
+    expect(byId.distance).toMatchObject({ kind: 'distance' });
+    expect(byId.distance.valueSi / 3.0856775814913673e19).toBeCloseTo(2.5, 12);
+    expect(byId.distance.uncertaintySi! / 3.0856775814913673e19).toBeCloseTo(0.1, 12);
+    expect(byId.luminosity).toMatchObject({ kind: 'luminosity' });
+    expect(byId.luminosity.valueSi / 3.828e26).toBeCloseTo(120, 10);
+    form.distance = { value: '100', sigma: '', unit: 'ly' };
+    expect(readForm(form).measurements.find((m) => m.id === 'distance')!.valueSi).toBeCloseTo(100 * 299792458 * 365.25 * 86400, -2);
+  });
+
   it('a pick-list line is an air wavelength; with vacuum chosen it moves by the air–vacuum shift of Hβ, 0.1358 nm (Morton 2000: 4861.363 Å air ↔ 4862.721 Å vacuum)', () => {
     const form = emptyForm();
     form.line = { ...form.line, value: '486.2', sigma: '0.01', rest: { line: 'h_beta', custom: '' }, medium: 'air' };

@@ -3,7 +3,7 @@ import type { DeriveOptions, MeasurementInput } from '@shared/physics/derive';
 import { PhysicsError } from '@shared/physics/errors';
 import type { LuminosityClassName } from '@shared/physics/main-sequence';
 import { STRONG_LINES } from '@shared/physics/tables/strong-lines';
-import { toSi } from '@shared/physics/units';
+import { ALLOWED_UNITS, toSi } from '@shared/physics/units';
 
 /**
  * The calculator's form as typed, and its translation into the engine's
@@ -14,6 +14,9 @@ import { toSi } from '@shared/physics/units';
 export type WavelengthUnit = 'nm' | 'angstrom' | 'um';
 export type FluxUnit = 'W/m2' | 'erg/s/cm2';
 export type Medium = 'air' | 'vacuum';
+/** Units of a distance or a luminosity known from elsewhere: those a file may give (ALLOWED_UNITS). */
+export type DistanceUnit = (typeof ALLOWED_UNITS.distance)[number];
+export type LuminosityUnit = (typeof ALLOWED_UNITS.luminosity)[number];
 
 export interface ValueEntry {
   value: string;
@@ -35,6 +38,10 @@ export interface CalculatorForm {
   v: ValueEntry;
   flux: ValueEntry & { unit: FluxUnit };
   parallax: ValueEntry;
+  /** A distance known from elsewhere (a cluster's, a catalogue's): used where there is no parallax. */
+  distance: ValueEntry & { unit: DistanceUnit };
+  /** A luminosity known from elsewhere (a standard candle's): used in place of the derived one. */
+  luminosity: ValueEntry & { unit: LuminosityUnit };
   line: ValueEntry & { unit: WavelengthUnit; rest: RestEntry; medium: Medium };
   limb: ValueEntry & { unit: WavelengthUnit; rest: RestEntry };
   zeeman: ValueEntry & { unit: WavelengthUnit; rest: RestEntry; landeG: string };
@@ -42,7 +49,7 @@ export interface CalculatorForm {
   rV: string;
 }
 
-export type FieldId = 'peak' | 'planck' | 'bv' | 'ebv' | 'v' | 'flux' | 'parallax' | 'line' | 'limb' | 'zeeman' | 'rV';
+export type FieldId = 'peak' | 'planck' | 'bv' | 'ebv' | 'v' | 'flux' | 'parallax' | 'distance' | 'luminosity' | 'line' | 'limb' | 'zeeman' | 'rV';
 
 const empty = (): ValueEntry => ({ value: '', sigma: '' });
 
@@ -56,6 +63,8 @@ export function emptyForm(): CalculatorForm {
     v: empty(),
     flux: { ...empty(), unit: 'W/m2' },
     parallax: empty(),
+    distance: { ...empty(), unit: 'pc' },
+    luminosity: { ...empty(), unit: 'L_sun' },
     line: { ...empty(), unit: 'nm', rest: { line: 'h_alpha', custom: '' }, medium: 'air' },
     limb: { ...empty(), unit: 'nm', rest: { line: 'h_alpha', custom: '' } },
     zeeman: { ...empty(), unit: 'angstrom', rest: { line: 'other', custom: '' }, landeG: '' },
@@ -153,6 +162,14 @@ export function readForm(form: CalculatorForm): CalculatorInputs {
   const parallax = read('parallax', form.parallax);
   if (parallax) {
     measurements.push({ id: 'parallax', kind: 'parallax', valueSi: toSi(parallax.value, 'mas'), uncertaintySi: toSi(parallax.sigma, 'mas') });
+  }
+  const distance = read('distance', form.distance);
+  if (distance) {
+    measurements.push({ id: 'distance', kind: 'distance', valueSi: toSi(distance.value, form.distance.unit), uncertaintySi: toSi(distance.sigma, form.distance.unit) });
+  }
+  const luminosity = read('luminosity', form.luminosity);
+  if (luminosity) {
+    measurements.push({ id: 'luminosity', kind: 'luminosity', valueSi: toSi(luminosity.value, form.luminosity.unit), uncertaintySi: toSi(luminosity.sigma, form.luminosity.unit) });
   }
 
   const lineGroup = (

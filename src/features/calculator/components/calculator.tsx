@@ -5,6 +5,7 @@ import { readableMessage } from '@shared/physics/display';
 import { LUMINOSITY_CLASS_LABELS, LUMINOSITY_CLASSES, type LuminosityClassName } from '@shared/physics/main-sequence';
 import type { QuantityId } from '@shared/physics/quantities';
 import { STRONG_LINES } from '@shared/physics/tables/strong-lines';
+import { ALLOWED_UNITS, UNITS } from '@shared/physics/units';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { FieldGroup } from '@/components/ui/field';
@@ -14,8 +15,10 @@ import {
   emptyForm,
   readForm,
   type CalculatorForm,
+  type DistanceUnit,
   type FieldId,
   type FluxUnit,
+  type LuminosityUnit,
   type Medium,
   type WavelengthUnit,
 } from './calculator-inputs';
@@ -29,6 +32,9 @@ const WAVELENGTH_UNITS: ReadonlyArray<{ value: WavelengthUnit; label: string }> 
   { value: 'angstrom', label: 'Å' },
   { value: 'um', label: 'µm' },
 ];
+/** The units a file may give (ALLOWED_UNITS), by their symbols; metres are left to files. */
+const DISTANCE_UNITS: ReadonlyArray<{ value: DistanceUnit; label: string }> = ALLOWED_UNITS.distance.filter((u) => u !== 'm').map((u) => ({ value: u, label: UNITS[u].symbol }));
+const LUMINOSITY_UNITS: ReadonlyArray<{ value: LuminosityUnit; label: string }> = ALLOWED_UNITS.luminosity.map((u) => ({ value: u, label: UNITS[u].symbol }));
 const FLUX_UNITS: ReadonlyArray<{ value: FluxUnit; label: string }> = [
   { value: 'W/m2', label: 'W m⁻²' },
   { value: 'erg/s/cm2', label: 'erg s⁻¹ cm⁻²' },
@@ -43,11 +49,11 @@ const NEEDS: Readonly<Record<QuantityId, string>> = {
   spectral_class: 'a temperature',
   bolometric_flux: 'a bolometric flux, or V with a temperature',
   distance_parallax: 'a parallax',
-  luminosity: 'a bolometric flux and a parallax',
+  luminosity: 'a bolometric flux and a parallax or a given distance, or a given luminosity',
   radius: 'a luminosity and a temperature',
   luminosity_class: 'a luminosity and a temperature',
   luminosity_hr: 'a temperature',
-  distance_photometric: 'a temperature and a bolometric flux',
+  distance_photometric: 'a bolometric flux with a temperature or a given luminosity',
   absolute_bolometric_magnitude: 'a luminosity',
   radial_velocity: 'an observed wavelength and the line’s rest wavelength',
   rotation_velocity: 'the limb-to-limb separation of a line',
@@ -76,6 +82,8 @@ const FIELD_LABELS: Readonly<Record<FieldId, string>> = {
   v: 'V',
   flux: 'the bolometric flux',
   parallax: 'the parallax',
+  distance: 'the given distance',
+  luminosity: 'the given luminosity',
   line: 'the observed wavelength',
   limb: 'the limb separation',
   zeeman: 'the Zeeman shift',
@@ -186,6 +194,25 @@ export function Calculator() {
 
           <FieldGroup legend="Astrometry">
             <MeasuredField label="Parallax" entry={form.parallax} onChange={set('parallax')} unit="mas" error={errors.parallax} />
+          </FieldGroup>
+
+          <FieldGroup legend="Known from elsewhere">
+            <MeasuredField
+              label="Distance"
+              entry={form.distance}
+              onChange={(e) => set('distance')({ ...form.distance, ...e })}
+              unit={<UnitSelect label="Unit of the distance" value={form.distance.unit} options={DISTANCE_UNITS} onChange={(unit) => set('distance')({ ...form.distance, unit })} />}
+              hint="A cluster’s or a catalogue’s distance; used only where there is no parallax."
+              error={errors.distance}
+            />
+            <MeasuredField
+              label="Luminosity"
+              entry={form.luminosity}
+              onChange={(e) => set('luminosity')({ ...form.luminosity, ...e })}
+              unit={<UnitSelect label="Unit of the luminosity" value={form.luminosity.unit} options={LUMINOSITY_UNITS} onChange={(unit) => set('luminosity')({ ...form.luminosity, unit })} />}
+              hint="A standard candle’s; used as given, and with the flux it gives the distance."
+              error={errors.luminosity}
+            />
           </FieldGroup>
 
           <FieldGroup legend="Doppler shift of a line">
