@@ -36,8 +36,9 @@ function makeFile(): string {
   for (let r = 0; r < ROWS; r++) {
     const t = Math.floor(r / perTarget);
     const first = r % perTarget === 0;
-    const ra = first ? ((t * 0.036) % 360).toFixed(4) : '';
-    const dec = first ? (((t * 0.017) % 170) - 85).toFixed(4) : '';
+    // In whole units of 0.0001°, so that rounding can never print 360.0000 (RA lies in [0°, 360°)).
+    const ra = first ? (((t * 360) % 3_600_000) / 10_000).toFixed(4) : '';
+    const dec = first ? (((t * 170) % 1_700_000) / 10_000 - 85).toFixed(4) : '';
     lines.push(`BENCH ${t},${ra},${dec},${QUANTITIES[r % perTarget % QUANTITIES.length](r)},2026-11-30T22:00:00Z`);
   }
   return lines.join('\n') + '\n';
