@@ -6,7 +6,7 @@ import { createServices } from '../../server/services';
 import { createPassport } from '../../server/middleware/auth';
 import { createDb } from '../../server/db/knex';
 import { systemClock } from '../../server/lib/clock';
-import { emails, makeWorld, signIn, type Who, type World } from '../support/world';
+import { emails, makeWorld, proposeValue, signIn, type Who, type World } from '../support/world';
 
 /**
  * Walks every API route with every kind of caller and checks the status.
@@ -90,29 +90,6 @@ const cases: Record<string, Case> = {
   'GET /projects/:projectId/trail': { rule: trailReaders, query: '?page=1&pageSize=10' },
   'GET /projects/:projectId/trail/export': { rule: trailReaders, query: '?format=csv' },
 };
-
-/** One proposed value of the world's target, written straight into the table, for the review route to decide on. */
-async function proposeValue(w: World): Promise<number> {
-  const [row] = await w.db('derived_values')
-    .insert({
-      project_id: w.projectId,
-      target_id: w.targetId,
-      quantity: 'distance_parallax',
-      value: 3.0857e17,
-      uncertainty: 3e15,
-      unit: 'm',
-      method: 'inverse_parallax',
-      method_label: 'd = 1/p',
-      inputs_json: '[]',
-      constants_json: '[]',
-      warnings_json: '[]',
-      revision: 1,
-      status: 'proposed',
-      created_at: '2026-12-01T00:00:00.000Z',
-    })
-    .returning('id');
-  return row.id;
-}
 
 const SAMPLE_FILE = 'target,quantity,value,unit\nT 1,parallax,12.5,mas\n';
 

@@ -82,3 +82,27 @@ export async function signIn(app: Express, who: Who): Promise<Session> {
   if (res.status !== 200) throw new Error(`sign-in as ${who} failed: ${res.status} ${JSON.stringify(res.body)}`);
   return { agent, csrf: res.body.csrfToken };
 }
+
+/** One proposed value (a 10 pc parallax distance) of the world's target, written straight into the table, for the review route to decide on. */
+export async function proposeValue(w: World, proposedBy: Who | null = null): Promise<number> {
+  const [row] = await w.db('derived_values')
+    .insert({
+      project_id: w.projectId,
+      target_id: w.targetId,
+      quantity: 'distance_parallax',
+      value: 3.0857e17,
+      uncertainty: 3e15,
+      unit: 'm',
+      method: 'inverse_parallax',
+      method_label: 'd = 1/p',
+      inputs_json: '[]',
+      constants_json: '[]',
+      warnings_json: '[]',
+      revision: 1,
+      status: 'proposed',
+      proposed_by_user_id: proposedBy ? w.userIds[proposedBy] : null,
+      created_at: '2026-11-30T23:00:00.000Z',
+    })
+    .returning('id');
+  return row.id;
+}

@@ -10,6 +10,8 @@ export interface TargetLine {
   designation: string;
   href: string;
   items: string[];
+  /** How many values the line stands for (it may name fewer). */
+  count: number;
 }
 
 /** What a weekly summary says, already cut to what its reader may see. */
@@ -43,19 +45,25 @@ export function valueWords(v: Pick<PeriodValue, 'quantity' | 'value' | 'uncertai
   }
 }
 
-/** Groups values by target, one line per target, in the order given. */
-export function byTarget(values: readonly PeriodValue[], href: (targetId: number) => string, words: (v: PeriodValue) => string): TargetLine[] {
-  const lines = new Map<number, TargetLine>();
-  for (const v of values) {
-    let line = lines.get(v.targetId);
-    if (!line) {
-      line = { targetId: v.targetId, designation: v.designation, href: href(v.targetId), items: [] };
-      lines.set(v.targetId, line);
-    }
-    const item = words(v);
-    if (!line.items.includes(item)) line.items.push(item);
-  }
-  return [...lines.values()];
+/** The quantities a PI reads first, in this order; a target's other values are counted, not listed. */
+const HEADLINE: readonly string[] = ['temperature', 'spectral_class', 'luminosity', 'radius', 'distance_parallax'];
+
+/**
+ * Groups values by target, one line per target, in the order given. With
+ * `max`, a line names at most that many (headline quantities first) and
+ * ends with how many more there are, so a digest stays a digest.
+ */
+export function byTarget(values: readonly PeriodValue[], href: (targetId: number) => string, words: (v: PeriodValue) => string, max = Infinity): TargetLine[] {
+  const groups = new Map<number, PeriodValue[]>();
+  for (const v of values) groups.set(v.targetId, [...(groups.get(v.targetId) ?? []), v]);
+  return [...groups.entries()].map(([targetId, group]) => {
+    const rank = (v: PeriodValue) => (HEADLINE.includes(v.quantity) ? HEADLINE.indexOf(v.quantity) : HEADLINE.length);
+    const ordered = max === Infinity ? group : [...group].sort((a, b) => rank(a) - rank(b));
+    const items = [...new Set(ordered.map(words))];
+    const shown = items.slice(0, max);
+    if (items.length > shown.length) shown.push(`and ${items.length - shown.length} more`);
+    return { targetId, designation: group[0].designation, href: href(targetId), items: shown, count: group.length };
+  });
 }
 
 export function warningWords(v: PeriodValue): string[] {
@@ -70,7 +78,7 @@ export function isEmpty(c: WeeklySummaryContent): boolean {
 }
 
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
-const count = (lines: TargetLine[]) => lines.reduce((n, l) => n + l.items.length, 0);
+const count = (lines: TargetLine[]) => lines.reduce((n, l) => n + l.count, 0);
 
 export function summarySubject(c: WeeklySummaryContent): string {
   return `Starledger weekly summary: ${c.projectName}, ${c.week}`;
@@ -78,6 +86,11 @@ export function summarySubject(c: WeeklySummaryContent): string {
 
 function nothingLine(c: WeeklySummaryContent): string {
   return `Nothing to report for ${c.projectName} in ${c.periodText}: no uploads, no decisions, nothing awaiting review and no new warnings.`;
+}
+
+/** A line's items as one sentence-like run: "a; b; and 3 more". */
+function itemsText(items: readonly string[]): string {
+  return items.map((i) => i.replace(/\.$/, '')).join('; ');
 }
 
 interface Section {
@@ -119,7 +132,7 @@ export function summaryText(c: WeeklySummaryContent): string {
   const body = sections(c).flatMap((s) => [
     s.title.toUpperCase(),
     s.lead,
-    ...s.lines.flatMap((l) => [`- ${l.designation}: ${l.items.join('; ')}`, `  ${l.href}`]),
+    ...s.lines.flatMap((l) => [`- ${l.designation}: ${itemsText(l.items)}`, `  ${l.href}`]),
     '',
   ]);
   return [...head, ...body, ...(c.reviewHref ? [`Review queue: ${c.reviewHref}`] : []), `Project: ${c.projectHref}`, '', footer(c), ''].join('\n');
@@ -141,7 +154,7 @@ export function summaryHtml(c: WeeklySummaryContent): string {
         .map(
           (s) =>
             `<h2 style="${mailStyle.heading}">${escapeHtml(s.title)}</h2><p style="${mailStyle.paragraph}">${escapeHtml(s.lead)}</p><ul style="${mailStyle.list}">${s.lines
-              .map((l) => `<li style="margin:2px 0">${mailLink(l.href, l.designation)}: <span style="${mailStyle.number}">${escapeHtml(l.items.join('; '))}</span></li>`)
+              .map((l) => `<li style="margin:2px 0">${mailLink(l.href, l.designation)}: <span style="${mailStyle.number}">${escapeHtml(itemsText(l.items))}</span></li>`)
               .join('')}</ul>`,
         )
         .join('\n') +

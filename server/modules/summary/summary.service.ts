@@ -67,7 +67,7 @@ export function createSummaryService(db: Db, clock: Clock, options: { publicUrl:
       const values = newestStanding(standing.filter((v) => v.targetId === targetId));
       const disagreeing = crossChecks(values).filter((c) => c.verdict === 'disagree');
       if (disagreeing.length === 0) return [];
-      return [{ targetId, designation: values[0].designation, href: href(targetId), items: disagreeing.map((c) => c.text) }];
+      return [{ targetId, designation: values[0].designation, href: href(targetId), items: disagreeing.map((c) => c.text), count: disagreeing.length }];
     });
     failedChecks.sort((a, b) => a.designation.localeCompare(b.designation, 'en', { numeric: true }));
     return {
@@ -82,9 +82,9 @@ export function createSummaryService(db: Db, clock: Clock, options: { publicUrl:
         href: `${base}/projects/${project.id}/uploads/${up.id}`,
         targetLinks: up.targets.map((t) => ({ designation: t.designation, href: href(t.id) })),
       })),
-      approved: byTarget(decisions.approved, href, valueWords),
+      approved: byTarget(decisions.approved, href, valueWords, 3),
       rejected: full ? byTarget(decisions.rejected, href, (v) => `${valueWords(v)}${v.note ? ` (“${v.note}”)` : ''}`) : [],
-      awaiting: byTarget(awaiting, href, (v) => quantityName(v.quantity)),
+      awaiting: byTarget(awaiting, href, (v) => quantityName(v.quantity), 3),
       warnings: byTarget(
         derived.filter((v) => v.warnings.length > 0),
         href,
