@@ -1,5 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
+import compression from 'compression';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
 import { rateLimit } from 'express-rate-limit';
@@ -41,6 +42,8 @@ export function createApp(options: AppOptions): Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
+  // Text assets and JSON compressed, brotli or gzip by what the client accepts (compression ≥ 1.8 speaks both).
+  app.use(compression());
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -81,8 +84,11 @@ export function createApp(options: AppOptions): Express {
 
   if (options.clientDir && fs.existsSync(path.join(options.clientDir, 'index.html'))) {
     const clientDir = options.clientDir;
+    // Vite names every built asset after its content hash, so a name never changes content: cache it for a year.
+    app.use('/assets', express.static(path.join(clientDir, 'assets'), { index: false, immutable: true, maxAge: '365d', fallthrough: false }));
     app.use(express.static(clientDir, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html')));
+    // The page itself names the current assets, so it is always asked for afresh.
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(clientDir, 'index.html'), { headers: { 'Cache-Control': 'no-cache' } }));
   }
   app.use(errorHandler);
   return app;

@@ -36,7 +36,7 @@ export interface World {
  * members), a second project whose only member is the outsider, a site admin
  * who belongs to neither, and one target.
  */
-export async function makeWorld(options: { loginAttemptsPerWindow?: number } = {}): Promise<World> {
+export async function makeWorld(options: { loginAttemptsPerWindow?: number; clientDir?: string } = {}): Promise<World> {
   const db = createDb('file::memory:');
   await migrateLatest(db);
   const at = '2026-11-30T22:00:00.000Z';
@@ -65,6 +65,7 @@ export async function makeWorld(options: { loginAttemptsPerWindow?: number } = {
     sessionSecret: 'test-secret',
     sessionCleanupIntervalMs: 0,
     loginAttemptsPerWindow: options.loginAttemptsPerWindow,
+    clientDir: options.clientDir,
     mailInbox,
   });
   return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds, mailInbox };
