@@ -12,7 +12,7 @@ export function resolveDatabaseUrl(url = process.env.DATABASE_URL): string {
 
 export function createDb(url = resolveDatabaseUrl()): Db {
   if (url.startsWith('postgres://') || url.startsWith('postgresql://')) {
-    return knex({ client: 'pg', connection: url, migrations: { migrationSource } });
+    return knex({ client: 'pg', connection: url, compileSqlOnError: false, migrations: { migrationSource } });
   }
   const filename = url.replace(/^file:/, '');
   if (filename !== ':memory:') fs.mkdirSync(path.dirname(path.resolve(filename)), { recursive: true });
@@ -20,6 +20,8 @@ export function createDb(url = resolveDatabaseUrl()): Db {
     client: 'better-sqlite3',
     connection: { filename },
     useNullAsDefault: true,
+    // A failed query's message then carries its SQL with placeholders, not the values bound to it (an upload's bytes, a password hash).
+    compileSqlOnError: false,
     // One connection: SQLite serialises writers anyway, and a single
     // connection keeps an in-memory test database alive for the whole test.
     pool: {

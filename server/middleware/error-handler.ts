@@ -40,8 +40,19 @@ export function errorHandler(err: unknown, req: Request, res: Response, next: Ne
     res.status(status).json({ error: { code: 'bad_request', message: e.expose ? String((err as Error).message) : 'The request could not be processed.' } });
     return;
   }
-  console.error(`[${req.method} ${req.originalUrl}]`, err);
+  console.error(`[${req.method} ${req.baseUrl}${req.path}]`, describeForLog(err));
   res.status(500).json({ error: { code: 'internal', message: messageFor('internal') } });
+}
+
+/**
+ * What the log keeps of an unexpected error: its kind, code and stack, never
+ * the properties an error may carry along (a parser's `body`, a driver's
+ * bound values), so no request body or file content reaches the log.
+ */
+export function describeForLog(err: unknown): string {
+  if (!(err instanceof Error)) return `non-error thrown: ${typeof err}`;
+  const code = (err as HttpishError).code;
+  return `${code ? `${code} ` : ''}${err.stack ?? `${err.name}: ${err.message}`}`.slice(0, 4000);
 }
 
 export function notFoundHandler(_req: Request, res: Response): void {

@@ -5,7 +5,8 @@ import { AppError } from '../lib/errors';
 /** Largest file accepted, bytes. A night's measurements are kilobytes; a season of a large survey a few megabytes. */
 export const MAX_UPLOAD_BYTES = 20 * 1024 * 1024;
 
-const receive = multer({ storage: multer.memoryStorage(), limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10 } }).single('file');
+// Browsers send a file name as UTF-8 without saying so; busboy's default (latin1) would turn "Größe-α.csv" into mojibake.
+const receive = multer({ storage: multer.memoryStorage(), defParamCharset: 'utf8', limits: { fileSize: MAX_UPLOAD_BYTES, files: 1, fields: 10 } }).single('file');
 
 /** One multipart file in field `file`, kept in memory; multer's errors become messages that say what to do. */
 export function uploadFile(req: Request, res: Response, next: NextFunction) {

@@ -139,6 +139,13 @@ export function createUploadsService(db: Db, clock: Clock) {
     return upload;
   }
 
+  async function spectrumTarget(projectId: number, targetId: number | null | undefined) {
+    if (!targetId) throw validationFailed([{ path: 'targetId', message: 'Choose the target this spectrum belongs to.' }]);
+    const target = await findTarget(db, projectId, targetId);
+    if (!target) throw validationFailed([{ path: 'targetId', message: `This project has no target with id ${targetId}; choose the target this spectrum belongs to.` }]);
+    return target;
+  }
+
   async function analyse(
     projectId: number,
     uploadId: number,
@@ -148,8 +155,7 @@ export function createUploadsService(db: Db, clock: Clock) {
   ): Promise<void> {
     const duplicateOf = await earlierUploadWithHash(db, projectId, options.sha256, uploadId);
     if (kind === 'spectrum') {
-      const target = options.targetId ? await findTarget(db, projectId, options.targetId) : undefined;
-      if (!target) throw validationFailed([{ path: 'targetId', message: 'Choose the target this spectrum belongs to.' }]);
+      const target = await spectrumTarget(projectId, options.targetId);
       const { spectrum, errors, rowCount } = readSpectrum(table, target.id, options.wavelengthUnit);
       const caution = sunCaution(target, null);
       await savePreview(db, uploadId, {
@@ -325,6 +331,8 @@ export function createUploadsService(db: Db, clock: Clock) {
     /** Keeps the file byte for byte, reads it and saves the preview; nothing is imported yet. */
     async preview(projectId: number, actorUserId: number, file: IncomingFile | undefined, fields: CreateUploadFields): Promise<Upload> {
       if (!file) throw validationFailed([{ path: 'file', message: 'Choose a file to upload (form field "file").' }]);
+      // Checked before anything is stored: the upload row refers to the target.
+      if (fields.kind === 'spectrum') await spectrumTarget(projectId, fields.targetId);
       const text = decodeText(file.buffer);
       const table = parseCsv(text);
       const sha256 = createHash('sha256').update(file.buffer).digest('hex');
