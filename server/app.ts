@@ -16,6 +16,7 @@ import { sessionMiddleware } from './middleware/session';
 import { apiRoutes, mountRoutes } from './routes';
 import { createServices } from './services';
 import { AppError } from './lib/errors';
+import type { UploadJobs } from './modules/uploads/upload-jobs';
 
 export interface AppOptions {
   db: Db;
@@ -31,12 +32,14 @@ export interface AppOptions {
   /** The local mail fake's inbox, shown to the site admin; absent when mail goes to a real SMTP server. */
   mailInbox?: MailInbox;
   sessionCleanupIntervalMs?: number;
+  /** Where uploads are read and committed; see server/modules/uploads/upload-jobs.ts. */
+  uploadJobs?: UploadJobs;
 }
 
 export function createApp(options: AppOptions): Express {
   const { db } = options;
   const clock = options.clock ?? systemClock;
-  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox });
+  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs });
   const passport = createPassport(services.users);
 
   const app = express();

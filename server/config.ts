@@ -17,6 +17,8 @@ export const config = {
   seedDemo: process.env.SEED_DEMO !== 'false',
   dataDir: path.resolve(process.env.DATA_DIR ?? 'data'),
   clientDir: path.resolve(process.env.CLIENT_DIR ?? 'dist'),
+  /** Hours a preview may wait for its commit before it is discarded (its file is kept). */
+  previewMaxAgeHours: Number(process.env.PREVIEW_MAX_AGE_HOURS ?? 48),
 };
 
 /** SESSION_SECRET, or one made once and kept under data/ so sessions survive a restart. */

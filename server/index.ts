@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { createApp } from './app';
 import { config, sessionSecret } from './config';
-import { createDb, migrateLatest } from './db/knex';
+import { createDb, migrateLatest, resolveDatabaseUrl } from './db/knex';
 import { systemClock } from './lib/clock';
 import { createSmtpMailer } from './mail/mailer';
 import { startFakeSmtp } from './mail/fake-smtp';
@@ -9,6 +9,9 @@ import { createOutboxWorker } from './mail/outbox-worker';
 import { createSummaryService } from './modules/summary/summary.service';
 import { createSummaryScheduler } from './modules/summary/summary-scheduler';
 import { seedDemoIfEmpty } from './db/demo';
+import { createUploadsService } from './modules/uploads/uploads.service';
+import { createPreviewExpiry } from './modules/uploads/preview-expiry';
+import { workerUploadJobs } from './modules/uploads/upload-jobs';
 
 async function main() {
   const db = createDb(config.databaseUrl);
@@ -25,8 +28,13 @@ async function main() {
   const worker = config.mailWorker ? createOutboxWorker({ db, mailer }) : undefined;
   const scheduler = config.mailWorker ? createSummaryScheduler(createSummaryService(db, systemClock, { publicUrl: config.publicUrl })) : undefined;
 
+  // Reading and committing uploads run on a worker thread with its own connection, so a large commit holds up no request.
+  const uploadJobs = workerUploadJobs(resolveDatabaseUrl(config.databaseUrl));
+  const previewExpiry = createPreviewExpiry(createUploadsService(db, systemClock), { maxAgeMs: config.previewMaxAgeHours * 3_600_000 });
+
   const app = createApp({
     db,
+    uploadJobs,
     mailer,
     sessionSecret: sessionSecret(),
     secureCookies: config.secureCookies,
@@ -38,6 +46,7 @@ async function main() {
     console.log(`Starledger is running: sign in at http://localhost:${config.port}/sign-in`);
     worker?.start();
     scheduler?.start();
+    previewExpiry.start();
   });
 
   let closing = false;
@@ -50,6 +59,8 @@ async function main() {
       // The scheduler and worker finish the round under way first, so no claimed message is left half-sent.
       await scheduler?.stop();
       await worker?.stop();
+      await previewExpiry.stop();
+      await uploadJobs.close();
       await fake?.close();
       await db.destroy();
       process.exit(0);

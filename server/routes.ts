@@ -16,7 +16,7 @@ import { membersHandlers } from './modules/members/members.routes';
 import { targetsHandlers } from './modules/targets/targets.routes';
 import { tokenParams, tokensHandlers } from './modules/tokens/tokens.routes';
 import { createTokenBody } from '../shared/schemas/tokens';
-import { commitBody, createUploadFields, remapBody, uploadParams, uploadRowsQuery } from '../shared/schemas/uploads';
+import { commitBody, createUploadFields, remapBody, uploadErrorsQuery, uploadParams, uploadRowsQuery } from '../shared/schemas/uploads';
 import { hrQuery } from '../shared/schemas/hr';
 import { exportValuesQuery, listDerivedQuery, rederiveBody, reviewBody, reviewQueueQuery } from '../shared/schemas/derived';
 import { uploadsHandlers } from './modules/uploads/uploads.routes';
@@ -126,6 +126,8 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'get', path: `${P}/uploads/templates/wide.csv`, access: inProject('read'), params: projectParams, handler: uploads.template('wide') },
     { method: 'get', path: `${P}/uploads/:uploadId`, access: inProject('read'), params: uploadParams, handler: uploads.get },
     { method: 'get', path: `${P}/uploads/:uploadId/rows`, access: inProject('read'), params: uploadParams, query: uploadRowsQuery, handler: uploads.rows },
+    { method: 'get', path: `${P}/uploads/:uploadId/errors`, access: inProject('read'), params: uploadParams, query: uploadErrorsQuery, handler: uploads.errors },
+    { method: 'get', path: `${P}/uploads/:uploadId/progress`, access: inProject('read'), params: uploadParams, handler: uploads.progress },
     { method: 'get', path: `${P}/uploads/:uploadId/file`, access: inProject('read'), params: uploadParams, handler: uploads.raw },
     { method: 'post', path: `${P}/uploads/:uploadId/mapping`, access: inProject('upload'), params: uploadParams, body: remapBody, handler: uploads.remap },
     { method: 'post', path: `${P}/uploads/:uploadId/commit`, access: inProject('upload'), params: uploadParams, body: commitBody, handler: uploads.commit },

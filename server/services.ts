@@ -13,12 +13,15 @@ import { createSummaryService } from './modules/summary/summary.service';
 import { createMailPreferencesService } from './modules/mail-preferences/mail-preferences.service';
 import { createMailFakeService } from './modules/mail-fake/mail-fake.service';
 import type { MailInbox } from './mail/fake-smtp';
+import type { UploadJobs } from './modules/uploads/upload-jobs';
 
 export interface ServiceOptions {
   /** The address people open Starledger at, for links in mail. */
   publicUrl?: string;
   /** What the local mail fake caught, when it is the one receiving mail. */
   mailInbox?: MailInbox;
+  /** Where uploads are read and committed (a worker thread in the server); in the request thread when omitted. */
+  uploadJobs?: UploadJobs;
 }
 
 export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
@@ -32,7 +35,7 @@ export function createServices(db: Db, clock: Clock, options: ServiceOptions = {
     members: createMembersService(db, clock),
     targets: createTargetsService(db, clock),
     tokens: createTokensService(db, clock),
-    uploads: createUploadsService(db, clock),
+    uploads: createUploadsService(db, clock, { jobs: options.uploadJobs }),
     derivedValues: createDerivedValuesService(db, clock, { publicUrl }),
     measurements: createMeasurementsService(db),
     trail: createTrailService(db),

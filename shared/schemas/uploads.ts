@@ -40,6 +40,31 @@ export const uploadRowsQuery = z.object({
   onlyErrors: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
 });
 
+/** How many of an upload's errors travel with it (in the list and the single view); the rest are paged from `…/errors`. */
+export const ERRORS_SHOWN = 20;
+
+export const uploadErrorsQuery = z.object({
+  page: z.coerce.number().int().min(1).default(1),
+  pageSize: z.coerce.number().int().min(1).max(500).default(100),
+});
+
+export interface UploadErrorsPage {
+  errors: RowError[];
+  total: number;
+  page: number;
+  pageSize: number;
+}
+
+/** Where a commit under way has got to, for the upload page to show while it runs. */
+export interface UploadProgress {
+  uploadId: number;
+  phase: 'queued' | 'reading' | 'writing' | 'deriving' | 'done' | 'failed';
+  rowsWritten: number;
+  rowsTotal: number;
+  targetsDerived: number;
+  targetsTotal: number;
+}
+
 export interface Caution {
   row: number | null;
   target: string;
@@ -91,6 +116,7 @@ export interface Upload {
   rowCount: number;
   measurementCount: number;
   errorCount: number;
+  /** The first ERRORS_SHOWN errors by row; all of them come page by page from `…/errors`. */
   errors: RowError[];
   mapping: ColumnMapping | null;
   headers: string[];

@@ -74,6 +74,8 @@ const cases: Record<string, Case> = {
   'GET /projects/:projectId/uploads/templates/wide.csv': { rule: everyone },
   'GET /projects/:projectId/uploads/:uploadId': { rule: everyone },
   'GET /projects/:projectId/uploads/:uploadId/rows': { rule: everyone },
+  'GET /projects/:projectId/uploads/:uploadId/errors': { rule: everyone },
+  'GET /projects/:projectId/uploads/:uploadId/progress': { rule: everyone },
   'GET /projects/:projectId/uploads/:uploadId/file': { rule: everyone },
   'POST /projects/:projectId/uploads/:uploadId/mapping': {
     rule: editors,

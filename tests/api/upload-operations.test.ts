@@ -76,3 +76,110 @@ describe('the log of an unexpected error', () => {
     expect(describeForLog({ body: 'a request body' })).not.toContain('a request body');
   });
 });
+
+/** A long file of `n` parallaxes for `targets` new targets, each target's first row giving its position. */
+function manyRows(n: number, targets: number, value: (i: number) => string = (i) => (10 + (i % 50) / 10).toFixed(2)): string {
+  const lines = ['target,ra,dec,quantity,value,uncertainty,unit,observed_at'];
+  for (let i = 0; i < n; i += 1) {
+    const t = i % targets;
+    const position = i < targets ? `${(t * 0.01).toFixed(4)},${(-10 + t * 0.001).toFixed(4)}` : ',';
+    lines.push(`N ${t + 1},${position},parallax,${value(i)},0.2,mas,2026-11-30T${String(20 + Math.floor(i / targets) % 4).padStart(2, '0')}:${String(Math.floor(i / targets / 4) % 60).padStart(2, '0')}:00Z`);
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+describe('an upload with many errors stays small to show', () => {
+  it('carries the error count and the first 20 errors, and pages the rest from …/errors', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const res = await send(s, world, manyRows(300, 30, () => 'abc'), 'bad.csv');
+    expect(res.status).toBe(201);
+    const id = res.body.upload.id;
+    expect(res.body.upload.errorCount).toBe(300);
+    expect(res.body.upload.errors).toHaveLength(20);
+    const list = await s.agent.get(uploadsUrl(world)).expect(200);
+    expect(list.body.uploads[0].errorCount).toBe(300);
+    expect(list.body.uploads[0].errors.map((e: { row: number }) => e.row)).toEqual(Array.from({ length: 20 }, (_, i) => i + 2));
+    const single = await s.agent.get(`${uploadsUrl(world)}/${id}`).expect(200);
+    expect(single.body.upload.errors).toHaveLength(20);
+
+    const page = await s.agent.get(`${uploadsUrl(world)}/${id}/errors?page=3&pageSize=100`).expect(200);
+    expect(page.body.total).toBe(300);
+    expect(page.body.errors).toHaveLength(100);
+    expect(page.body.errors[0]).toEqual({ row: 202, column: 'value', message: 'the value must be a number (got "abc").' });
+    const commit = await s.agent.post(`${uploadsUrl(world)}/${id}/commit`).set('X-CSRF-Token', s.csrf).send({}).expect(422);
+    expect(commit.body.error.details).toHaveLength(20);
+  });
+
+  it('answers one page of rows from the stored chunks, without reading the file again', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    // Every seventh record after each target's first is wrong.
+    const wrong = (i: number) => i >= 40 && i % 7 === 0;
+    const res = await send(s, world, manyRows(1200, 40, (i) => (wrong(i) ? 'x' : '12.5')), 'mixed.csv');
+    const id = res.body.upload.id;
+    // Were the page read from the file, these bytes would no longer parse.
+    await world.db('uploads').where({ id }).update({ content: Buffer.from([0, 1, 2, 3]) });
+    const page = await s.agent.get(`${uploadsUrl(world)}/${id}/rows?page=6&pageSize=100`).expect(200);
+    expect(page.body.total).toBe(1200);
+    expect(page.body.rows.map((r: { row: number }) => r.row)).toEqual(Array.from({ length: 100 }, (_, i) => 502 + i));
+    // Row 506 is record 504 (a multiple of 7), for target N 25 (504 mod 40 = 24).
+    const row506 = page.body.rows.find((r: { row: number }) => r.row === 506);
+    expect(row506.cells.slice(0, 5)).toEqual(['N 25', '', '', 'parallax', 'x']);
+    expect(row506.errors).toEqual([{ row: 506, column: 'value', message: 'the value must be a number (got "x").' }]);
+    expect(page.body.rows.find((r: { row: number }) => r.row === 505).errors).toEqual([]);
+    const bad = await s.agent.get(`${uploadsUrl(world)}/${id}/rows?page=2&pageSize=50&onlyErrors=true`).expect(200);
+    const wrongRows = Array.from({ length: 1200 }, (_, i) => i).filter(wrong).map((i) => i + 2);
+    expect(bad.body.total).toBe(wrongRows.length);
+    expect(bad.body.rows.map((r: { row: number }) => r.row)).toEqual(wrongRows.slice(50, 100));
+    expect(bad.body.rows.every((r: { cells: string[]; errors: unknown[] }) => r.cells[4] === 'x' && r.errors.length === 1)).toBe(true);
+  });
+});
+
+async function previewBytes(w: World, id: number) {
+  const row = await w.db('uploads').where({ id }).first(w.db.raw('coalesce(length(preview_blob), 0) + coalesce(length(preview_json), 0) as n'), 'size_bytes');
+  return { preview: Number(row.n), file: Number(row.size_bytes) };
+}
+
+describe('the stored preview', () => {
+  it('is smaller than the file, and is dropped on commit and on discard while the file stays', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const file = manyRows(5000, 500);
+    const first = await send(s, world, file, 'a.csv').expect(201);
+    const stored = await previewBytes(world, first.body.upload.id);
+    expect(stored.file).toBe(Buffer.byteLength(file));
+    expect(stored.preview).toBeGreaterThan(0);
+    expect(stored.preview / stored.file).toBeLessThan(1);
+    await s.agent.post(`${uploadsUrl(world)}/${first.body.upload.id}/commit`).set('X-CSRF-Token', s.csrf).send({}).expect(200);
+    expect((await previewBytes(world, first.body.upload.id)).preview).toBe(0);
+
+    const second = await send(s, world, manyRows(50, 5), 'b.csv').expect(201);
+    await s.agent.post(`${uploadsUrl(world)}/${second.body.upload.id}/discard`).set('X-CSRF-Token', s.csrf).expect(200);
+    expect((await previewBytes(world, second.body.upload.id)).preview).toBe(0);
+    const raw = await s.agent.get(`${uploadsUrl(world)}/${second.body.upload.id}/file`).buffer(true).expect(200);
+    expect(raw.body.toString()).toBe(manyRows(50, 5));
+  });
+
+  it('expires when left uncommitted longer than the set time, with a trail entry; younger previews stay', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const old = await send(s, world, manyRows(20, 2), 'old.csv').expect(201);
+    // The world's clock says 2026-12-01T03:00Z; this preview is one hour younger.
+    await world.db('uploads').insert({ ...(await world.db('uploads').where({ id: old.body.upload.id }).first()), id: undefined, filename: 'young.csv', created_at: '2026-12-01T04:00:00.000Z' });
+    const { createUploadsService } = await import('../../server/modules/uploads/uploads.service');
+    const { fixedClock } = await import('../../server/lib/clock');
+    const later = createUploadsService(world.db, fixedClock('2026-12-03T03:30:00.000Z'));
+    expect(await later.expirePreviews(48 * 3_600_000)).toBe(1);
+    const after = await s.agent.get(uploadsUrl(world)).expect(200);
+    const byName = Object.fromEntries(after.body.uploads.map((u: { filename: string; status: string }) => [u.filename, u.status]));
+    expect(byName).toEqual({ 'old.csv': 'discarded', 'young.csv': 'previewed' });
+    expect((await previewBytes(world, old.body.upload.id)).preview).toBe(0);
+    const trail = await world.db('trail_events').where({ action: 'upload.expired', entity_id: old.body.upload.id });
+    expect(trail).toHaveLength(1);
+    expect(trail[0].actor_user_id).toBeNull();
+    const raw = await s.agent.get(`${uploadsUrl(world)}/${old.body.upload.id}/file`).buffer(true).expect(200);
+    expect(raw.body.toString()).toBe(manyRows(20, 2));
+    expect(await later.expirePreviews(48 * 3_600_000)).toBe(0);
+  });
+});

@@ -5,6 +5,8 @@ import type { DerivedStatus } from '../../../shared/schemas/derived';
 import { tableQuantities, tableQuantitySources, type ListTargetsQuery, type TableQuantity, type TableValue, type Target, type TargetRow } from '../../../shared/schemas/targets';
 import type { Page } from '../../../shared/schemas/common';
 import { parseJson, toIso } from '../../lib/rows';
+import { bulkInsert } from '../../db/bulk-insert';
+import { chunks } from '../../lib/chunks';
 import { intervalOf, type DerivedRow } from '../derived-values/derived-values.repository';
 
 export interface TargetRecord {
@@ -226,4 +228,34 @@ export async function targetIdsOfProject(db: Db, projectId: number): Promise<num
 
 export async function deleteTargetRow(db: Db, targetId: number): Promise<void> {
   await db('targets').where({ id: targetId }).delete();
+}
+
+/** Many new targets at once (those an upload creates), in the caller's transaction; their ids by designation key. */
+export async function insertTargets(
+  trx: Db,
+  projectId: number,
+  targets: { designation: string; designationKey: string; raDeg: number; decDeg: number }[],
+  at: Date,
+): Promise<Map<string, number>> {
+  await bulkInsert(
+    trx,
+    'targets',
+    targets.map((t) => ({
+      project_id: projectId,
+      designation: t.designation,
+      designation_key: t.designationKey,
+      ra_deg: t.raDeg,
+      dec_deg: t.decDeg,
+      notes: '',
+      tags: '[]',
+      created_at: at.toISOString(),
+      updated_at: at.toISOString(),
+    })),
+  );
+  const ids = new Map<string, number>();
+  for (const batch of chunks(targets.map((t) => t.designationKey), 500)) {
+    const rows = await trx('targets').where({ project_id: projectId }).whereIn('designation_key', batch).select('id', 'designation_key');
+    for (const r of rows as { id: number; designation_key: string }[]) ids.set(r.designation_key, r.id);
+  }
+  return ids;
 }

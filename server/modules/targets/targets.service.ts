@@ -5,13 +5,14 @@ import type { ProjectRole } from '../../../shared/schemas/roles';
 import type { Page } from '../../../shared/schemas/common';
 import { designationKey } from '../../../shared/coordinates';
 import { conflict, notFound } from '../../lib/errors';
-import { appendTrail } from '../trail/trail.repository';
+import { appendTrail, appendTrailMany } from '../trail/trail.repository';
 import { rederiveTargets } from '../derived-values/derived-values.service';
 import {
   deleteTargetRow,
   findTarget,
   findTargetIdByKey,
   insertTarget,
+  insertTargets,
   listTargets,
   updateTargetRow,
   type ValueView,
@@ -32,6 +33,41 @@ export function valueViewFor(role: ProjectRole): ValueView {
   return role === 'reader'
     ? { shownStatuses: ['approved'], countProposals: false }
     : { shownStatuses: ['proposed', 'approved'], countProposals: true };
+}
+
+/**
+ * Creates the targets a file introduces, inside the caller's transaction,
+ * each with the `target.created` trail entry a target made by hand gets
+ * (saying which upload and row it came from). Returns their ids by
+ * designation key.
+ */
+export async function addTargetsFromUpload(
+  trx: Db,
+  projectId: number,
+  uploadId: number,
+  targets: { designation: string; designationKey: string; raDeg: number; decDeg: number; row: number }[],
+  actorUserId: number,
+  at: Date,
+): Promise<Map<string, number>> {
+  if (targets.length === 0) return new Map();
+  const ids = await insertTargets(trx, projectId, targets, at);
+  await appendTrailMany(
+    trx,
+    targets.map((t) => {
+      const targetId = ids.get(t.designationKey)!;
+      return {
+        projectId,
+        actorUserId,
+        action: 'target.created',
+        entityType: 'target',
+        entityId: targetId,
+        targetId,
+        after: { designation: t.designation, ra: t.raDeg, dec: t.decDeg, uploadId, row: t.row },
+      };
+    }),
+    at,
+  );
+  return ids;
 }
 
 export function createTargetsService(db: Db, clock: Clock) {

@@ -1,6 +1,8 @@
+import { gunzipSync, gzipSync } from 'node:zlib';
 import type { Db } from '../../db/knex';
+import { bulkInsert } from '../../db/bulk-insert';
 import type { ColumnMapping, NormalisedRow, RowError } from '../../../shared/schemas/measurement-file';
-import type { Caution, SpectrumPreview, Upload } from '../../../shared/schemas/uploads';
+import { ERRORS_SHOWN, type Caution, type SpectrumPreview, type Upload } from '../../../shared/schemas/uploads';
 import { parseJson, toIso } from '../../lib/rows';
 
 /** What the preview shows about a file (small; read whenever the upload is shown). */
@@ -31,7 +33,6 @@ interface UploadRow {
   status: Upload['status'];
   row_count: number;
   error_count: number;
-  errors_json: string;
   mapping_json: string;
   summary_json: string | null;
   target_id: number | null;
@@ -51,7 +52,6 @@ const SUMMARY_COLUMNS = [
   'u.status',
   'u.row_count',
   'u.error_count',
-  'u.errors_json',
   'u.mapping_json',
   'u.target_id',
   'u.created_at',
@@ -59,7 +59,7 @@ const SUMMARY_COLUMNS = [
   'users.name as uploaded_by',
 ];
 
-function toUpload(r: UploadRow, preview: PreviewSummary | null): Upload {
+function toUpload(r: UploadRow, preview: PreviewSummary | null, errors: RowError[]): Upload {
   const mapping = parseJson<ColumnMapping | Record<string, never>>(r.mapping_json, {});
   return {
     id: r.id,
@@ -72,7 +72,7 @@ function toUpload(r: UploadRow, preview: PreviewSummary | null): Upload {
     rowCount: r.row_count,
     measurementCount: preview?.measurementCount ?? 0,
     errorCount: r.error_count,
-    errors: parseJson<RowError[]>(r.errors_json, []),
+    errors,
     mapping: 'layout' in mapping ? (mapping as ColumnMapping) : null,
     headers: preview?.headers ?? [],
     newTargets: preview?.newTargets ?? [],
@@ -111,22 +111,110 @@ export async function insertUpload(
   return typeof row === 'object' ? row.id : row;
 }
 
+/** Records of the file as sent, per stored chunk; a page of the preview reads the one or two chunks it spans. */
+export const CHUNK_ROWS = 500;
+
+const pack = (value: unknown) => gzipSync(JSON.stringify(value), { level: 6 });
+const unpack = <T>(blob: Buffer | Uint8Array): T => JSON.parse(gunzipSync(blob).toString('utf8')) as T;
+
+/** The normalised row's fields in a fixed order: the stored preview is arrays of values, not objects repeating their keys. */
+const ROW_FIELDS = [
+  'row', 'target', 'targetKey', 'raDeg', 'decDeg', 'kind', 'value', 'uncertainty', 'unit', 'valueSi', 'uncertaintySi', 'unitSi',
+  'band', 'restWavelengthSi', 'landeG', 'observedAt', 'instrument', 'note', 'extra',
+] as const satisfies readonly (keyof NormalisedRow)[];
+
+function packRows(rows: NormalisedRow[]): Buffer {
+  return pack(rows.map((r) => ROW_FIELDS.map((f) => r[f])));
+}
+
+function unpackRows(blob: Buffer | Uint8Array): NormalisedRow[] {
+  return unpack<unknown[][]>(blob).map((values) => Object.fromEntries(ROW_FIELDS.map((f, i) => [f, values[i]])) as unknown as NormalisedRow);
+}
+
+/**
+ * Replaces an upload's preview in the caller's transaction: the summary, the
+ * row errors, the records as sent in compressed chunks, and the normalised
+ * rows as one compressed blob.
+ */
 export async function savePreview(
-  db: Db,
+  trx: Db,
   uploadId: number,
-  p: { rowCount: number; errors: RowError[]; mapping: ColumnMapping | null; preview: PreviewState },
+  p: { records: string[][]; errors: RowError[]; mapping: ColumnMapping | null; preview: PreviewState },
 ): Promise<void> {
   const { rows, ...summary } = p.preview;
-  await db('uploads')
+  await trx('uploads')
     .where({ id: uploadId })
     .update({
-      row_count: p.rowCount,
+      row_count: p.records.length,
       error_count: p.errors.length,
-      errors_json: JSON.stringify(p.errors),
+      errors_json: '[]',
       mapping_json: JSON.stringify(p.mapping ?? {}),
       summary_json: JSON.stringify(summary),
-      preview_json: JSON.stringify(rows),
+      preview_json: null,
+      preview_blob: packRows(rows),
     });
+  await trx('upload_errors').where({ upload_id: uploadId }).delete();
+  await bulkInsert(trx, 'upload_errors', p.errors.map((e) => ({ upload_id: uploadId, row: e.row, column: e.column.slice(0, 255), message: e.message })));
+  await trx('upload_row_chunks').where({ upload_id: uploadId }).delete();
+  const chunks: Record<string, unknown>[] = [];
+  for (let i = 0; i * CHUNK_ROWS < p.records.length; i += 1) {
+    chunks.push({ upload_id: uploadId, chunk: i, records: pack(p.records.slice(i * CHUNK_ROWS, (i + 1) * CHUNK_ROWS)) });
+  }
+  await bulkInsert(trx, 'upload_row_chunks', chunks);
+}
+
+/** The normalised rows are needed only until the commit: dropped once the upload is committed, discarded or expired. */
+export async function dropPreviewRows(db: Db, uploadId: number): Promise<void> {
+  await db('uploads').where({ id: uploadId }).update({ preview_blob: null, preview_json: null });
+}
+
+/** Row errors in file order, a page at a time. */
+export async function listErrors(db: Db, uploadId: number, page: { offset: number; limit: number }): Promise<RowError[]> {
+  return db('upload_errors')
+    .where({ upload_id: uploadId })
+    .orderBy([{ column: 'row' }, { column: 'id' }])
+    .offset(page.offset)
+    .limit(page.limit)
+    .select('row', 'column', 'message');
+}
+
+/** The errors of the given rows, for one page of the preview. */
+export async function errorsOfRows(db: Db, uploadId: number, fromRow: number, toRow: number): Promise<RowError[]> {
+  return db('upload_errors')
+    .where({ upload_id: uploadId })
+    .whereBetween('row', [fromRow, toRow])
+    .orderBy([{ column: 'row' }, { column: 'id' }])
+    .select('row', 'column', 'message');
+}
+
+/** Data rows (not the header) that have errors: how many, and one page of their numbers. */
+export async function rowsWithErrors(db: Db, uploadId: number, page: { offset: number; limit: number }): Promise<{ total: number; rows: number[] }> {
+  const base = () => db('upload_errors').where({ upload_id: uploadId }).where('row', '>=', 2);
+  const counted = await base().countDistinct<{ n: number | string }[]>('row as n');
+  const rows = await base().distinct('row').orderBy('row').offset(page.offset).limit(page.limit);
+  return { total: Number(counted[0]?.n ?? 0), rows: rows.map((r: { row: number }) => r.row) };
+}
+
+/**
+ * The records as sent with the given row numbers (the header is row 1),
+ * read from the chunks that hold them; null when the upload has no chunks
+ * (stored before they were kept).
+ */
+export async function recordsOfRows(db: Db, uploadId: number, rowNumbers: number[]): Promise<Map<number, string[]> | null> {
+  const wanted = [...new Set(rowNumbers.map((r) => Math.floor((r - 2) / CHUNK_ROWS)))];
+  const stored = await db('upload_row_chunks').where({ upload_id: uploadId }).whereIn('chunk', wanted).select('chunk', 'records');
+  if (stored.length === 0) {
+    const any = await db('upload_row_chunks').where({ upload_id: uploadId }).first('chunk');
+    if (!any) return null;
+  }
+  const byChunk = new Map<number, string[][]>(stored.map((c: { chunk: number; records: Buffer }) => [c.chunk, unpack<string[][]>(c.records)]));
+  const out = new Map<number, string[]>();
+  for (const row of rowNumbers) {
+    const chunk = Math.floor((row - 2) / CHUNK_ROWS);
+    const record = byChunk.get(chunk)?.[(row - 2) % CHUNK_ROWS];
+    if (record) out.set(row, record);
+  }
+  return out;
 }
 
 export async function findUpload(db: Db, projectId: number, uploadId: number): Promise<Upload | undefined> {
@@ -135,7 +223,7 @@ export async function findUpload(db: Db, projectId: number, uploadId: number): P
     .where({ 'u.project_id': projectId, 'u.id': uploadId })
     .first([...SUMMARY_COLUMNS, 'u.summary_json']);
   if (!row) return undefined;
-  const upload = toUpload(row, parseJson<PreviewSummary | null>(row.summary_json, null));
+  const upload = toUpload(row, parseJson<PreviewSummary | null>(row.summary_json, null), await firstErrors(db, row));
   if (upload.status === 'committed') {
     upload.targets = await db('targets')
       .whereIn('id', db('measurements').where({ upload_id: uploadId }).distinct('target_id'))
@@ -145,10 +233,23 @@ export async function findUpload(db: Db, projectId: number, uploadId: number): P
   return upload;
 }
 
+/** The first few errors shown with an upload; the rest are paged from their own route. */
+async function firstErrors(db: Db, row: UploadRow): Promise<RowError[]> {
+  if (row.error_count === 0) return [];
+  const errors = await listErrors(db, row.id, { offset: 0, limit: ERRORS_SHOWN });
+  if (errors.length) return errors;
+  // Uploads previewed before errors had their own table kept them as one JSON list.
+  const old = await db('uploads').where({ id: row.id }).first('errors_json');
+  return parseJson<RowError[]>(old?.errors_json, []).slice(0, ERRORS_SHOWN);
+}
+
 export async function loadPreviewState(db: Db, uploadId: number): Promise<PreviewState | null> {
-  const row = await db('uploads').where({ id: uploadId }).first('summary_json', 'preview_json');
+  const row = await db('uploads').where({ id: uploadId }).first('summary_json', 'preview_blob', 'preview_json');
   const summary = parseJson<PreviewSummary | null>(row?.summary_json, null);
-  return summary ? { ...summary, rows: parseJson<NormalisedRow[]>(row?.preview_json, []) } : null;
+  if (!summary) return null;
+  // Previews saved before the compact form kept their rows as JSON.
+  const rows = row.preview_blob ? unpackRows(row.preview_blob) : parseJson<NormalisedRow[]>(row.preview_json, []);
+  return { ...summary, rows };
 }
 
 export async function loadContent(db: Db, projectId: number, uploadId: number): Promise<{ filename: string; content: Buffer; sha256: string } | undefined> {
@@ -162,7 +263,31 @@ export async function listUploads(db: Db, projectId: number): Promise<Upload[]> 
     .where('u.project_id', projectId)
     .orderBy('u.id', 'desc')
     .select(SUMMARY_COLUMNS);
-  return rows.map((r) => toUpload(r, null));
+  const withErrors = rows.filter((r) => r.error_count > 0).map((r) => r.id);
+  const first = new Map<number, RowError[]>();
+  if (withErrors.length) {
+    // The first few errors of each upload, by their place in the file, in one query.
+    const ranked = await db
+      .select('upload_id', 'row', 'column', 'message')
+      .from(
+        db('upload_errors')
+          .whereIn('upload_id', withErrors)
+          .select('upload_id', 'row', 'column', 'message', db.raw('row_number() over (partition by upload_id order by "row", id) as n'))
+          .as('e'),
+      )
+      .where('n', '<=', ERRORS_SHOWN)
+      .orderBy([{ column: 'upload_id' }, { column: 'n' }]);
+    for (const e of ranked as (RowError & { upload_id: number })[]) {
+      first.set(e.upload_id, [...(first.get(e.upload_id) ?? []), { row: e.row, column: e.column, message: e.message }]);
+    }
+  }
+  return rows.map((r) => toUpload(r, null, first.get(r.id) ?? []));
+}
+
+/** Previewed uploads received before `before`: abandoned previews whose rows are to be dropped. */
+export async function abandonedPreviews(db: Db, before: Date, limit: number): Promise<{ id: number; projectId: number; filename: string }[]> {
+  const rows = await db('uploads').where({ status: 'previewed' }).where('created_at', '<', before.toISOString()).orderBy('id').limit(limit).select('id', 'project_id', 'filename');
+  return rows.map((r: { id: number; project_id: number; filename: string }) => ({ id: r.id, projectId: r.project_id, filename: r.filename }));
 }
 
 export async function earlierUploadWithHash(db: Db, projectId: number, sha256: string, exceptId: number): Promise<number | null> {

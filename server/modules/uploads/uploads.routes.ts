@@ -1,5 +1,5 @@
 import type { Request, Response } from 'express';
-import { commitBody, createUploadFields, remapBody, uploadParams, uploadRowsQuery } from '../../../shared/schemas/uploads';
+import { commitBody, createUploadFields, remapBody, uploadErrorsQuery, uploadParams, uploadRowsQuery } from '../../../shared/schemas/uploads';
 import { LONG_TEMPLATE, WIDE_TEMPLATE } from '../../../shared/schemas/measurement-file';
 import { projectAccessOf } from '../../middleware/access';
 import { parsed } from '../../middleware/validate';
@@ -26,6 +26,14 @@ export function uploadsHandlers(uploads: UploadsService) {
     async rows(_req: Request, res: Response) {
       const { uploadId } = parsed(res, 'params', uploadParams);
       res.json(await uploads.rows(projectAccessOf(res).projectId, uploadId, parsed(res, 'query', uploadRowsQuery)));
+    },
+    async errors(_req: Request, res: Response) {
+      const { uploadId } = parsed(res, 'params', uploadParams);
+      res.json(await uploads.errors(projectAccessOf(res).projectId, uploadId, parsed(res, 'query', uploadErrorsQuery)));
+    },
+    async progress(_req: Request, res: Response) {
+      const { uploadId } = parsed(res, 'params', uploadParams);
+      res.json({ progress: await uploads.progress(projectAccessOf(res).projectId, uploadId) });
     },
     async remap(_req: Request, res: Response) {
       const { uploadId } = parsed(res, 'params', uploadParams);
