@@ -1,6 +1,6 @@
 import { Router, type RequestHandler } from 'express';
 import type { z } from 'zod';
-import { loginBody, createUserBody } from '../shared/schemas/auth';
+import { loginBody, createUserBody, completePasswordResetBody, linkBody, passwordResetRequestBody } from '../shared/schemas/auth';
 import { addMemberBody, createProjectBody, updateMemberBody, updateProjectBody } from '../shared/schemas/projects';
 import { memberParams, projectParams, targetParams } from '../shared/schemas/params';
 import { createTargetBody, listTargetsQuery, updateTargetBody } from '../shared/schemas/targets';
@@ -29,6 +29,9 @@ import { updateMailPreferenceBody, updateSummaryScheduleBody } from '../shared/s
 import { summaryHandlers } from './modules/summary/summary.routes';
 import { mailPreferencesHandlers } from './modules/mail-preferences/mail-preferences.routes';
 import { caughtMailParams, mailFakeHandlers } from './modules/mail-fake/mail-fake.routes';
+import { invitationParams, invitationsHandlers } from './modules/invitations/invitations.routes';
+import { passwordResetsHandlers } from './modules/password-resets/password-resets.routes';
+import { acceptInvitationBody, createInvitationBody } from '../shared/schemas/invitations';
 
 type Method = 'get' | 'post' | 'patch' | 'delete';
 
@@ -65,6 +68,8 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
   const summary = summaryHandlers(services.summary);
   const mailPreferences = mailPreferencesHandlers(services.mailPreferences);
   const mailFake = mailFakeHandlers(services.mailFake);
+  const invitations = invitationsHandlers(services.invitations, services.users);
+  const passwordResets = passwordResetsHandlers(services.passwordResets);
   const P = '/projects/:projectId';
 
   return [
@@ -72,6 +77,14 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'post', path: '/auth/login', access: anyone, before: [loginLimiter], body: loginBody, handler: auth.login },
     { method: 'post', path: '/auth/logout', access: signedIn, handler: auth.logout },
     { method: 'get', path: '/auth/me', access: signedIn, handler: auth.me },
+    // A forgotten password: the link's token travels in the body, never in a URL that logs keep
+    { method: 'post', path: '/auth/password-reset', access: anyone, body: passwordResetRequestBody, handler: passwordResets.request },
+    { method: 'post', path: '/auth/password-reset/lookup', access: anyone, body: linkBody, handler: passwordResets.lookup },
+    { method: 'post', path: '/auth/password-reset/complete', access: anyone, body: completePasswordResetBody, handler: passwordResets.complete },
+
+    // Accepting an invitation (a new account, or a signed-in existing one)
+    { method: 'post', path: '/invitations/lookup', access: anyone, body: linkBody, handler: invitations.lookup },
+    { method: 'post', path: '/invitations/accept', access: anyone, body: acceptInvitationBody, handler: invitations.accept },
 
     // Personal API tokens
     { method: 'get', path: '/tokens', access: signedIn, handler: tokens.list },
@@ -100,6 +113,9 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'post', path: `${P}/members`, access: inProject('manageMembers'), params: projectParams, body: addMemberBody, handler: members.add },
     { method: 'patch', path: `${P}/members/:userId`, access: inProject('manageMembers'), params: memberParams, body: updateMemberBody, handler: members.changeRole },
     { method: 'delete', path: `${P}/members/:userId`, access: inProject('manageMembers'), params: memberParams, handler: members.remove },
+    { method: 'get', path: `${P}/invitations`, access: inProject('manageMembers'), params: projectParams, handler: invitations.list },
+    { method: 'post', path: `${P}/invitations`, access: inProject('manageMembers'), params: projectParams, body: createInvitationBody, handler: invitations.create },
+    { method: 'delete', path: `${P}/invitations/:invitationId`, access: inProject('manageMembers'), params: invitationParams, handler: invitations.revoke },
 
     // Targets
     { method: 'get', path: `${P}/targets`, access: inProject('read'), params: projectParams, query: listTargetsQuery, handler: targets.list },

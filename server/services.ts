@@ -12,6 +12,8 @@ import { createTrailService } from './modules/trail/trail.service';
 import { createSummaryService } from './modules/summary/summary.service';
 import { createMailPreferencesService } from './modules/mail-preferences/mail-preferences.service';
 import { createMailFakeService } from './modules/mail-fake/mail-fake.service';
+import { createInvitationsService } from './modules/invitations/invitations.service';
+import { createPasswordResetsService } from './modules/password-resets/password-resets.service';
 import type { MailInbox } from './mail/fake-smtp';
 import type { UploadJobs } from './modules/uploads/upload-jobs';
 
@@ -42,6 +44,8 @@ export function createServices(db: Db, clock: Clock, options: ServiceOptions = {
     summary: createSummaryService(db, clock, { publicUrl }),
     mailPreferences: createMailPreferencesService(db, clock),
     mailFake: createMailFakeService(options.mailInbox),
+    invitations: createInvitationsService(db, clock, { publicUrl }),
+    passwordResets: createPasswordResetsService(db, clock, { publicUrl }),
   };
 }
 

@@ -16,6 +16,10 @@ export const errorCodes = {
   not_proposed: 'Only proposed values can be approved or rejected.',
   csrf_invalid: 'The form was stale or came from another site. Reload the page and try again.',
   rate_limited: 'Too many attempts. Wait a few minutes and try again.',
+  link_unknown: 'This link is not known. Open it again from the e-mail and make sure none of it is missing.',
+  link_expired: 'This link has expired.',
+  link_used: 'This link has already been used.',
+  link_revoked: 'This invitation was withdrawn.',
   payload_too_large: 'The request is too large.',
   internal: 'Something went wrong on the server. The error was logged.',
 } as const;

@@ -36,3 +36,24 @@ export const createUserBody = z.object({
   isSiteAdmin: z.boolean().default(false),
 });
 export type CreateUserBody = z.infer<typeof createUserBody>;
+
+export const passwordResetRequestBody = z.object({
+  email: z.string().trim().toLowerCase().email('Enter an e-mail address.'),
+});
+export type PasswordResetRequestBody = z.infer<typeof passwordResetRequestBody>;
+
+/** The one answer to a reset request, whether or not an account has the address. */
+export const passwordResetRequested = z.object({ message: z.string() });
+
+/** The random part of an invitation or reset link (43 base64url characters for 32 bytes). */
+export const linkToken = z.string().trim().regex(/^[A-Za-z0-9_-]{20,100}$/, 'The link is incomplete. Open it again from the e-mail, or copy all of it.');
+
+/** An invitation or reset link's token, sent in the body so that it stays out of request logs. */
+export const linkBody = z.object({ token: linkToken });
+export type LinkBody = z.infer<typeof linkBody>;
+
+export const passwordResetLookup = z.object({ email: z.string(), expiresAt: z.string() });
+export type PasswordResetLookup = z.infer<typeof passwordResetLookup>;
+
+export const completePasswordResetBody = linkBody.extend({ password: passwordRule });
+export type CompletePasswordResetBody = z.infer<typeof completePasswordResetBody>;

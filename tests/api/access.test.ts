@@ -6,7 +6,8 @@ import { createServices } from '../../server/services';
 import { createPassport } from '../../server/middleware/auth';
 import { createDb } from '../../server/db/knex';
 import { systemClock } from '../../server/lib/clock';
-import { emails, makeWorld, proposeValue, signIn, type Who, type World } from '../support/world';
+import { hashLinkToken } from '../../server/lib/link-tokens';
+import { emails, makeWorld, openLink, proposeValue, signIn, type Who, type World } from '../support/world';
 
 /**
  * Walks every API route with every kind of caller and checks the status.
@@ -36,6 +37,14 @@ const cases: Record<string, Case> = {
   'POST /auth/login': { rule: 'public' },
   'POST /auth/logout': { rule: 'signed-in' },
   'GET /auth/me': { rule: 'signed-in' },
+  'POST /auth/password-reset': { rule: 'public', body: () => ({ email: emails.reader }) },
+  'POST /auth/password-reset/lookup': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset') }) },
+  'POST /auth/password-reset/complete': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset'), password: 'a-new-long-password' }) },
+  'POST /invitations/lookup': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'invitation') }) },
+  'POST /invitations/accept': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'invitation'), name: 'Invited Person', password: 'a-new-long-password' }) },
+  'GET /projects/:projectId/invitations': { rule: leads },
+  'POST /projects/:projectId/invitations': { rule: leads, body: () => ({ email: 'invited@test.invalid', role: 'reader' }) },
+  'DELETE /projects/:projectId/invitations/:invitationId': { rule: leads },
   'GET /tokens': { rule: 'signed-in' },
   'POST /tokens': { rule: 'signed-in', body: () => ({ name: 'night pipeline' }) },
   'DELETE /tokens/:tokenId': { rule: 'signed-in' },
@@ -146,6 +155,11 @@ describe('access to every API route', () => {
           const made = await session.agent.post('/api/tokens').set('X-CSRF-Token', session.csrf).send({ name: 'to revoke' }).expect(201);
           tokenId = String(made.body.apiToken.id);
         }
+        let invitationId = '1';
+        if (pattern.includes(':invitationId')) {
+          const [made] = await world.db('invitations').where('token_hash', hashLinkToken(await openLink(world, 'invitation'))).select('id');
+          invitationId = String(made.id);
+        }
         let messageId = '1';
         if (pattern.includes(':messageId')) {
           messageId = String(world.mailInbox.add({ from: 'starledger@localhost', to: [emails.pi], subject: 'Caught', text: 'Caught.', html: null, receivedAt: '2026-12-01T03:00:00.000Z' }).id);
@@ -158,7 +172,8 @@ describe('access to every API route', () => {
             .replace(':userId', String(world.userIds.observer))
             .replace(':tokenId', tokenId)
             .replace(':uploadId', uploadId)
-            .replace(':messageId', messageId) +
+            .replace(':messageId', messageId)
+            .replace(':invitationId', invitationId) +
           (c.query ?? '');
         const agent = session?.agent ?? request(world.app);
         let req = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](path);

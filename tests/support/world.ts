@@ -5,6 +5,7 @@ import { createDb, migrateLatest, type Db } from '../../server/db/knex';
 import { fixedClock } from '../../server/lib/clock';
 import { hashPassword } from '../../server/lib/passwords';
 import { createMailInbox, type MailInbox } from '../../server/mail/fake-smtp';
+import { newLinkToken } from '../../server/lib/link-tokens';
 
 export const PASSWORD = 'correct-horse-battery';
 // One hash for every test account: hashing is deliberately slow.
@@ -106,4 +107,32 @@ export async function proposeValue(w: World, proposedBy: Who | null = null): Pro
     })
     .returning('id');
   return row.id;
+}
+
+let linkCount = 0;
+
+/**
+ * Writes an open invitation (to a fresh address, as reader of the world's
+ * project, from the lead) or an open reset link (for the outsider) straight
+ * into the database, and returns the link's token.
+ */
+export async function openLink(w: World, kind: 'invitation' | 'reset', options: { email?: string; expiresAt?: string } = {}): Promise<string> {
+  const { token, hash } = newLinkToken();
+  const createdAt = '2026-12-01T02:30:00.000Z';
+  if (kind === 'invitation') {
+    linkCount += 1;
+    await w.db('invitations').insert({
+      project_id: w.projectId,
+      email: options.email ?? `invited-${linkCount}@test.invalid`,
+      role: 'reader',
+      token_hash: hash,
+      invited_by: w.userIds.lead,
+      expires_at: options.expiresAt ?? '2026-12-08T02:30:00.000Z',
+      created_at: createdAt,
+    });
+  } else {
+    const [user] = await w.db('users').where('email', options.email ?? emails.outsider).select('id');
+    await w.db('password_resets').insert({ user_id: user.id, token_hash: hash, expires_at: options.expiresAt ?? '2026-12-01T03:30:00.000Z', created_at: createdAt });
+  }
+  return token;
 }

@@ -5,7 +5,8 @@ import { csrfToken } from '../../middleware/csrf';
 import type { StarledgerPassport } from '../../middleware/auth';
 import type { UsersService } from '../users/users.service';
 
-async function sessionBody(req: Request, users: UsersService) {
+/** What the browser keeps of a session: the person, their roles and the CSRF token for writes. */
+export async function sessionBody(req: Request, users: UsersService) {
   const user = req.user as User;
   return { user, memberships: await users.memberships(user.id), csrfToken: csrfToken(req) };
 }

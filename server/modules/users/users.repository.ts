@@ -51,3 +51,7 @@ export async function membershipsOf(db: Db, userId: number): Promise<{ projectId
   const rows = await db('project_members').where({ user_id: userId }).select('project_id', 'role');
   return rows.map((r: { project_id: number; role: ProjectRole }) => ({ projectId: r.project_id, role: r.role }));
 }
+
+export async function setPasswordHash(db: Db, userId: number, passwordHash: string, at: Date): Promise<void> {
+  await db('users').where({ id: userId }).update({ password_hash: passwordHash, updated_at: at.toISOString() });
+}

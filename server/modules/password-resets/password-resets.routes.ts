@@ -1,0 +1,25 @@
+import type { Request, Response } from 'express';
+import { completePasswordResetBody, linkBody, passwordResetRequestBody } from '../../../shared/schemas/auth';
+import { parsed } from '../../middleware/validate';
+import type { PasswordResetsService } from './password-resets.service';
+
+export function passwordResetsHandlers(resets: PasswordResetsService) {
+  return {
+    /** 202 with the same body whether or not an account has the address. */
+    async request(_req: Request, res: Response) {
+      res.status(202).json(await resets.request(parsed(res, 'body', passwordResetRequestBody).email));
+    },
+    async lookup(_req: Request, res: Response) {
+      res.json({ reset: await resets.lookup(parsed(res, 'body', linkBody).token) });
+    },
+    /** The account's sessions are gone from the store; this browser's session, if it was one of them, is dropped too. */
+    async complete(req: Request, res: Response) {
+      const { userId } = await resets.complete(parsed(res, 'body', completePasswordResetBody));
+      if (req.user?.id === userId && req.session) {
+        await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
+        res.clearCookie('starledger.sid');
+      }
+      res.json({ message: 'Your new password is set. Sign in with it; every earlier session has ended.' });
+    },
+  };
+}
