@@ -7,8 +7,8 @@ import * as trailAppendOnly from './20261202010000_trail_append_only';
 import * as mailOutbox from './20261202020000_mail_outbox';
 import * as derivedInterval from './20261202040000_derived_interval';
 import * as mailSummaryPreferences from './20261202030000_mail_summary_preferences';
-import * as invitationsPasswordResets from './20261202070000_invitations_password_resets';
 import * as uploadStorage from './20261202060000_upload_storage';
+import * as invitationsPasswordResets from './20261202070000_invitations_password_resets';
 import * as invitationsPasswordResets from './20261202070000_invitations_password_resets';
 
 /**
@@ -26,8 +26,8 @@ const migrations: Record<string, Knex.Migration> = {
   '20261202020000_mail_outbox': mailOutbox,
   '20261202040000_derived_interval': derivedInterval,
   '20261202030000_mail_summary_preferences': mailSummaryPreferences,
-  '20261202070000_invitations_password_resets': invitationsPasswordResets,
   '20261202060000_upload_storage': uploadStorage,
+  '20261202070000_invitations_password_resets': invitationsPasswordResets,
   '20261202070000_invitations_password_resets': invitationsPasswordResets,
 };
 
