@@ -57,3 +57,10 @@ export type PasswordResetLookup = z.infer<typeof passwordResetLookup>;
 
 export const completePasswordResetBody = linkBody.extend({ password: passwordRule });
 export type CompletePasswordResetBody = z.infer<typeof completePasswordResetBody>;
+
+/** The browser's forms have a password typed twice, so that a slip of the finger does not lock the account. */
+export const samePassword = (f: { password?: string; repeat: string }) => f.password === f.repeat;
+export const samePasswordIssue = { path: ['repeat'], message: 'The two passwords differ.' };
+
+export const choosePasswordForm = z.object({ password: passwordRule, repeat: z.string() }).refine(samePassword, samePasswordIssue);
+export type ChoosePasswordForm = z.infer<typeof choosePasswordForm>;

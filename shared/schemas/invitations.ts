@@ -32,13 +32,15 @@ export const invitationLookup = z.object({
 });
 export type InvitationLookup = z.infer<typeof invitationLookup>;
 
+/** What a new account chooses when accepting: a name and a password under the account rules. */
+export const newAccountFields = z.object({
+  name: z.string().trim().min(1, 'Enter your name.').max(120, 'Use at most 120 characters.'),
+  password: passwordRule,
+});
+
 /**
  * Accepting. A new account needs a name and a password; for an existing
  * account both are left out and the signed-in person must be its owner.
  */
-export const acceptInvitationBody = z.object({
-  token: linkToken,
-  name: z.string().trim().min(1, 'Enter your name.').max(120, 'Use at most 120 characters.').optional(),
-  password: passwordRule.optional(),
-});
+export const acceptInvitationBody = newAccountFields.partial().extend({ token: linkToken });
 export type AcceptInvitationBody = z.infer<typeof acceptInvitationBody>;

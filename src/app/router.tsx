@@ -1,19 +1,23 @@
-import { createBrowserRouter } from 'react-router-dom';
+import type { ComponentType } from 'react';
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { RouteError } from './routes/route-error';
 import { RouteLoading } from './routes/route-loading';
+
+/** A page reached without a session (signing in, a link from a mail), outside the signed-in shell. */
+function outsideTheWorkbook(path: string, lazy: () => Promise<{ Component: ComponentType }>): RouteObject {
+  return { path, HydrateFallback: RouteLoading, ErrorBoundary: RouteError, lazy };
+}
 
 /*
  * Every page is its own chunk, loaded when first visited, so the sign-in page
  * does not carry the tables, forms or the calculator's charts.
  */
 export const router = createBrowserRouter([
-  {
-    path: paths.auth.signIn.path,
-    HydrateFallback: RouteLoading,
-    ErrorBoundary: RouteError,
-    lazy: async () => ({ Component: (await import('./routes/sign-in')).SignInRoute }),
-  },
+  outsideTheWorkbook(paths.auth.signIn.path, async () => ({ Component: (await import('./routes/sign-in')).SignInRoute })),
+  outsideTheWorkbook(paths.auth.forgotPassword.path, async () => ({ Component: (await import('./routes/forgot-password')).ForgotPasswordRoute })),
+  outsideTheWorkbook(paths.auth.resetPassword.path, async () => ({ Component: (await import('./routes/reset-password')).ResetPasswordRoute })),
+  outsideTheWorkbook(paths.auth.invitation.path, async () => ({ Component: (await import('./routes/invitation')).InvitationRoute })),
   {
     path: paths.home.path,
     HydrateFallback: RouteLoading,

@@ -21,6 +21,20 @@ export const paths = {
       getHref: (redirectTo?: string | null) =>
         redirectTo && redirectTo !== '/' ? `/sign-in?redirectTo=${encodeURIComponent(redirectTo)}` : '/sign-in',
     },
+    forgotPassword: {
+      path: '/forgot-password',
+      getHref: () => '/forgot-password',
+    },
+    /** Opened from the reset mail; the link's token follows in the fragment (#…), which the browser never sends to a server. */
+    resetPassword: {
+      path: '/reset-password',
+      getHref: (token?: string) => (token ? `/reset-password#${token}` : '/reset-password'),
+    },
+    /** Opened from the invitation mail, the token in the fragment as for a reset. */
+    invitation: {
+      path: '/invitation',
+      getHref: (token?: string) => (token ? `/invitation#${token}` : '/invitation'),
+    },
   },
   project: {
     root: {

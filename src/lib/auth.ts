@@ -49,6 +49,14 @@ function forgetEverythingButTheSession(queryClient: QueryClient) {
   queryClient.removeQueries({ predicate: (query) => query.queryKey[0] !== authKeys.all[0] });
 }
 
+/** A session that began in this browser (sign-in, or an accepted invitation that created the account) replaces whatever was cached. */
+export function adoptSession(queryClient: QueryClient, me: MeResponse) {
+  setCsrfToken(me.csrfToken);
+  forgetEverythingButTheSession(queryClient);
+  queryClient.setQueryData(authKeys.me(), me);
+  void queryClient.invalidateQueries({ queryKey: authKeys.me() });
+}
+
 export function login(body: LoginBody): Promise<MeResponse> {
   return api.post<MeResponse>('/auth/login', body);
 }
@@ -57,12 +65,7 @@ export function useLogin() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: login,
-    onSuccess: (me) => {
-      setCsrfToken(me.csrfToken);
-      forgetEverythingButTheSession(queryClient);
-      queryClient.setQueryData(authKeys.me(), me);
-      void queryClient.invalidateQueries({ queryKey: authKeys.me() });
-    },
+    onSuccess: (me) => adoptSession(queryClient, me),
   });
 }
 

@@ -12,6 +12,27 @@ import { projectKeys } from '@/features/projects/api/keys';
 import { useMembers } from '@/features/members/api/get-members';
 import { MembersList } from '@/features/members/components/members-list';
 import { AddMemberForm } from '@/features/members/components/add-member-form';
+import { InviteForm } from '@/features/members/components/invite-form';
+import { PendingInvitations } from '@/features/members/components/pending-invitations';
+import { useInvitations } from '@/features/members/api/get-invitations';
+
+/** The lead's side of invitations: who is invited and not yet in, and a form to invite someone. */
+function Invitations({ projectId }: { projectId: number }) {
+  const invitations = useInvitations(projectId);
+  return (
+    <Section title="Invitations" className="mt-10">
+      <p className="mb-4 max-w-3xl text-sm text-ink-soft">
+        An invitation goes by e-mail with a link that works once, for 7 days. Someone new chooses a name and a password; someone with an account signs in and the project joins their list.
+      </p>
+      {invitations.isPending ? <StatusLine>Loading invitations…</StatusLine> : null}
+      {invitations.isError ? <QueryError what="The invitations" error={invitations.error} onRetry={() => void invitations.refetch()} inline /> : null}
+      {invitations.data ? <PendingInvitations projectId={projectId} invitations={invitations.data} /> : null}
+      <div className="mt-6">
+        <InviteForm projectId={projectId} />
+      </div>
+    </Section>
+  );
+}
 
 function MembersPage({ projectId }: { projectId: number }) {
   const user = useUser();
@@ -39,7 +60,7 @@ function MembersPage({ projectId }: { projectId: number }) {
         title="Members"
         description={
           canManage
-            ? 'The people in this project and their roles. As lead astronomer you add people, change roles and remove people.'
+            ? 'The people in this project and their roles. As lead astronomer you add and invite people, change roles and remove people.'
             : 'The people in this project and their roles. The lead astronomer manages membership.'
         }
       />
@@ -53,6 +74,7 @@ function MembersPage({ projectId }: { projectId: number }) {
           <AddMemberForm projectId={projectId} />
         </Section>
       ) : null}
+      {canManage ? <Invitations projectId={projectId} /> : null}
     </>
   );
 }

@@ -20,6 +20,8 @@ export const PROJECT_ACTION_WORDS = {
   'member.added': 'Member added',
   'member.role_changed': 'Role changed',
   'member.removed': 'Member removed',
+  'invitation.created': 'Invitation sent',
+  'invitation.revoked': 'Invitation withdrawn',
   'project.created': 'Project created',
   'project.updated': 'Settings changed',
 } as const satisfies Record<string, string>;
@@ -29,6 +31,7 @@ const PERSONAL_ACTION_WORDS: Record<string, string> = {
   'token.created': 'API token created',
   'token.revoked': 'API token revoked',
   'user.created': 'Account created',
+  'user.password_reset': 'Password set from a reset link',
 };
 
 export type ProjectAction = keyof typeof PROJECT_ACTION_WORDS;
@@ -45,6 +48,7 @@ const ENTITY_WORDS: Record<string, string> = {
   upload: 'Upload',
   derived_value: 'Value',
   member: 'Member',
+  invitation: 'Invitation',
   project: 'Project',
   token: 'API token',
   user: 'Account',
