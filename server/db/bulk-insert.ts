@@ -1,5 +1,5 @@
 import type { Database, Statement } from 'better-sqlite3';
-import type { Db } from './knex';
+import { isSqlite, type Db } from './knex';
 import { chunks } from '../lib/chunks';
 
 /**
@@ -19,7 +19,7 @@ export async function bulkInsert(db: Db, table: string, rows: Record<string, unk
   const head = `insert into ${db.client.wrapIdentifier(table)} (${columns.map((c) => db.client.wrapIdentifier(c)).join(', ')}) values `;
   const tuple = `(${columns.map(() => '?').join(', ')})`;
 
-  if (db.isTransaction && db.client.config.client === 'better-sqlite3') {
+  if (db.isTransaction && isSqlite(db)) {
     // knex hands a transaction's queries the one connection it holds.
     const connection: Database = await db.client.acquireConnection();
     const statement: Statement = connection.prepare(head + tuple);

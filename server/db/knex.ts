@@ -1,7 +1,30 @@
 import fs from 'node:fs';
 import path from 'node:path';
+import type { Database } from 'better-sqlite3';
 import knex, { type Knex } from 'knex';
+import { createRequire } from 'node:module';
 import { migrationSource } from '../../migrations';
+
+type SqliteClientClass = new (config: Knex.Config) => Knex.Client & { _query(connection: Database, obj: { sql: string }): Promise<unknown> };
+const BetterSqliteClient = createRequire(import.meta.url)('knex/lib/dialects/better-sqlite3/index.js') as SqliteClientClass;
+
+/**
+ * knex's better-sqlite3 client, with one change: a ROLLBACK after SQLite
+ * has already rolled the transaction back by itself is a no-op. SQLite does
+ * so on SQLITE_FULL, SQLITE_IOERR, SQLITE_NOMEM and some SQLITE_BUSY; knex
+ * then sends ROLLBACK anyway, gets "cannot rollback - no transaction is
+ * active" and rejects with that, hiding the cause (a full disk answered as
+ * a generic 500 instead of 507).
+ */
+class SqliteClient extends BetterSqliteClient {
+  override async _query(connection: Database, obj: { sql: string; response?: unknown }) {
+    if (/^ROLLBACK\b/i.test(obj.sql) && !connection.inTransaction) {
+      obj.response = { changes: 0 };
+      return obj;
+    }
+    return super._query(connection, obj);
+  }
+}
 
 export type Db = Knex;
 
@@ -10,15 +33,20 @@ export function resolveDatabaseUrl(url = process.env.DATABASE_URL): string {
   return url && url.trim() !== '' ? url : 'file:data/starledger.sqlite';
 }
 
-export function createDb(url = resolveDatabaseUrl()): Db {
+export interface DbOptions {
+  /** Open the SQLite file read-only (a check of start-up diagnostics; the app itself needs to write). */
+  readonly?: boolean;
+}
+
+export function createDb(url = resolveDatabaseUrl(), options: DbOptions = {}): Db {
   if (url.startsWith('postgres://') || url.startsWith('postgresql://')) {
     return knex({ client: 'pg', connection: url, compileSqlOnError: false, migrations: { migrationSource } });
   }
   const filename = url.replace(/^file:/, '');
   if (filename !== ':memory:') fs.mkdirSync(path.dirname(path.resolve(filename)), { recursive: true });
   return knex({
-    client: 'better-sqlite3',
-    connection: { filename },
+    client: SqliteClient as unknown as typeof Knex.Client,
+    connection: { filename, options: { readonly: options.readonly ?? false } },
     useNullAsDefault: true,
     // A failed query's message then carries its SQL with placeholders, not the values bound to it (an upload's bytes, a password hash).
     compileSqlOnError: false,
@@ -38,6 +66,51 @@ export function createDb(url = resolveDatabaseUrl()): Db {
   });
 }
 
+/** Whether the database is the embedded SQLite (through better-sqlite3) rather than PostgreSQL. */
+export function isSqlite(db: Db): boolean {
+  return (db.client as { driverName?: string }).driverName === 'better-sqlite3';
+}
+
 export async function migrateLatest(db: Db): Promise<void> {
   await db.migrate.latest({ migrationSource });
+}
+
+/** SQLITE_BUSY and SQLITE_LOCKED with their extended forms (SQLITE_BUSY_SNAPSHOT, …): another connection holds the lock. */
+export function isBusyError(err: unknown): boolean {
+  const code = (err as { code?: unknown } | null)?.code;
+  return typeof code === 'string' && (code.startsWith('SQLITE_BUSY') || code.startsWith('SQLITE_LOCKED'));
+}
+
+/**
+ * One small write that may be skipped, such as a "last used" stamp: on
+ * SQLite it is tried once without waiting for a lock held elsewhere (a
+ * backup, a second process, an upload's commit) and skipped when the
+ * database is busy. better-sqlite3 waits for a lock by blocking the whole
+ * process for up to busy_timeout, so waiting here would stall every other
+ * request. busy_timeout is 0 only for this statement: it is restored before
+ * the connection goes back to the pool, and nothing else runs on the
+ * connection in between (the calls are synchronous). Returns whether the
+ * write happened.
+ */
+export async function writeUnlessBusy(db: Db, sql: string, bindings: (string | number | null)[]): Promise<boolean> {
+  if (!isSqlite(db)) {
+    await db.raw(sql, bindings);
+    return true;
+  }
+  const connection: Database = await db.client.acquireConnection();
+  try {
+    const waited = connection.pragma('busy_timeout', { simple: true }) as number;
+    connection.pragma('busy_timeout = 0');
+    try {
+      connection.prepare(sql).run(...bindings);
+      return true;
+    } catch (err) {
+      if (isBusyError(err)) return false;
+      throw err;
+    } finally {
+      connection.pragma(`busy_timeout = ${Number(waited)}`);
+    }
+  } finally {
+    await db.client.releaseConnection(connection);
+  }
 }

@@ -1,6 +1,16 @@
 import type { NextFunction, Request, Response } from 'express';
 import { messageFor } from '../../shared/errors';
 import { AppError } from '../lib/errors';
+import { isBusyError } from '../db/knex';
+
+/** Seconds a client is asked to wait after a busy database: a lock held elsewhere (a backup's step, a commit) lasts about that long. */
+export const BUSY_RETRY_AFTER_S = 5;
+
+/** Disk full: SQLite's SQLITE_FULL (also for a full temporary store), the file system's ENOSPC, PostgreSQL's disk_full. */
+function isStorageFull(err: unknown): boolean {
+  const code = (err as { code?: unknown } | null)?.code;
+  return code === 'SQLITE_FULL' || code === 'ENOSPC' || code === '53100';
+}
 
 interface HttpishError {
   status?: number;
@@ -33,6 +43,17 @@ export function errorHandler(err: unknown, req: Request, res: Response, next: Ne
   }
   if (e.code === 'EBADCSRFTOKEN') {
     res.status(403).json({ error: { code: 'csrf_invalid', message: messageFor('csrf_invalid') } });
+    return;
+  }
+  // A lock held elsewhere is a moment's wait, not a fault: the client may retry.
+  if (isBusyError(err)) {
+    res.set('Retry-After', String(BUSY_RETRY_AFTER_S));
+    res.status(503).json({ error: { code: 'database_busy', message: messageFor('database_busy') } });
+    return;
+  }
+  if (isStorageFull(err)) {
+    console.error(`[${req.method} ${req.baseUrl}${req.path}] storage full:`, describeForLog(err));
+    res.status(507).json({ error: { code: 'storage_full', message: messageFor('storage_full') } });
     return;
   }
   const status = e.status ?? e.statusCode;

@@ -2,7 +2,7 @@ import request from 'supertest';
 import type { Express } from 'express';
 import { createApp } from '../../server/app';
 import { createDb, migrateLatest, type Db } from '../../server/db/knex';
-import { fixedClock } from '../../server/lib/clock';
+import { fixedClock, type Clock } from '../../server/lib/clock';
 import { hashPassword } from '../../server/lib/passwords';
 import { createMailInbox, type MailInbox } from '../../server/mail/fake-smtp';
 import { newLinkToken } from '../../server/lib/link-tokens';
@@ -37,8 +37,9 @@ export interface World {
  * members), a second project whose only member is the outsider, a site admin
  * who belongs to neither, and one target.
  */
-export async function makeWorld(options: { loginAttemptsPerWindow?: number; clientDir?: string } = {}): Promise<World> {
-  const db = createDb('file::memory:');
+export async function makeWorld(options: { loginAttemptsPerWindow?: number; clientDir?: string; clock?: Clock; databaseFile?: string } = {}): Promise<World> {
+  // A file when a test needs a second connection to the same database; in memory otherwise.
+  const db = createDb(`file:${options.databaseFile ?? ':memory:'}`);
   await migrateLatest(db);
   const at = '2026-11-30T22:00:00.000Z';
   const hash = await passwordHash;
@@ -62,7 +63,7 @@ export async function makeWorld(options: { loginAttemptsPerWindow?: number; clie
   const mailInbox = createMailInbox();
   const app = createApp({
     db,
-    clock: fixedClock('2026-12-01T03:00:00.000Z'),
+    clock: options.clock ?? fixedClock('2026-12-01T03:00:00.000Z'),
     sessionSecret: 'test-secret',
     sessionCleanupIntervalMs: 0,
     loginAttemptsPerWindow: options.loginAttemptsPerWindow,

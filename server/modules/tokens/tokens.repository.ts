@@ -1,4 +1,4 @@
-import type { Db } from '../../db/knex';
+import { writeUnlessBusy, type Db } from '../../db/knex';
 import type { ApiToken } from '../../../shared/schemas/tokens';
 import { toIso } from '../../lib/rows';
 
@@ -39,8 +39,9 @@ export async function findTokenOwner(db: Db, hash: string): Promise<{ id: number
   return row ? { id: row.id, userId: row.user_id } : undefined;
 }
 
-export async function touchToken(db: Db, id: number, at: Date): Promise<void> {
-  await db('api_tokens').where({ id }).update({ last_used_at: at.toISOString() });
+/** Stamps a token's last use unless the database is busy; returns whether it did. */
+export function touchToken(db: Db, id: number, at: Date): Promise<boolean> {
+  return writeUnlessBusy(db, 'update api_tokens set last_used_at = ? where id = ?', [at.toISOString(), id]);
 }
 
 export async function revokeToken(db: Db, userId: number, id: number, at: Date): Promise<number> {

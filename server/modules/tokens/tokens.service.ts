@@ -5,12 +5,44 @@ import type { User } from '../../../shared/schemas/auth';
 import { notFound } from '../../lib/errors';
 import { findUserById } from '../users/users.repository';
 import { appendTrail } from '../trail/trail.repository';
+import { describeForLog } from '../../middleware/error-handler';
 import { findTokenOwner, insertToken, listTokens, revokeToken, touchToken } from './tokens.repository';
 
 const PREFIX = 'slt_';
 const hashOf = (token: string) => createHash('sha256').update(token).digest('hex');
 
+/**
+ * A token's "last used" is stamped at most this often: a pipeline polling
+ * every second would otherwise turn each of its reads into a write, and a
+ * read must not wait on (or fail for) a lock someone else holds.
+ */
+export const TOUCH_INTERVAL_MS = 60_000;
+
 export function createTokensService(db: Db, clock: Clock) {
+  /** When each token's stamp was last written by this process. */
+  const stamped = new Map<number, number>();
+
+  /**
+   * Not awaited by the request: the read goes on whether the stamp is
+   * written, skipped because the database is busy (tried again on the next
+   * use) or fails.
+   */
+  function stamp(tokenId: number): void {
+    const now = clock.now();
+    const last = stamped.get(tokenId);
+    if (last !== undefined && now.getTime() - last < TOUCH_INTERVAL_MS) return;
+    stamped.set(tokenId, now.getTime());
+    touchToken(db, tokenId, now).then(
+      (written) => {
+        if (!written) stamped.delete(tokenId);
+      },
+      (err: unknown) => {
+        stamped.delete(tokenId);
+        console.error('[api token last-used stamp]', describeForLog(err));
+      },
+    );
+  }
+
   return {
     /** Makes a token; the plain text is returned once and only its hash is kept. */
     async create(userId: number, name: string) {
@@ -44,7 +76,7 @@ export function createTokensService(db: Db, clock: Clock) {
       if (!token.startsWith(PREFIX)) return undefined;
       const found = await findTokenOwner(db, hashOf(token));
       if (!found) return undefined;
-      await touchToken(db, found.id, clock.now());
+      stamp(found.id);
       return findUserById(db, found.userId);
     },
   };
