@@ -1,48 +1,18 @@
-import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
-import { CartesianGrid, ComposedChart, Line, ReferenceLine, Tooltip, XAxis, YAxis } from 'recharts';
+import { lazy, Suspense, useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { formatMeasured } from '@shared/physics/display';
 import { planckSpectralRadiance } from '@shared/physics/planck';
 import type { SpectrumPreview } from '@shared/schemas/uploads';
 import { DetailItem, DetailList } from '@/components/ui/detail-list';
-import { niceStep, niceTicks, tickRoom } from './nice-ticks';
+import { CHART_HEIGHT, PALETTE } from './spectrum-look';
+
+/** The plot brings the charting library, fetched only when a spectrum is drawn. */
+const SpectrumPlot = lazy(() => import('./spectrum-plot'));
 
 /** A Planck fit as the server sends it, for an upload's preview or a stored spectrum alike. */
 export type SpectrumFit = NonNullable<SpectrumPreview['fit']>;
 
 /** More points than a chart this wide can show; beyond it every n-th point is drawn (the fit used them all). */
 const MOST_POINTS_DRAWN = 1500;
-
-/*
- * The chart's look is the theme's own: the data as small dots in the soft ink,
- * the fit as a brass line on a halo of paper drawn over them, the peak in the
- * alert colour. Every colour is a theme token, so the night theme stays red
- * and print takes the print tokens.
- */
-const PALETTE = {
-  points: 'var(--sl-ink-soft)',
-  fit: 'var(--sl-brass)',
-  halo: 'var(--sl-paper)',
-  peak: 'var(--sl-alert)',
-  grid: 'var(--sl-rule)',
-  axis: 'var(--sl-ink-soft)',
-  text: 'var(--sl-ink)',
-  /** The points are drawn fainter than the fit: in the night theme every token is the same red, and brightness is what tells them apart. */
-  pointsOpacity: 0.55,
-} as const;
-
-const CHART_HEIGHT = 320;
-const MARGIN = { top: 12, right: 16, bottom: 30, left: 22 };
-const Y_AXIS_WIDTH = 52;
-/** Widest tick label in px at 12 px type ("1000", "−2.5"), for the room between ticks. */
-const X_LABEL_PX = 30;
-/** A tick label's height with the space it needs above and below, so the flux axis keeps about six ticks. */
-const Y_LABEL_PX = 24;
-
-const SUPERSCRIPT = '⁰¹²³⁴⁵⁶⁷⁸⁹';
-const superscript = (n: number) => `${n < 0 ? '⁻' : ''}${String(Math.abs(n)).split('').map((d) => SUPERSCRIPT[Number(d)]).join('')}`;
-const minus = (text: string) => text.replace('-', '−');
-
-type Point = { nm: number; flux: number; fit: number | undefined };
 
 /** The chart's width as laid out, so the number of ticks follows the room there is. */
 function useWidth() {
@@ -56,36 +26,6 @@ function useWidth() {
     return () => observer.disconnect();
   }, []);
   return { box, width };
-}
-
-/**
- * The flux axis: round ticks from zero (or the lowest point) to past the
- * highest, and one power of ten taken out into the axis title when the
- * numbers are very large or small, so a label never outgrows its room.
- */
-function fluxAxis(data: readonly Point[], plotHeight: number) {
-  let low = 0;
-  let high = 0;
-  for (const d of data) {
-    low = Math.min(low, d.flux, d.fit ?? 0);
-    high = Math.max(high, d.flux, d.fit ?? 0);
-  }
-  if (!(high > low)) high = low + 1;
-  const biggest = Math.max(Math.abs(low), Math.abs(high));
-  const exponent = biggest >= 1e4 || biggest < 1e-2 ? Math.floor(Math.log10(biggest)) : 0;
-  const scale = Math.pow(10, exponent);
-  const room = tickRoom(plotHeight, Y_LABEL_PX);
-  const step = niceStep((high - low) / scale / room) * scale;
-  const lo = Math.floor(low / step) * step;
-  const hi = Math.ceil(high / step) * step;
-  const { ticks } = niceTicks(lo / scale, hi / scale, room + 1);
-  const decimals = Math.max(0, -Math.floor(Math.log10(step / scale) + 1e-9));
-  return {
-    domain: [lo, hi] as [number, number],
-    ticks: ticks.map((t) => t * scale),
-    format: (v: number) => minus((v / scale).toFixed(decimals)),
-    title: exponent === 0 ? 'Flux (as sent)' : `Flux (as sent, × 10${superscript(exponent)})`,
-  };
 }
 
 /** Our own legend: the chart's three marks, each with its swatch and words. */
@@ -118,94 +58,6 @@ function SpectrumLegend({ pointCount, drawnCount, fitText, peakText }: { pointCo
         </li>
       ) : null}
     </ul>
-  );
-}
-
-/** The plot itself, at the measured width, with ticks chosen for that width. */
-function SpectrumPlot({
-  data,
-  width,
-  first,
-  last,
-  peakNm,
-  peakText,
-  hasFit,
-}: {
-  data: Point[];
-  width: number;
-  first: number;
-  last: number;
-  peakNm: number | null;
-  peakText: string | null;
-  hasFit: boolean;
-}) {
-  const plotWidth = width - MARGIN.left - MARGIN.right - Y_AXIS_WIDTH;
-  const plotHeight = CHART_HEIGHT - MARGIN.top - MARGIN.bottom;
-  const xTicks = niceTicks(first, last, tickRoom(plotWidth, X_LABEL_PX)).ticks;
-  const y = fluxAxis(data, plotHeight);
-  const dense = data.length > 400;
-  return (
-    <ComposedChart width={width} height={CHART_HEIGHT} data={data} margin={MARGIN}>
-      <CartesianGrid stroke={PALETTE.grid} strokeDasharray="2 4" horizontalValues={y.ticks} verticalValues={xTicks} />
-      <XAxis
-        dataKey="nm"
-        type="number"
-        domain={[first, last]}
-        ticks={xTicks}
-        interval={0}
-        allowDataOverflow
-        tickFormatter={(v: number) => String(v)}
-        stroke={PALETTE.axis}
-        tick={{ fill: PALETTE.text, fontSize: 12 }}
-        label={{ value: 'Wavelength (nm)', position: 'insideBottom', offset: -18, fill: PALETTE.text, fontSize: 12 }}
-      />
-      <YAxis
-        type="number"
-        domain={y.domain}
-        ticks={y.ticks}
-        interval={0}
-        tickFormatter={y.format}
-        stroke={PALETTE.axis}
-        tick={{ fill: PALETTE.text, fontSize: 12 }}
-        width={Y_AXIS_WIDTH}
-        label={{ value: y.title, angle: -90, position: 'left', offset: 6, fill: PALETTE.text, fontSize: 12, style: { textAnchor: 'middle' } }}
-      />
-      <Tooltip
-        formatter={(value, name) => [typeof value === 'number' ? value.toPrecision(4) : String(value), name]}
-        labelFormatter={(label) => `${Number(label).toFixed(1)} nm`}
-        contentStyle={{ background: 'var(--sl-paper)', borderColor: 'var(--sl-rule)', color: 'var(--sl-ink)' }}
-      />
-      <Line
-        type="linear"
-        dataKey="flux"
-        name="Spectrum as sent"
-        stroke="none"
-        dot={{ r: dense ? 1.2 : 1.8, fill: PALETTE.points, fillOpacity: PALETTE.pointsOpacity, stroke: 'none' }}
-        activeDot={{ r: 3, fill: PALETTE.points, stroke: PALETTE.halo }}
-        isAnimationActive={false}
-      />
-      {hasFit ? (
-        <Line type="monotone" dataKey="fit" stroke={PALETTE.halo} strokeWidth={7} dot={false} activeDot={false} tooltipType="none" isAnimationActive={false} />
-      ) : null}
-      {hasFit ? (
-        <Line type="monotone" dataKey="fit" name="Planck fit" stroke={PALETTE.fit} strokeWidth={3} dot={false} isAnimationActive={false} />
-      ) : null}
-      {peakNm !== null ? (
-        <ReferenceLine
-          x={peakNm}
-          stroke={PALETTE.peak}
-          strokeWidth={1.5}
-          strokeDasharray="3 2"
-          // The label sits on the side of the line with more room, so it is never cut at the plot's edge.
-          label={{
-            value: `Peak ${peakText ?? ''}`,
-            position: peakNm - first < last - peakNm ? 'insideBottomLeft' : 'insideBottomRight',
-            fill: PALETTE.text,
-            fontSize: 12,
-          }}
-        />
-      ) : null}
-    </ComposedChart>
   );
 }
 
@@ -321,7 +173,11 @@ export function SpectrumChart({
           style={{ height: CHART_HEIGHT }}
           data-testid="spectrum-chart"
         >
-          {width > 0 ? <SpectrumPlot data={data} width={width} first={first} last={last} peakNm={peakNm} peakText={peak?.text ?? null} hasFit={fit !== null} /> : null}
+          {width > 0 ? (
+            <Suspense fallback={null}>
+              <SpectrumPlot data={data} width={width} first={first} last={last} peakNm={peakNm} peakText={peak?.text ?? null} hasFit={fit !== null} />
+            </Suspense>
+          ) : null}
         </div>
       </figure>
       <div className="break-inside-avoid">
