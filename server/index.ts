@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { createApp } from './app';
 import { config, sessionSecret } from './config';
-import { createDb, migrateLatest, resolveDatabaseUrl } from './db/knex';
+import { createDb, DatabaseNotWritableError, migrateLatest, resolveDatabaseUrl } from './db/knex';
 import { systemClock } from './lib/clock';
 import { createSmtpMailer } from './mail/mailer';
 import { startFakeSmtp } from './mail/fake-smtp';
@@ -72,6 +72,7 @@ async function main() {
 }
 
 main().catch((err) => {
-  console.error(err);
+  // A cause the operator can fix is said in words; anything else with its stack.
+  console.error(err instanceof DatabaseNotWritableError ? err.message : err);
   process.exit(1);
 });

@@ -55,10 +55,15 @@ export function createDb(url = resolveDatabaseUrl(), options: DbOptions = {}): D
     pool: {
       min: 1,
       max: 1,
-      afterCreate(conn: { pragma(sql: string): unknown }, done: (err: Error | null, conn: unknown) => void) {
-        conn.pragma('journal_mode = WAL');
-        conn.pragma('foreign_keys = ON');
-        conn.pragma('busy_timeout = 5000');
+      afterCreate(conn: Database, done: (err: Error | null, conn: unknown) => void) {
+        try {
+          // Switching to WAL writes the file (and makes -wal and -shm beside it): the first place a read-only database fails.
+          conn.pragma('journal_mode = WAL');
+          conn.pragma('foreign_keys = ON');
+          conn.pragma('busy_timeout = 5000');
+        } catch (err) {
+          return done(notWritable(conn, err), conn);
+        }
         done(null, conn);
       },
     },
@@ -71,7 +76,59 @@ export function isSqlite(db: Db): boolean {
   return (db.client as { driverName?: string }).driverName === 'better-sqlite3';
 }
 
+/** The database cannot be written; its message names the file and the real cause, for the operator at start-up. */
+export class DatabaseNotWritableError extends Error {
+  override name = 'DatabaseNotWritableError';
+}
+
+/**
+ * Before migrating, one write that is rolled back straight away. Without it
+ * a read-only database first fails inside knex's migration lock, whose
+ * message ("Can't take lock to run migrations … knex migrate:unlock") sends
+ * the operator after a lock that is not the problem.
+ */
+async function checkWritable(db: Db): Promise<void> {
+  if (!isSqlite(db)) return;
+  const connection: Database = await db.client.acquireConnection();
+  try {
+    connection.exec('BEGIN IMMEDIATE');
+    connection.exec('CREATE TABLE starledger_write_check (x)');
+  } catch (err) {
+    throw notWritable(connection, err);
+  } finally {
+    if (connection.inTransaction) connection.exec('ROLLBACK');
+    await db.client.releaseConnection(connection);
+  }
+}
+
+/** A read-only or unopenable database as a DatabaseNotWritableError saying why; any other error as it is. */
+function notWritable(connection: Database, err: unknown): unknown {
+  const code = (err as { code?: string }).code ?? '';
+  const denied = code.startsWith('SQLITE_READONLY') || code.startsWith('SQLITE_CANTOPEN') || code === 'SQLITE_PERM';
+  return denied ? new DatabaseNotWritableError(whyNotWritable(connection, err as Error)) : err;
+}
+
+function whyNotWritable(connection: Database, err: Error): string {
+  const file = connection.name;
+  const head = `Starledger cannot write its database ${file}`;
+  const tail = `(SQLite: ${err.message}). Starledger needs to write the file and to create ${path.basename(file)}-wal and -shm beside it; fix the permissions or point DATABASE_URL at a writable file.`;
+  if (connection.readonly) return `${head}: it was opened read-only ${tail}`;
+  const uid = process.getuid?.();
+  for (const [what, target] of [['the file', file], ['its folder', path.dirname(file)]] as const) {
+    try {
+      fs.accessSync(target, fs.constants.W_OK);
+    } catch (e) {
+      const code = (e as NodeJS.ErrnoException).code;
+      if (code === 'EROFS') return `${head}: ${what} ${target} is on a read-only file system ${tail}`;
+      const st = fs.statSync(target);
+      return `${head}: ${what} ${target} is read-only for this process (mode ${(st.mode & 0o777).toString(8).padStart(4, '0')}, owner uid ${st.uid}; this process runs as uid ${uid}) ${tail}`;
+    }
+  }
+  return `${head} ${tail}`;
+}
+
 export async function migrateLatest(db: Db): Promise<void> {
+  await checkWritable(db);
   await db.migrate.latest({ migrationSource });
 }
 
