@@ -102,10 +102,11 @@ async function checkWritable(db: Db): Promise<void> {
 }
 
 /** A read-only or unopenable database as a DatabaseNotWritableError saying why; any other error as it is. */
-function notWritable(connection: Database, err: unknown): unknown {
+function notWritable(connection: Database, err: unknown): Error {
   const code = (err as { code?: string }).code ?? '';
   const denied = code.startsWith('SQLITE_READONLY') || code.startsWith('SQLITE_CANTOPEN') || code === 'SQLITE_PERM';
-  return denied ? new DatabaseNotWritableError(whyNotWritable(connection, err as Error)) : err;
+  if (denied) return new DatabaseNotWritableError(whyNotWritable(connection, err as Error));
+  return err instanceof Error ? err : new Error(String(err));
 }
 
 function whyNotWritable(connection: Database, err: Error): string {
