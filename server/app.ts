@@ -32,6 +32,8 @@ export interface AppOptions {
   /** The local mail fake's inbox, shown to the site admin; absent when mail goes to a real SMTP server. */
   mailInbox?: MailInbox;
   sessionCleanupIntervalMs?: number;
+  /** Which proxies' X-Forwarded-Proto to believe, in Express's `trust proxy` terms (TRUST_PROXY); loopback by default. */
+  trustProxy?: string | number | boolean;
   /** Where uploads are read and committed; see server/modules/uploads/upload-jobs.ts. */
   uploadJobs?: UploadJobs;
 }
@@ -44,7 +46,8 @@ export function createApp(options: AppOptions): Express {
 
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // req.secure (and so HSTS) follows X-Forwarded-Proto only from these proxies.
+  app.set('trust proxy', options.trustProxy ?? 'loopback');
   // Text assets and JSON compressed, brotli or gzip by what the client accepts (compression ≥ 1.8 speaks both).
   app.use(compression());
   app.use(
@@ -56,8 +59,16 @@ export function createApp(options: AppOptions): Express {
           upgradeInsecureRequests: null,
         },
       },
+      // Set below, and only over HTTPS: sent over plain HTTP it is ignored at
+      // best, and a LAN server that later gains HTTPS on another name would
+      // be pinned by a header it never meant.
+      strictTransportSecurity: false,
     }),
   );
+  app.use((req, res, next) => {
+    if (req.secure) res.set('Strict-Transport-Security', 'max-age=31536000; includeSubDomains');
+    next();
+  });
 
   const loginLimiter = rateLimit({
     windowMs: 15 * 60 * 1000,
@@ -69,6 +80,11 @@ export function createApp(options: AppOptions): Express {
   });
 
   const api = express.Router();
+  // API answers are one person's view of live data: no browser or proxy keeps them.
+  api.use((_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
   api.use(express.json({ limit: '1mb' }));
   api.use(
     sessionMiddleware(db, {

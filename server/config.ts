@@ -14,12 +14,21 @@ export const config = {
   mailWorker: process.env.MAIL_WORKER !== 'false',
   mailFrom: process.env.MAIL_FROM ?? 'Starledger <starledger@localhost>',
   secureCookies: process.env.COOKIE_SECURE === 'true',
+  /** Proxies whose X-Forwarded-Proto says a request came over HTTPS (Express `trust proxy`: loopback, an address, a subnet, a hop count). */
+  trustProxy: trustProxyOf(process.env.TRUST_PROXY ?? 'loopback'),
   seedDemo: process.env.SEED_DEMO !== 'false',
   dataDir: path.resolve(process.env.DATA_DIR ?? 'data'),
   clientDir: path.resolve(process.env.CLIENT_DIR ?? 'dist'),
   /** Hours a preview may wait for its commit before it is discarded (its file is kept). */
   previewMaxAgeHours: Number(process.env.PREVIEW_MAX_AGE_HOURS ?? 48),
 };
+
+/** A hop count and true/false as Express reads them; anything else (loopback, addresses, subnets) as written. */
+function trustProxyOf(value: string): string | number | boolean {
+  if (/^\d+$/.test(value)) return Number(value);
+  if (value === 'true' || value === 'false') return value === 'true';
+  return value;
+}
 
 /** SESSION_SECRET, or one made once and kept under data/ so sessions survive a restart. */
 export function sessionSecret(): string {

@@ -38,6 +38,7 @@ async function main() {
     mailer,
     sessionSecret: sessionSecret(),
     secureCookies: config.secureCookies,
+    trustProxy: config.trustProxy,
     clientDir: config.clientDir,
     publicUrl: config.publicUrl,
     mailInbox: fake?.inbox,
