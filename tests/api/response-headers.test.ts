@@ -10,14 +10,14 @@ describe('response headers', () => {
   it('marks every API answer no-store: signed in, anonymous, refused and unknown routes alike', async () => {
     world = await makeWorld();
     const { agent } = await signIn(world.app, 'reader');
-    for (const res of [
-      await agent.get(`/api/projects/${world.projectId}/targets`),
-      await agent.get('/api/auth/me'),
-      await request(world.app).get('/api/projects'),
-      await request(world.app).get('/api/no-such-route'),
-    ]) {
-      expect(res.headers['cache-control'], res.req.path).toBe('no-store');
-    }
+    const answers = {
+      targets: await agent.get(`/api/projects/${world.projectId}/targets`),
+      me: await agent.get('/api/auth/me'),
+      anonymous: await request(world.app).get('/api/projects'),
+      unknown: await request(world.app).get('/api/no-such-route'),
+    };
+    expect(answers.anonymous.status).toBe(401);
+    for (const [which, res] of Object.entries(answers)) expect(res.headers['cache-control'], which).toBe('no-store');
   });
 
   it('sends HSTS only on a request that came over HTTPS, judged by a trusted proxy’s X-Forwarded-Proto', async () => {
