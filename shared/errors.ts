@@ -16,7 +16,7 @@ export const errorCodes = {
   not_proposed: 'Only proposed values can be approved or rejected.',
   csrf_invalid: 'The form was stale or came from another site. Reload the page and try again.',
   rate_limited: 'Too many attempts. Wait a few minutes and try again.',
-  link_unknown: 'This link is not known. Open it again from the e-mail and make sure none of it is missing.',
+  link_unknown: 'This link is not known.',
   link_expired: 'This link has expired.',
   link_used: 'This link has already been used.',
   link_revoked: 'This invitation was withdrawn.',

@@ -23,3 +23,5 @@ export function linkRefusal(row: { expiresAt: string; usedAt: string | null; rev
   if (new Date(row.expiresAt).getTime() <= now.getTime()) return 'link_expired';
   return null;
 }
+
+export const UNKNOWN_LINK = 'This link is not known. Open it again from the e-mail and make sure none of it is missing.';

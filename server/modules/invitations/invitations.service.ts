@@ -4,7 +4,7 @@ import type { User } from '../../../shared/schemas/auth';
 import type { AcceptInvitationBody, CreateInvitationBody, Invitation, InvitationLookup } from '../../../shared/schemas/invitations';
 import type { FieldIssue } from '../../../shared/errors';
 import { AppError, conflict, forbidden, notFound, validationFailed } from '../../lib/errors';
-import { expiresAfter, hashLinkToken, linkRefusal, newLinkToken } from '../../lib/link-tokens';
+import { expiresAfter, hashLinkToken, linkRefusal, newLinkToken, UNKNOWN_LINK } from '../../lib/link-tokens';
 import { hashPassword } from '../../lib/passwords';
 import { enqueueMail } from '../../mail/outbox';
 import { appendTrail } from '../trail/trail.repository';
@@ -40,7 +40,7 @@ export function createInvitationsService(db: Db, clock: Clock, options: { public
   /** The invitation a link names, if it can still be accepted; a clear refusal otherwise. */
   async function usable(token: string, now: Date): Promise<StoredInvitation> {
     const inv = await findInvitationByHash(db, hashLinkToken(token));
-    if (!inv) throw new AppError(404, 'link_unknown');
+    if (!inv) throw new AppError(404, 'link_unknown', UNKNOWN_LINK);
     const refusal = linkRefusal(inv, now);
     if (refusal) throw new AppError(410, refusal, refusalWords[refusal]);
     return inv;

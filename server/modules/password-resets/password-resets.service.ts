@@ -3,7 +3,7 @@ import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
 import type { CompletePasswordResetBody, PasswordResetLookup } from '../../../shared/schemas/auth';
 import { AppError } from '../../lib/errors';
-import { expiresAfter, hashLinkToken, linkRefusal, newLinkToken } from '../../lib/link-tokens';
+import { expiresAfter, hashLinkToken, linkRefusal, newLinkToken, UNKNOWN_LINK } from '../../lib/link-tokens';
 import { hashPassword } from '../../lib/passwords';
 import { enqueueMail } from '../../mail/outbox';
 import { appendTrail } from '../trail/trail.repository';
@@ -35,7 +35,7 @@ export function createPasswordResetsService(db: Db, clock: Clock, options: { pub
 
   async function usable(token: string): Promise<StoredReset> {
     const reset = await findResetByHash(db, hashLinkToken(token));
-    if (!reset) throw new AppError(404, 'link_unknown');
+    if (!reset) throw new AppError(404, 'link_unknown', UNKNOWN_LINK);
     const refusal = linkRefusal(reset, clock.now());
     if (refusal) throw new AppError(410, refusal, refusalWords[refusal]);
     return reset;

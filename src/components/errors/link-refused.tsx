@@ -15,7 +15,7 @@ export function LinkRefused({ error, what, next, onRetry }: { error: Error; what
   if (isApiError(error) && LINK_CODES.has(error.code)) {
     return (
       <Alert title={messageFor(error.code)}>
-        <p>{error.message}</p>
+        {error.message !== messageFor(error.code) ? <p>{error.message}</p> : null}
         <p className="mt-2">{next}</p>
       </Alert>
     );
