@@ -3,6 +3,7 @@ import { createRequire } from 'node:module';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { browserSuite, chromiumAvailable, screenshot } from './support/harness';
+import { apiWrite, linkFromMail } from './support/mail';
 
 /**
  * The review loop's pages checked by axe-core (the Deque engine, WCAG 2.0,
@@ -33,6 +34,9 @@ async function axeViolations(page: Page): Promise<string[]> {
 interface Ids {
   target: number;
   upload: number;
+  /** Path and fragment of a mailed invitation link and of a mailed reset link. */
+  invitation: string;
+  reset: string;
 }
 
 /** A page to check; `who` null is a visitor who has not signed in. `fitsPhone` pages must not scroll sideways at 390 px. */
@@ -46,6 +50,22 @@ interface PageSpec {
 
 const pages: PageSpec[] = [
   { name: 'sign-in', who: null, path: () => '/sign-in', ready: (p) => p.getByRole('heading', { name: 'Sign in' }).waitFor() },
+  { name: 'forgot-password', who: null, path: () => '/forgot-password', ready: (p) => p.getByRole('heading', { name: 'Forgot your password?' }).waitFor(), fitsPhone: true },
+  { name: 'reset-password', who: null, path: ({ reset }) => reset, ready: (p) => p.getByLabel('New password', { exact: true }).waitFor(), fitsPhone: true },
+  { name: 'invitation', who: null, path: ({ invitation }) => invitation, ready: (p) => p.getByRole('button', { name: 'Create my account and join' }).waitFor(), fitsPhone: true },
+  {
+    name: 'invitation-refused',
+    who: null,
+    path: () => `/invitation#${'Q'.repeat(43)}`,
+    ready: (p) => p.getByText('Error: This link is not known.', { exact: true }).waitFor(),
+    fitsPhone: true,
+  },
+  {
+    name: 'members',
+    who: 'lead@demo.invalid',
+    path: () => '/projects/1/members',
+    ready: (p) => p.getByRole('table', { name: 'Invitations waiting for an answer' }).waitFor(),
+  },
   { name: 'home', who: 'lead@demo.invalid', path: () => '/', ready: (p) => p.getByRole('heading', { name: /recent activity/i }).waitFor() },
   {
     name: 'project',
@@ -138,7 +158,15 @@ describe.skipIf(!chromiumAvailable)('accessibility of the review pages (axe-core
       };
       const lead = await pageFor('lead@demo.invalid');
       const targets = await lead.evaluate(async () => (await (await fetch('/api/projects/1/targets?q=GW101')).json()) as { items: { id: number }[] });
-      const ids: Ids = { target: targets.items[0].id, upload: await uploadWithErrors(lead, baseUrl()) };
+      // A waiting invitation and a reset link, each read from what the mail fake received.
+      const invitee = `a11y-${theme}@demo.invalid`;
+      expect((await apiWrite(lead, 'POST', '/projects/1/invitations', { email: invitee, role: 'reader' })).status).toBe(201);
+      const visitor = await pageFor(null);
+      await visitor.evaluate(() => fetch('/api/auth/password-reset', { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: 'pi@demo.invalid' }) }));
+      const admin = await pageFor('admin@demo.invalid');
+      const invitation = (await linkFromMail(admin, invitee, 'invitation')).path;
+      const reset = (await linkFromMail(admin, 'pi@demo.invalid', 'reset-password')).path;
+      const ids: Ids = { target: targets.items[0].id, upload: await uploadWithErrors(lead, baseUrl()), invitation, reset };
       for (const spec of pages) {
         const page = await pageFor(spec.who);
         for (const width of [390, 1366]) {
