@@ -17,6 +17,7 @@ function useShellProject(projectIdParam: string | undefined) {
     enabled: projectId !== null,
     throwOnError: false,
   });
+  if (projectId !== null && query.isPending) return 'pending' as const;
   return projectId !== null && query.data
     ? {
         id: query.data.id,
@@ -26,6 +27,7 @@ function useShellProject(projectIdParam: string | undefined) {
         canReadQueue: roleCan(query.data.myRole, 'readQueue'),
         canReadTrail: roleCan(query.data.myRole, 'readTrail'),
         canManageSettings: roleCan(query.data.myRole, 'manageSettings'),
+        canManageSummary: roleCan(query.data.myRole, 'manageSummary'),
       }
     : null;
 }
@@ -60,7 +62,8 @@ export function AppRoot() {
     <AppShell
       userName={me.data.user.name}
       isSiteAdmin={me.data.user.isSiteAdmin}
-      project={project}
+      project={project === 'pending' ? null : project}
+      projectPending={project === 'pending'}
       signingOut={logout.isPending}
       signOutError={logout.isError ? logout.error.message : null}
       onSignOut={() => {

@@ -49,8 +49,9 @@ function ProjectPage({ projectId }: { projectId: number }) {
       />
       {notice ? <Alert kind="done" title={notice} className="mb-4" /> : null}
       <h2 className="sr-only">Targets</h2>
-      <TargetsTable projectId={projectId} canEdit={canEdit} canReadQueue={roleCan(data.myRole, 'readQueue')} />
-      {data.myRole ? <ValuesExport projectId={projectId} canSeeProposed={roleCan(data.myRole, 'readProposed')} /> : null}
+      <TargetsTable projectId={projectId} canEdit={canEdit} canReadQueue={roleCan(data.myRole, 'readQueue')}>
+        {data.myRole ? <ValuesExport projectId={projectId} canSeeProposed={roleCan(data.myRole, 'readProposed')} /> : null}
+      </TargetsTable>
     </>
   );
 }

@@ -60,6 +60,14 @@ function TargetReadings({
   const measurements = useMeasurements(projectId, targetId);
   const current = derived.data ? currentValues(derived.data) : [];
   const onDiagram = current.some((v) => v.quantity === 'temperature') && current.some((v) => v.quantity === 'luminosity');
+  // The sections come in together once all three lists are in: one arriving before another would push what is below it down the page.
+  if (derived.isPending || measurements.isPending || spectra.isPending) {
+    return (
+      <Section title="Derived values" className="mt-10">
+        <StatusLine>Loading the derived values, spectra and measurements…</StatusLine>
+      </Section>
+    );
+  }
   const uploadLink = canUpload ? (
     <Link className={linkClasses} to={paths.project.upload.getHref(projectId)}>
       Upload measurements
@@ -82,7 +90,6 @@ function TargetReadings({
             </Link>
           </p>
         ) : null}
-        {derived.isPending || measurements.isPending ? <StatusLine>Loading the derived values…</StatusLine> : null}
         {derived.isError ? <QueryError what="The derived values" error={derived.error} onRetry={() => void derived.refetch()} /> : null}
         {derived.data && measurements.data ? (
           derived.data.length > 0 ? (
@@ -125,7 +132,6 @@ function TargetReadings({
         </Section>
       ) : null}
       <Section title="Measurements" className="mt-10">
-        {measurements.isPending ? <StatusLine>Loading the measurements…</StatusLine> : null}
         {measurements.isError ? (
           <QueryError what="The measurements" error={measurements.error} onRetry={() => void measurements.refetch()} />
         ) : null}

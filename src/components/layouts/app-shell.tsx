@@ -17,6 +17,8 @@ export interface ShellProject {
   canReadTrail: boolean;
   /** The lead astronomer sees the Settings link (permission manageSettings). */
   canManageSettings: boolean;
+  /** The PI and the lead astronomer see the Weekly summary link (permission manageSummary). */
+  canManageSummary: boolean;
 }
 
 const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
@@ -24,6 +26,9 @@ const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
     'border-b-2 px-1 py-1 text-sm',
     isActive ? 'border-brass font-semibold text-ink' : 'border-transparent text-ink-soft hover:border-rule hover:text-ink',
   );
+
+/** The project bar's box, the same whether it holds the project or keeps its room while the project loads. */
+const PROJECT_BAR = 'mx-auto min-h-12 max-w-6xl px-6 py-2';
 
 /**
  * The frame around every signed-in page: the wordmark, the main places, the
@@ -34,6 +39,7 @@ export function AppShell({
   userName,
   isSiteAdmin,
   project,
+  projectPending = false,
   onSignOut,
   signingOut,
   signOutError,
@@ -42,6 +48,8 @@ export function AppShell({
   userName: string;
   isSiteAdmin: boolean;
   project?: ShellProject | null;
+  /** A project page whose project is still loading: its bar's room is kept, so the page does not move down when it arrives. */
+  projectPending?: boolean;
   onSignOut: () => void;
   signingOut: boolean;
   signOutError?: string | null;
@@ -82,9 +90,14 @@ export function AppShell({
               Calculator
             </NavLink>
             {isSiteAdmin ? (
-              <NavLink to={paths.admin.users.getHref()} className={navLinkClasses}>
-                Users
-              </NavLink>
+              <>
+                <NavLink to={paths.admin.users.getHref()} className={navLinkClasses}>
+                  Users
+                </NavLink>
+                <NavLink to={paths.admin.mail.getHref()} className={navLinkClasses}>
+                  Caught mail
+                </NavLink>
+              </>
             ) : null}
           </nav>
           <div className="ml-auto flex flex-wrap items-center gap-3">
@@ -96,6 +109,9 @@ export function AppShell({
             <NavLink to={paths.account.tokens.getHref()} className={navLinkClasses}>
               API tokens
             </NavLink>
+            <NavLink to={paths.account.mail.getHref()} className={navLinkClasses}>
+              Mail
+            </NavLink>
             <button
               type="button"
               onClick={onSignOut}
@@ -106,9 +122,14 @@ export function AppShell({
             </button>
           </div>
         </div>
+        {projectPending ? (
+          <div className="border-t border-rule" aria-hidden="true">
+            <div className={PROJECT_BAR} />
+          </div>
+        ) : null}
         {project ? (
           <div className="border-t border-rule">
-            <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-1 px-6 py-2">
+            <div className={cn(PROJECT_BAR, 'flex flex-wrap items-center gap-x-6 gap-y-1')}>
               <p className="text-sm">
                 <span className="text-xs font-semibold tracking-[0.18em] text-brass-deep uppercase">{project.code}</span>{' '}
                 <span className="font-serif font-semibold">{project.name}</span>
@@ -149,6 +170,11 @@ export function AppShell({
                 <NavLink to={paths.project.members.getHref(project.id)} className={navLinkClasses}>
                   Members
                 </NavLink>
+                {project.canManageSummary ? (
+                  <NavLink to={paths.project.summary.getHref(project.id)} className={navLinkClasses}>
+                    Summary
+                  </NavLink>
+                ) : null}
                 {project.canManageSettings ? (
                   <NavLink to={paths.project.settings.getHref(project.id)} className={navLinkClasses}>
                     Settings

@@ -133,7 +133,18 @@ const valueColumns: { quantity: TableQuantity; header: ReactNode }[] = [
  * approved values only); roles that read the review queue also get the
  * "awaiting review" filter and, per target, a link to its proposals.
  */
-export function TargetsTable({ projectId, canEdit, canReadQueue }: { projectId: number; canEdit: boolean; canReadQueue: boolean }) {
+export function TargetsTable({
+  projectId,
+  canEdit,
+  canReadQueue,
+  children,
+}: {
+  projectId: number;
+  canEdit: boolean;
+  canReadQueue: boolean;
+  /** What follows the table on the page: shown once the first page of targets is in, so the table's arrival does not push it down. */
+  children?: ReactNode;
+}) {
   const [searchParams, setSearchParams] = useSearchParams();
   const params = readParams(searchParams);
   const update = (next: Partial<TargetListParams>, { resetPage = true } = {}) =>
@@ -401,6 +412,7 @@ export function TargetsTable({ projectId, canEdit, canReadQueue }: { projectId: 
           />
         </>
       ) : null}
+      {data || query.isError ? children : null}
     </div>
   );
 }
