@@ -9,6 +9,7 @@ import * as derivedInterval from './20261202040000_derived_interval';
 import * as mailSummaryPreferences from './20261202030000_mail_summary_preferences';
 import * as uploadStorage from './20261202060000_upload_storage';
 import * as invitationsPasswordResets from './20261202070000_invitations_password_resets';
+import * as targetListIndexes from './20261202080000_target_list_indexes';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -27,6 +28,7 @@ const migrations: Record<string, Knex.Migration> = {
   '20261202030000_mail_summary_preferences': mailSummaryPreferences,
   '20261202060000_upload_storage': uploadStorage,
   '20261202070000_invitations_password_resets': invitationsPasswordResets,
+  '20261202080000_target_list_indexes': targetListIndexes,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

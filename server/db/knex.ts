@@ -61,6 +61,8 @@ export function createDb(url = resolveDatabaseUrl(), options: DbOptions = {}): D
           conn.pragma('journal_mode = WAL');
           conn.pragma('foreign_keys = ON');
           conn.pragma('busy_timeout = 5000');
+          // 64 MiB of page cache rather than SQLite's 2 MiB: the indexes of a 100 000-target project then stay in memory between requests.
+          conn.pragma('cache_size = -65536');
         } catch (err) {
           return done(notWritable(conn, err), conn);
         }

@@ -189,17 +189,33 @@ export interface QueueRow extends NamedDerivedRow {
 }
 
 /** One page of proposed values, by target designation then derivation-table order. */
+/**
+ * Past this many proposals a queue page is read in designation order from
+ * the targets' index, stopping once the page is full; below it, the few
+ * proposals are sorted. Sorting 10 000 proposals for each 25-row page took
+ * 160 ms at 100 000 targets, while walking the index of a project with a
+ * handful of proposals would visit every target to find them.
+ */
+const WALK_TARGETS_FROM = 1_000;
+
 export async function proposedPage(db: Db, projectId: number, query: ReviewQueueQuery): Promise<{ rows: QueueRow[]; total: number }> {
-  const filtered = () => {
-    const q = db('derived_values as d').join('targets as t', 't.id', 'd.target_id').where({ 'd.project_id': projectId, 'd.status': 'proposed' });
+  const filters = (q: Knex.QueryBuilder) => {
+    q.where({ 'd.project_id': projectId, 'd.status': 'proposed' });
     if (query.targetId) q.where('d.target_id', query.targetId);
     if (query.quantity) q.where('d.quantity', query.quantity);
     if (query.warnings === 'with') q.whereNot('d.warnings_json', '[]');
     if (query.warnings === 'without') q.where('d.warnings_json', '[]');
     return q;
   };
-  const [{ n }] = await filtered().count<{ n: number | string }[]>({ n: '*' });
-  const rows: QueueRow[] = await filtered()
+  // A derived value's target is always in the value's project, so the count needs no join.
+  const [{ n }] = await filters(db('derived_values as d')).count<{ n: number | string }[]>({ n: '*' });
+  const total = Number(n);
+  // CROSS JOIN makes SQLite keep the written order (targets outside); PostgreSQL plans it as the inner join it is.
+  const page =
+    total >= WALK_TARGETS_FROM
+      ? db('targets as t').joinRaw('CROSS JOIN derived_values AS d').whereRaw('d.target_id = t.id').andWhere('t.project_id', projectId)
+      : db('derived_values as d').join('targets as t', 't.id', 'd.target_id');
+  const rows: QueueRow[] = await filters(page)
     .leftJoin('users as pu', 'pu.id', 'd.proposed_by_user_id')
     .leftJoin('users as ru', 'ru.id', 'd.reviewer_user_id')
     .select('d.*', 'pu.name as proposed_by_name', 'ru.name as reviewer_name', 't.designation')
@@ -208,7 +224,7 @@ export async function proposedPage(db: Db, projectId: number, query: ReviewQueue
     .orderByRaw(quantityOrder(db))
     .limit(query.pageSize)
     .offset((query.page - 1) * query.pageSize);
-  return { rows, total: Number(n) };
+  return { rows, total };
 }
 
 /** Where each measurement came from: its upload (file name) and row. */
