@@ -78,6 +78,10 @@ export const paths = {
       /** With a target, the queue opens filtered to that target's values. */
       getHref: (projectId: Id, targetId?: Id) => `/projects/${projectId}/review${targetId === undefined ? '' : `?target=${targetId}`}`,
     },
+    summary: {
+      path: '/projects/:projectId/summary',
+      getHref: (projectId: Id) => `/projects/${projectId}/summary`,
+    },
     hr: {
       path: '/projects/:projectId/hr',
       getHref: (projectId: Id) => `/projects/${projectId}/hr`,
@@ -93,11 +97,19 @@ export const paths = {
       path: '/account/tokens',
       getHref: () => '/account/tokens',
     },
+    mail: {
+      path: '/account/mail',
+      getHref: () => '/account/mail',
+    },
   },
   admin: {
     users: {
       path: '/admin/users',
       getHref: () => '/admin/users',
+    },
+    mail: {
+      path: '/admin/mail',
+      getHref: () => '/admin/mail',
     },
   },
   calculator: {
