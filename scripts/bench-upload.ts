@@ -5,53 +5,15 @@
  * statements in one transaction. Prints wall times, rows per second, the
  * ratio, and the server's peak resident memory (VmHWM).
  */
-import { execFileSync, spawn } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import path from 'node:path';
 import Database from 'better-sqlite3';
 import { createDb, migrateLatest } from '../server/db/knex';
+import { makeFile, root, signInAs, startProductionServer } from './bench-support';
 
 const ROWS = Number(process.env.BENCH_ROWS ?? 100_000);
 const TARGETS = Number(process.env.BENCH_TARGETS ?? 10_000);
-const root = path.resolve(import.meta.dirname, '..');
 const dir = fs.mkdtempSync(path.join(root, 'data', 'bench-'));
-
-const QUANTITIES = [
-  (i: number) => `magnitude,${(6 + (i % 50) / 10).toFixed(2)},0.02,mag,V,,`,
-  (i: number) => `colour_index,${(0.2 + (i % 120) / 100).toFixed(3)},0.02,mag,B-V,,`,
-  (i: number) => `parallax,${(5 + (i % 400) / 10).toFixed(2)},0.3,mas,,,`,
-  (i: number) => `peak_wavelength,${400 + (i % 500)},5,nm,,,`,
-  (i: number) => `extinction,${((i % 10) / 100).toFixed(2)},0.01,mag,,,`,
-  (i: number) => `line_wavelength,${(656.28 + (i % 20) / 1000).toFixed(4)},0.004,nm,,656.279,`,
-  (i: number) => `bolometric_flux,${(1e-9 * (1 + (i % 30))).toExponential(3)},1e-11,W/m2,,,`,
-  (i: number) => `limb_separation,${(0.01 + (i % 9) / 1000).toFixed(4)},0.001,nm,,656.279,`,
-  (i: number) => `zeeman_separation,${(0.005 + (i % 7) / 1000).toFixed(4)},0.001,nm,,630.25,2.5`,
-  (i: number) => `magnitude,${(6.5 + (i % 40) / 10).toFixed(2)},0.02,mag,B,,`,
-];
-
-function makeFile(): string {
-  const lines = ['target,ra,dec,quantity,value,uncertainty,unit,band,rest_wavelength,lande_g,observed_at'];
-  const perTarget = Math.ceil(ROWS / TARGETS);
-  for (let r = 0; r < ROWS; r++) {
-    const t = Math.floor(r / perTarget);
-    const first = r % perTarget === 0;
-    // In whole units of 0.0001°, so that rounding can never print 360.0000 (RA lies in [0°, 360°)).
-    const ra = first ? (((t * 360) % 3_600_000) / 10_000).toFixed(4) : '';
-    const dec = first ? (((t * 170) % 1_700_000) / 10_000 - 85).toFixed(4) : '';
-    lines.push(`BENCH ${t},${ra},${dec},${QUANTITIES[r % perTarget % QUANTITIES.length](r)},2026-11-30T22:00:00Z`);
-  }
-  return lines.join('\n') + '\n';
-}
-
-async function freePort(): Promise<number> {
-  return new Promise((resolve) => {
-    const s = net.createServer().listen(0, '127.0.0.1', () => {
-      const { port } = s.address() as net.AddressInfo;
-      s.close(() => resolve(port));
-    });
-  });
-}
 
 function peakRssMb(pid: number): number {
   const status = fs.readFileSync(`/proc/${pid}/status`, 'utf8');
@@ -59,19 +21,8 @@ function peakRssMb(pid: number): number {
 }
 
 async function throughApi(file: string) {
-  const port = await freePort();
-  // The production bundle, as `npm start` runs it.
-  execFileSync('npm', ['run', 'build:server', '--silent'], { cwd: root, stdio: 'ignore' });
-  const server = spawn(process.execPath, [...(process.env.BENCH_NODE_OPTIONS?.split(' ') ?? []), 'build/server.js'], {
-    cwd: root,
-    env: { ...process.env, PORT: String(port), DATA_DIR: dir, DATABASE_URL: `file:${path.join(dir, 'api.sqlite')}`, SESSION_SECRET: 'bench', SEED_DEMO: 'true' },
-    stdio: ['ignore', 'pipe', 'inherit'],
-  });
-  await new Promise<void>((resolve) => server.stdout!.on('data', (c: Buffer) => c.toString().includes('running') && resolve()));
-  const base = `http://127.0.0.1:${port}/api`;
-  const login = await fetch(`${base}/auth/login`, { method: 'POST', headers: { 'Content-Type': 'application/json' }, body: JSON.stringify({ email: 'observer@demo.invalid', password: 'observer-demo-2026' }) });
-  const cookie = login.headers.get('set-cookie')!.split(';')[0];
-  const { csrfToken } = (await login.json()) as { csrfToken: string };
+  const { base, process: server } = await startProductionServer(dir, process.env.BENCH_NODE_OPTIONS?.split(' ') ?? []);
+  const { cookie, csrfToken } = await signInAs(base, 'observer@demo.invalid', 'observer-demo-2026');
   const tokenRes = await fetch(`${base}/tokens`, { method: 'POST', headers: { 'Content-Type': 'application/json', Cookie: cookie, 'X-CSRF-Token': csrfToken }, body: JSON.stringify({ name: 'bench' }) });
   const { token } = (await tokenRes.json()) as { token: string };
   const auth = { Authorization: `Bearer ${token}` };
@@ -122,7 +73,7 @@ async function floor(file: string) {
   return ms;
 }
 
-const file = makeFile();
+const file = makeFile(ROWS, TARGETS);
 console.log(`Starledger upload benchmark: ${ROWS.toLocaleString('en')} rows over ${TARGETS.toLocaleString('en')} targets (${(file.length / 1e6).toFixed(1)} MB)`);
 const api = await throughApi(file);
 const floorMs = await floor(file);

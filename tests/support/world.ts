@@ -5,6 +5,7 @@ import { createDb, migrateLatest, type Db } from '../../server/db/knex';
 import { fixedClock, type Clock } from '../../server/lib/clock';
 import { hashPassword } from '../../server/lib/passwords';
 import { createMailInbox, type MailInbox } from '../../server/mail/fake-smtp';
+import type { UploadJobs } from '../../server/modules/uploads/upload-jobs';
 import { newLinkToken } from '../../server/lib/link-tokens';
 
 export const PASSWORD = 'correct-horse-battery';
@@ -37,7 +38,9 @@ export interface World {
  * members), a second project whose only member is the outsider, a site admin
  * who belongs to neither, and one target.
  */
-export async function makeWorld(options: { loginAttemptsPerWindow?: number; clientDir?: string; clock?: Clock; databaseFile?: string } = {}): Promise<World> {
+export async function makeWorld(
+  options: { loginAttemptsPerWindow?: number; clientDir?: string; clock?: Clock; databaseFile?: string; uploadJobs?: UploadJobs } = {},
+): Promise<World> {
   // A file when a test needs a second connection to the same database; in memory otherwise.
   const db = createDb(`file:${options.databaseFile ?? ':memory:'}`);
   await migrateLatest(db);
@@ -69,6 +72,7 @@ export async function makeWorld(options: { loginAttemptsPerWindow?: number; clie
     loginAttemptsPerWindow: options.loginAttemptsPerWindow,
     clientDir: options.clientDir,
     mailInbox,
+    uploadJobs: options.uploadJobs,
   });
   return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds, mailInbox };
 }

@@ -1,3 +1,5 @@
+import fs from 'node:fs';
+import os from 'node:os';
 import { parentPort, workerData } from 'node:worker_threads';
 import { createDb } from '../../db/knex';
 import { runCommit, runPreview, runRemap } from './upload-pipeline';
@@ -8,6 +10,21 @@ import { serialiseError, type WorkerReply, type WorkerRequest } from './upload-j
  * at a time (SQLite has one writer anyway), replies and progress posted back
  * to the request thread.
  */
+/**
+ * On Linux a thread has its own nice value: this one yields the CPU to the
+ * request thread, so on a busy machine readers are served first and the
+ * commit takes what is left. Elsewhere the thread keeps the normal priority.
+ */
+function yieldToRequests() {
+  try {
+    const tid = Number(fs.readlinkSync('/proc/thread-self').split('/').pop());
+    if (tid > 0) os.setPriority(tid, 10);
+  } catch {
+    // No /proc (not Linux) or no right to change it: normal priority.
+  }
+}
+
+yieldToRequests();
 const db = createDb((workerData as { databaseUrl: string }).databaseUrl);
 const port = parentPort!;
 const reply = (message: WorkerReply) => port.postMessage(message);

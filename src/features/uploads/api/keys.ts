@@ -13,6 +13,7 @@ export const uploadKeys = {
   details: (projectId: number) => [...uploadKeys.project(projectId), 'detail'] as const,
   detail: (projectId: number, uploadId: number) => [...uploadKeys.details(projectId), uploadId] as const,
   rows: (projectId: number, uploadId: number, params: UploadRowsParams) => [...uploadKeys.detail(projectId, uploadId), 'rows', params] as const,
+  progress: (projectId: number, uploadId: number) => [...uploadKeys.detail(projectId, uploadId), 'progress'] as const,
 };
 
 /*

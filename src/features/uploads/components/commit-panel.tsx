@@ -6,6 +6,8 @@ import { CheckboxField } from '@/components/ui/field';
 import { formatCount } from '@/lib/format';
 import { useCommitUpload } from '../api/commit-upload';
 import { useDiscardUpload } from '../api/discard-upload';
+import { useUploadProgress } from '../api/get-upload-progress';
+import { CommitProgress } from './commit-progress';
 
 /** Why the commit button is off, in words, or null when it may be pressed. */
 function blockedBecause(upload: Upload, confirmDuplicate: boolean): string | null {
@@ -46,6 +48,7 @@ export function CommitPanel({
   const [discarding, setDiscarding] = useState(false);
   const commit = useCommitUpload(projectId, upload.id, onDataChanged);
   const discard = useDiscardUpload(projectId, upload.id);
+  const progress = useUploadProgress(projectId, upload.id, commit.isPending);
   const reasonId = useId();
   const blocked = blockedBecause(upload, confirmDuplicate);
   const busy = commit.isPending || discard.isPending;
@@ -91,6 +94,7 @@ export function CommitPanel({
           </Button>
         )}
       </div>
+      {commit.isPending ? <CommitProgress progress={progress.data} /> : null}
       {blocked ? (
         <p id={reasonId} className="max-w-prose text-sm text-ink" data-testid="commit-blocked">
           <span className="font-semibold">Not ready to commit:</span> {blocked}
