@@ -10,12 +10,12 @@
  * route's share of the ceiling.
  */
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
-import { createHash } from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import autocannon from 'autocannon';
 import { createDb, migrateLatest } from '../server/db/knex';
 import { bulkInsert } from '../server/db/bulk-insert';
+import { seedMemberWithToken } from './seed-support';
 
 const argument = (name: string, fallback: string) => {
   const i = process.argv.indexOf(`--${name}`);
@@ -35,14 +35,9 @@ async function seed(file: string, targets: number): Promise<void> {
   await migrateLatest(db);
   const at = '2026-12-01T00:00:00.000Z';
   await db.transaction(async (trx) => {
-    const [user] = await trx('users').insert({ email: 'lead@bench.invalid', name: 'Bench lead', password_hash: 'x', is_site_admin: false, created_at: at, updated_at: at }).returning('id');
-    const [project] = await trx('projects')
-      .insert({ code: 'BENCH', name: 'Bench', description: '', site_name: 'Bench site', site_latitude_deg: 10, site_longitude_deg: 20, site_elevation_m: 100, site_time_zone: 'Etc/UTC', created_at: at, updated_at: at })
-      .returning('id');
-    await trx('project_members').insert({ project_id: project.id, user_id: user.id, role: 'lead', added_at: at });
-    await trx('api_tokens').insert({ user_id: user.id, name: 'bench', token_hash: createHash('sha256').update(TOKEN).digest('hex'), prefix: TOKEN.slice(0, 10), created_at: at });
+    const { projectId } = await seedMemberWithToken(trx, { email: 'lead@bench.invalid', role: 'lead', token: TOKEN, code: 'BENCH' });
     const rows = Array.from({ length: targets }, (_, i) => ({
-      project_id: project.id,
+      project_id: projectId,
       designation: `BENCH ${i + 1}`,
       designation_key: `bench${i + 1}`,
       // Right ascensions scattered over the sky, so that sorting by them is real work.
@@ -54,7 +49,7 @@ async function seed(file: string, targets: number): Promise<void> {
       updated_at: at,
     }));
     await bulkInsert(trx, 'targets', rows);
-    const base = { project_id: project.id, method: 'bench', method_label: 'bench', inputs_json: '[]', constants_json: '[]', warnings_json: '[]', review_note: '', created_at: at };
+    const base = { project_id: projectId, method: 'bench', method_label: 'bench', inputs_json: '[]', constants_json: '[]', warnings_json: '[]', review_note: '', created_at: at };
     const values: Record<string, unknown>[] = [];
     for (let id = 1; id <= targets; id++) {
       for (const [quantity, value, unit] of [
