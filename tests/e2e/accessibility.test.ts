@@ -98,6 +98,9 @@ const pages: PageSpec[] = [
   },
   { name: 'calculator', who: 'lead@demo.invalid', path: () => '/calculator', ready: fillCalculator },
   { name: 'settings', who: 'lead@demo.invalid', path: () => '/projects/1/settings', ready: (p) => p.getByLabel(/site name/i).waitFor() },
+  { name: 'summary', who: 'pi@demo.invalid', path: () => '/projects/1/summary', ready: (p) => p.frameLocator('[data-testid="mail-html"]').getByRole('heading', { name: 'Values approved' }).waitFor() },
+  { name: 'mail-preferences', who: 'observer@demo.invalid', path: () => '/account/mail', ready: (p) => p.getByLabel('The weekly summary of this project').first().waitFor(), fitsPhone: true },
+  { name: 'caught-mail', who: 'admin@demo.invalid', path: () => '/admin/mail?message=1', ready: (p) => p.getByTestId('mail-text').waitFor() },
   {
     name: 'reader-target-sheet',
     who: 'reader@demo.invalid',
