@@ -1,4 +1,4 @@
-import { randomBytes, scrypt as scryptCb, timingSafeEqual, type ScryptOptions } from 'node:crypto';
+import { createHash, randomBytes, scrypt as scryptCb, timingSafeEqual, type ScryptOptions } from 'node:crypto';
 
 function scrypt(password: string, salt: Buffer, keylen: number, options: ScryptOptions): Promise<Buffer> {
   return new Promise((resolve, reject) =>
@@ -35,3 +35,14 @@ export async function verifyPassword(password: string, stored: string): Promise<
 
 /** A hash of a random password, compared against when the e-mail is unknown so that timing does not reveal which accounts exist. */
 export const decoyHash = hashPassword(randomBytes(16).toString('hex'));
+
+/**
+ * What a session remembers of the password it was opened with: 16 hex
+ * digits of a SHA-256 of the stored hash (whose salt is new at every
+ * change). A session whose stamp no longer matches ends, so a new password
+ * ends every earlier session even if one of them is written back to the
+ * store by a request in flight.
+ */
+export function sessionStamp(passwordHash: string): string {
+  return createHash('sha256').update(passwordHash).digest('hex').slice(0, 16);
+}

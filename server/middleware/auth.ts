@@ -3,6 +3,12 @@ import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { UsersService } from '../modules/users/users.service';
 
+/** What passport keeps in a session (`sess.passport.user`). */
+export interface StoredSessionUser {
+  id: number;
+  stamp: string | undefined;
+}
+
 /**
  * One Passport instance per app (not the module-level singleton) so each
  * test's app has its own strategies and user lookup.
@@ -17,10 +23,18 @@ export function createPassport(users: UsersService) {
       );
     }),
   );
-  passport.serializeUser((user, done) => done(null, user.id));
-  passport.deserializeUser((id: number, done) => {
-    users.findById(id).then(
-      // A deleted account simply ends the session.
+  // A session stores the account's id and the stamp of its password, so that a new password ends it.
+  passport.serializeUser((user, done) => {
+    users.sessionStampOf(user.id).then(
+      (stamp) => done(null, { id: user.id, stamp } satisfies StoredSessionUser),
+      (err) => done(err),
+    );
+  });
+  passport.deserializeUser((stored: StoredSessionUser | number, done) => {
+    // A bare id is a session from before stamps: it ends, and the person signs in again.
+    const { id, stamp } = typeof stored === 'number' ? { id: stored, stamp: undefined } : stored;
+    users.findForSession(id, stamp).then(
+      // A deleted account, or one whose password changed, simply ends the session.
       (user) => done(null, user ?? false),
       (err) => done(err),
     );

@@ -108,6 +108,23 @@ describe('setting a new password from the link', () => {
     expect(JSON.parse(trail[0].after_json)).toEqual({ sessionsEnded: 2 });
   });
 
+  it('refuses a session of the old password even when a request in flight writes it back to the store', async () => {
+    const w = await world();
+    const old = await signIn(w.app, 'reader');
+    const saved = await w.db('sessions').select('*');
+    expect(saved).toHaveLength(1);
+    const token = await openLink(w, 'reset', { email: emails.reader });
+    await request(w.app).post('/api/auth/password-reset/complete').send({ token, password: 'a-brand-new-password' }).expect(200);
+    expect(await w.db('sessions').count('* as n').first()).toEqual({ n: 0 });
+    await w.db('sessions').insert(saved);
+    const res = await old.agent.get('/api/auth/me');
+    expect(res.status).toBe(401);
+    // A session opened with the new password is accepted.
+    const fresh = request.agent(w.app);
+    await fresh.post('/api/auth/login').send({ email: emails.reader, password: 'a-brand-new-password' }).expect(200);
+    await fresh.get('/api/auth/me').expect(200);
+  });
+
   it('closes the account’s other open links once a password is set', async () => {
     const w = await world();
     const first = await openLink(w, 'reset');

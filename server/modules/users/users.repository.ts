@@ -19,6 +19,11 @@ export async function findUserByEmail(db: Db, email: string): Promise<(User & { 
   return row ? { ...toUser(row), passwordHash: row.password_hash } : undefined;
 }
 
+export async function findUserWithHash(db: Db, id: number): Promise<(User & { passwordHash: string }) | undefined> {
+  const row = await db<UserRow>('users').where({ id }).first();
+  return row ? { ...toUser(row), passwordHash: row.password_hash } : undefined;
+}
+
 export async function findUserById(db: Db, id: number): Promise<User | undefined> {
   const row = await db<UserRow>('users').where({ id }).first();
   return row ? toUser(row) : undefined;

@@ -2,9 +2,9 @@ import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
 import type { CreateUserBody, User } from '../../../shared/schemas/auth';
 import { conflict } from '../../lib/errors';
-import { decoyHash, hashPassword, verifyPassword } from '../../lib/passwords';
+import { decoyHash, hashPassword, sessionStamp, verifyPassword } from '../../lib/passwords';
 import { appendTrail } from '../trail/trail.repository';
-import { findUserByEmail, findUserById, insertUser, listUsers, membershipsOf } from './users.repository';
+import { findUserByEmail, findUserById, findUserWithHash, insertUser, listUsers, membershipsOf } from './users.repository';
 
 export function createUsersService(db: Db, clock: Clock) {
   return {
@@ -22,6 +22,20 @@ export function createUsersService(db: Db, clock: Clock) {
     },
 
     findById: (id: number) => findUserById(db, id),
+
+    /** The stamp a new session of this account carries (see sessionStamp). */
+    async sessionStampOf(id: number): Promise<string | undefined> {
+      const found = await findUserWithHash(db, id);
+      return found ? sessionStamp(found.passwordHash) : undefined;
+    },
+
+    /** The account a session names, if the session was opened with its current password. */
+    async findForSession(id: number, stamp: string | undefined): Promise<User | undefined> {
+      const found = await findUserWithHash(db, id);
+      if (!found || !stamp || sessionStamp(found.passwordHash) !== stamp) return undefined;
+      const { passwordHash: _omit, ...user } = found;
+      return user;
+    },
     memberships: (userId: number) => membershipsOf(db, userId),
     list: () => listUsers(db),
 
