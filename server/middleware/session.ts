@@ -1,8 +1,7 @@
 import type { RequestHandler } from 'express';
 import session from 'express-session';
 import { ConnectSessionKnexStore } from 'connect-session-knex';
-import knex from 'knex';
-import type { Db } from '../db/knex';
+import { writeUnlessBusy, type Db } from '../db/knex';
 
 /**
  * connect-session-knex 5 calls the callback and then re-throws, so a
@@ -10,14 +9,10 @@ import type { Db } from '../db/knex';
  * Each method here reports through the callback only.
  */
 class SafeKnexStore extends ConnectSessionKnexStore {
-  /** Where touches go: a connection of their own that never waits for a lock (file databases), else the app's. */
-  private toucher: ConnectSessionKnexStore | null = null;
   private touchedAt = new Map<string, number>();
 
-  constructor(options: ConstructorParameters<typeof ConnectSessionKnexStore>[0] & { knex: Db }) {
-    super(options);
-    const touchDb = noWaitConnection(options.knex);
-    if (touchDb) this.toucher = new ConnectSessionKnexStore({ ...options, knex: touchDb, cleanupInterval: 0 });
+  constructor(private readonly app: ConstructorParameters<typeof ConnectSessionKnexStore>[0] & { knex: Db }) {
+    super(app);
   }
 
   override get(sid: string, cb: Parameters<ConnectSessionKnexStore['get']>[1]) {
@@ -31,19 +26,21 @@ class SafeKnexStore extends ConnectSessionKnexStore {
    * write. A reader must not wait for one: while a long upload commit holds
    * SQLite's write lock, a waiting write would stop the whole request thread
    * (better-sqlite3 waits synchronously). So a session is touched at most
-   * once a minute here, on a connection that does not wait: a touch that
-   * meets the lock is skipped, and the next one (the expiry is 14 days away)
-   * moves it.
+   * once a minute, and a touch that meets the lock is skipped; the next one
+   * (the expiry is 14 days away) moves it.
    */
   override touch(sid: string, sess: Parameters<ConnectSessionKnexStore['touch']>[1], cb?: () => void) {
     const now = Date.now();
-    if ((this.touchedAt.get(sid) ?? 0) > now - TOUCH_EVERY_MS) {
+    const expires = sess?.cookie?.expires;
+    if (!expires || (this.touchedAt.get(sid) ?? 0) > now - TOUCH_EVERY_MS) {
       cb?.();
       return Promise.resolve();
     }
     if (this.touchedAt.size > 10_000) this.touchedAt.clear();
     this.touchedAt.set(sid, now);
-    return (this.toucher ? this.toucher.touch(sid, sess, cb) : super.touch(sid, sess, cb)).catch(() => cb?.());
+    return writeUnlessBusy(this.app.knex, 'update sessions set expired = ? where sid = ?', [new Date(expires).toISOString(), sid])
+      .catch(() => false)
+      .then(() => cb?.());
   }
   override destroy(sid: string, cb?: (err?: unknown) => void) {
     return super.destroy(sid, cb).catch(() => 0);
@@ -60,27 +57,6 @@ class SafeKnexStore extends ConnectSessionKnexStore {
 }
 
 const TOUCH_EVERY_MS = 60_000;
-
-/** A second connection to the app's SQLite file that fails at once instead of waiting for a lock; none for other databases. */
-function noWaitConnection(db: Db): Db | null {
-  const config = db.client.config as { client?: string; connection?: { filename?: string } };
-  const filename = config.connection?.filename;
-  if (config.client !== 'better-sqlite3' || !filename || filename.includes(':memory:')) return null;
-  return knex({
-    client: 'better-sqlite3',
-    connection: { filename },
-    useNullAsDefault: true,
-    compileSqlOnError: false,
-    pool: {
-      min: 0,
-      max: 1,
-      afterCreate(conn: { pragma(sql: string): unknown }, done: (err: Error | null, conn: unknown) => void) {
-        conn.pragma('busy_timeout = 0');
-        done(null, conn);
-      },
-    },
-  });
-}
 
 export interface SessionOptions {
   secret: string;

@@ -1,5 +1,6 @@
 import fs from 'node:fs';
 import path from 'node:path';
+import Database from 'better-sqlite3';
 import { afterEach, describe, expect, it } from 'vitest';
 import type { UploadProgress } from '../../shared/schemas/uploads';
 import { workerUploadJobs, type UploadJobs } from '../../server/modules/uploads/upload-jobs';
@@ -95,5 +96,26 @@ describe('uploads on the worker thread', () => {
     const bad = await s.agent.post(`/api/projects/${w.projectId}/uploads`).set('X-CSRF-Token', s.csrf).attach('file', Buffer.from([0, 1, 2]), 'x.csv');
     expect(bad.status).toBe(400);
     expect(bad.body.error.details[0].path).toBe('file');
+  });
+});
+
+describe('a signed-in reader while the write lock is held elsewhere', () => {
+  it('is answered at once: the session is touched only when that needs no wait', { timeout: 30_000 }, async () => {
+    const w = await workerWorld();
+    const reader = await signIn(w.app, 'reader');
+    // Another connection (a commit on the worker, a backup) holds the write lock.
+    const holder = new Database(path.join(dir!, 'db.sqlite'));
+    holder.exec('begin immediate');
+    try {
+      for (let i = 0; i < 3; i += 1) {
+        const t0 = performance.now();
+        await reader.agent.get(`/api/projects/${w.projectId}/targets/${w.targetId}`).expect(200);
+        // busy_timeout is 5 s: a read that waited for a write would take that long.
+        expect(performance.now() - t0).toBeLessThan(1000);
+      }
+    } finally {
+      holder.exec('rollback');
+      holder.close();
+    }
   });
 });
