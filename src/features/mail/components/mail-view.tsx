@@ -10,13 +10,17 @@ export function MailView({ subject, html, text }: { subject: string; html: strin
     <div className="space-y-8" data-testid="mail-view">
       {html !== null ? (
         <Section title="As HTML">
-          <iframe
-            title={`The message “${subject}” as HTML`}
-            sandbox=""
-            srcDoc={html}
-            className="h-[36rem] w-full rounded-sm border border-rule bg-white"
-            data-testid="mail-html"
-          />
+          {/* At night the message is inverted to dark and multiplied by pure red, so the frame keeps to red light like the rest of the page. */}
+          <div className="relative">
+            <iframe
+              title={`The message “${subject}” as HTML`}
+              sandbox=""
+              srcDoc={html}
+              className="block h-[36rem] w-full rounded-sm border border-rule bg-white [[data-theme=night]_&]:[filter:invert(1)_grayscale(1)]"
+              data-testid="mail-html"
+            />
+            <div aria-hidden="true" className="pointer-events-none absolute inset-0 hidden rounded-sm bg-[#ff0000] mix-blend-multiply [[data-theme=night]_&]:block" />
+          </div>
         </Section>
       ) : null}
       <Section title="As plain text">
