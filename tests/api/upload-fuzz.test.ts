@@ -93,7 +93,7 @@ const spectrumFile = fc
   .record({ points: fc.nat(MAX_SPECTRUM_POINTS), header: fc.constantFrom('wavelength_nm,flux', 'wavelength_nm,flux,flux_err', 'wavelength,flux', 'λ (Å),flux'), noise: fc.double({ min: 0, max: 2, noNaN: true }), bad: fc.option(edgeNumber, { freq: 3 }) })
   .map(({ points, header, noise, bad }) => {
     const three = header.split(',').length === 3;
-    const lines = [header];
+    const lines: string[] = [header];
     for (let i = 0; i < points; i++) {
       const nm = 300 + (700 * i) / Math.max(points, 1);
       const flux = (1 + noise * Math.sin(i * 12.9898)) / (nm / 500) ** 5 / (Math.exp(2.8978e6 / (nm * 5800)) - 1);
