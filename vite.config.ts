@@ -15,7 +15,8 @@ export default defineConfig({
   },
   server: {
     port: 5173,
-    proxy: { '/api': `http://127.0.0.1:${apiPort}` },
+    // The API's own paths only: a page such as /api-reference is the client's.
+    proxy: { '^/api(/|$)': `http://127.0.0.1:${apiPort}` },
   },
   build: { outDir: 'dist', sourcemap: true },
 });

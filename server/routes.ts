@@ -9,6 +9,7 @@ import { anyone, inProject, requireAccess, signedIn, siteAdmin, type Access } fr
 import { validate } from './middleware/validate';
 import type { StarledgerPassport } from './middleware/auth';
 import type { Services } from './services';
+import { openApiDocument } from './openapi';
 import { authHandlers } from './modules/auth/auth.routes';
 import { usersHandlers } from './modules/users/users.routes';
 import { projectsHandlers } from './modules/projects/projects.routes';
@@ -34,6 +35,9 @@ import { passwordResetsHandlers } from './modules/password-resets/password-reset
 import { acceptInvitationBody, createInvitationBody } from '../shared/schemas/invitations';
 
 type Method = 'get' | 'post' | 'patch' | 'delete';
+
+/** The API's version in its OpenAPI document: raised when a change breaks a pipeline written against it. */
+const API_VERSION = '1.0';
 
 export interface RouteDef {
   method: Method;
@@ -72,7 +76,12 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
   const passwordResets = passwordResetsHandlers(services.passwordResets);
   const P = '/projects/:projectId';
 
-  return [
+  // The document is made once, on the first request, from the finished table below.
+  let document: ReturnType<typeof openApiDocument> | undefined;
+  const routes: RouteDef[] = [
+    // This API described (OpenAPI 3.1), generated from this table and its schemas
+    { method: 'get', path: '/openapi.json', access: signedIn, handler: (_req, res) => res.json((document ??= openApiDocument(routes, API_VERSION))) },
+
     // Sign-in
     { method: 'post', path: '/auth/login', access: anyone, before: [loginLimiter], body: loginBody, handler: auth.login },
     { method: 'post', path: '/auth/logout', access: signedIn, handler: auth.logout },
@@ -161,6 +170,7 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'get', path: `${P}/trail`, access: inProject('readTrail'), params: projectParams, query: listTrailQuery, handler: trail.list },
     { method: 'get', path: `${P}/trail/export`, access: inProject('readTrail'), params: projectParams, query: exportTrailQuery, handler: trail.export },
   ];
+  return routes;
 }
 
 export function mountRoutes(db: Db, routes: RouteDef[]): Router {

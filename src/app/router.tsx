@@ -59,6 +59,7 @@ export const router = createBrowserRouter([
           { path: paths.admin.mail.path, lazy: async () => ({ Component: (await import('./routes/admin-mail')).AdminMailRoute }) },
           { path: paths.admin.users.path, lazy: async () => ({ Component: (await import('./routes/admin-users')).AdminUsersRoute }) },
           { path: paths.calculator.path, lazy: async () => ({ Component: (await import('./routes/calculator')).CalculatorRoute }) },
+          { path: paths.apiReference.path, lazy: async () => ({ Component: (await import('./routes/api-reference')).ApiReferenceRoute }) },
           { path: '*', lazy: async () => ({ Component: (await import('./routes/not-found')).NotFoundRoute }) },
         ],
       },

@@ -116,4 +116,9 @@ export const paths = {
     path: '/calculator',
     getHref: () => '/calculator',
   },
+  /** The API described for pipelines (signed-in people). */
+  apiReference: {
+    path: '/api-reference',
+    getHref: () => '/api-reference',
+  },
 } as const;

@@ -37,6 +37,7 @@ const cases: Record<string, Case> = {
   'POST /auth/login': { rule: 'public' },
   'POST /auth/logout': { rule: 'signed-in' },
   'GET /auth/me': { rule: 'signed-in' },
+  'GET /openapi.json': { rule: 'signed-in' },
   'POST /auth/password-reset': { rule: 'public', body: () => ({ email: emails.reader }) },
   'POST /auth/password-reset/lookup': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset') }) },
   'POST /auth/password-reset/complete': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset'), password: 'a-new-long-password' }) },

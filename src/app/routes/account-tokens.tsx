@@ -1,4 +1,7 @@
 import { useState } from 'react';
+import { Link } from 'react-router-dom';
+import { paths } from '@/config/paths';
+import { linkClasses } from '@/components/ui/button';
 import { PageHeader, Section } from '@/components/ui/page-header';
 import { StatusLine } from '@/components/ui/alert';
 import { EmptyState } from '@/components/ui/empty-state';
@@ -44,6 +47,13 @@ export function AccountTokensRoute() {
           cookie and no CSRF token. Errors come back as JSON with a stable <code>code</code>.
         </p>
         <CurlExample origin={window.location.origin} />
+        <p className="mt-3 max-w-prose text-sm text-ink-soft">
+          Every route, with its parameters and errors, is in the{' '}
+          <Link className={linkClasses} to={paths.apiReference.getHref()}>
+            API reference
+          </Link>{' '}
+          (also as an OpenAPI 3.1 document, <code>/api/openapi.json</code>, for generating clients).
+        </p>
       </Section>
     </>
   );
