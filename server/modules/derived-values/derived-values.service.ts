@@ -215,7 +215,7 @@ export function createDerivedValuesService(db: Db, clock: Clock, options: { publ
     async list(projectId: number, targetId: number, include: 'current' | 'all', role: ProjectRole): Promise<DerivedValue[]> {
       await requireTarget(projectId, targetId);
       const all = await listDerived(db, projectId, targetId, include);
-      return role === 'reader' ? all.filter((d) => d.status === 'approved') : all;
+      return roleCan(role, 'readProposed') ? all : all.filter((d) => d.status === 'approved');
     },
 
     async queue(projectId: number, query: ReviewQueueQuery): Promise<ReviewQueue> {

@@ -1,7 +1,7 @@
 import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
 import type { CreateTargetBody, ListTargetsQuery, Target, TargetRow, UpdateTargetBody } from '../../../shared/schemas/targets';
-import type { ProjectRole } from '../../../shared/schemas/roles';
+import { roleCan, type ProjectRole } from '../../../shared/schemas/roles';
 import type { Page } from '../../../shared/schemas/common';
 import { designationKey } from '../../../shared/coordinates';
 import { conflict, notFound } from '../../lib/errors';
@@ -24,15 +24,16 @@ const duplicate = (designation: string) =>
   ]);
 
 /**
- * What a role sees of the derived values in the target table. Readers see
+ * What a role sees of the derived values in the target table (the
+ * `readProposed` permission, shared/schemas/roles.ts). Readers see
  * only what the lead astronomer signed (PRODUCT.md, roles); every other
  * member also sees the newest proposal, marked "proposed", so the team
  * works on fresh numbers while the sign-off is pending.
  */
 export function valueViewFor(role: ProjectRole): ValueView {
-  return role === 'reader'
-    ? { shownStatuses: ['approved'], countProposals: false }
-    : { shownStatuses: ['proposed', 'approved'], countProposals: true };
+  return roleCan(role, 'readProposed')
+    ? { shownStatuses: ['proposed', 'approved'], countProposals: true }
+    : { shownStatuses: ['approved'], countProposals: false };
 }
 
 /**
