@@ -140,7 +140,8 @@ export function convertQuantity<U extends UnitName>(quantity: Quantity<UnitName>
   return { value: convert(quantity.value, quantity.unit, to), unit: to };
 }
 
-const WAVELENGTH_UNITS = ['nm', 'angstrom', 'um', 'm'] as const;
+/** Units a wavelength may be given in (a spectrum's wavelength column, every line and peak wavelength). */
+export const WAVELENGTH_UNITS = ['nm', 'angstrom', 'um', 'm'] as const satisfies readonly UnitName[];
 const MAG_UNITS = ['mag'] as const;
 
 /**

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { designationKey, parseDeclination, parseRightAscension } from '../coordinates';
 import { measurementToSi } from '../physics/units';
+import { MUST_BE_POSITIVE, MUST_NOT_BE_NEGATIVE, NEEDS_BAND, NEEDS_REST_WAVELENGTH } from '../physics/measurement-rules';
 import { PhysicsError } from '../physics/errors';
 import { MEASUREMENT_KINDS, type MeasurementKind } from '../physics/quantities';
 import { designation as designationSchema } from './targets';
@@ -36,12 +37,6 @@ export type Field = (typeof FIELDS)[number];
 
 /** Fields that describe the row rather than one measurement: shared by every measurement of a wide row. */
 const ROW_FIELDS: readonly Field[] = ['target', 'ra', 'dec', 'observed_at', 'instrument', 'note'];
-
-const NEEDS_BAND: readonly FileQuantity[] = ['magnitude', 'colour_index'];
-const NEEDS_REST: readonly FileQuantity[] = ['line_wavelength', 'limb_separation', 'zeeman_separation'];
-const MUST_BE_POSITIVE: readonly FileQuantity[] = ['peak_wavelength', 'line_wavelength', 'bolometric_flux', 'parallax', 'distance', 'luminosity'];
-/** Sizes for which 0 (no rotation, no field detected) is a measurement. */
-const MUST_NOT_BE_NEGATIVE: readonly FileQuantity[] = ['limb_separation', 'zeeman_separation'];
 
 export const columnRole = z.discriminatedUnion('role', [
   z.object({ role: z.literal('field'), field: z.enum(FIELDS) }),
@@ -294,7 +289,7 @@ function normalise(raw: RawMeasurement, errors: RowError[], cache: ReadCache): N
 
   const unit = raw.fixed?.unit ?? text('unit');
   const band = raw.fixed?.band ?? (text('band') ? normaliseBand(text('band')) : '');
-  if (kind && NEEDS_BAND.includes(kind) && !band) err('band', `A ${kind} needs its band (for example V, or B-V for a colour index).`);
+  if (kind && NEEDS_BAND.has(kind) && !band) err('band', `A ${kind} needs its band (for example V, or B-V for a colour index).`);
   if (kind === 'colour_index' && band && !/^[A-Za-z]+-[A-Za-z]+$/.test(band)) err('band', `A colour index band is two bands with a hyphen, like B-V (got "${band}").`);
 
   let restValue: number | null = raw.fixed?.restWavelength ?? null;
@@ -303,7 +298,7 @@ function normalise(raw: RawMeasurement, errors: RowError[], cache: ReadCache): N
     if (r.ok) restValue = r.value;
     else err('rest_wavelength', r.message);
   }
-  if (kind && NEEDS_REST.includes(kind)) {
+  if (kind && NEEDS_REST_WAVELENGTH.has(kind)) {
     if (restValue === null && !text('rest_wavelength')) err('rest_wavelength', `A ${kind} needs the line's rest wavelength, in the same unit as the value.`);
     else if (restValue !== null && restValue <= 0) err('rest_wavelength', `The rest wavelength must be positive (got ${restValue}).`);
   }
@@ -341,8 +336,8 @@ function normalise(raw: RawMeasurement, errors: RowError[], cache: ReadCache): N
   let si: { valueSi: number; uncertaintySi: number; unitSi: string } | null = null;
   let restSi: number | null = null;
   if (kind && value !== null) {
-    if (MUST_BE_POSITIVE.includes(kind) && value <= 0) err('value', `A ${kind} must be positive (got ${value}).`);
-    if (MUST_NOT_BE_NEGATIVE.includes(kind) && value < 0) err('value', `A ${kind} must be 0 or more (got ${value}); 0 means nothing was detected.`);
+    if (MUST_BE_POSITIVE.has(kind) && value <= 0) err('value', `A ${kind} must be positive (got ${value}).`);
+    if (MUST_NOT_BE_NEGATIVE.has(kind) && value < 0) err('value', `A ${kind} must be 0 or more (got ${value}); 0 means nothing was detected.`);
     try {
       si = measurementToSi(kind, value, unit, uncertainty ?? 0);
       if (restValue !== null) restSi = measurementToSi(kind, restValue, unit, 0).valueSi;

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { columnMapping, type ColumnMapping, type RowError } from './measurement-file';
 import { idParam } from './common';
+import { WAVELENGTH_UNITS } from '../physics/units';
 import { projectParams } from './params';
 
 export const uploadKinds = ['measurements', 'spectrum'] as const;
@@ -24,7 +25,7 @@ export const createUploadFields = z.object({
   kind: z.enum(uploadKinds).default('measurements'),
   mapping: jsonField(columnMapping).optional(),
   targetId: z.coerce.number().int().positive().optional(),
-  wavelengthUnit: z.enum(['nm', 'angstrom', 'um', 'm']).optional(),
+  wavelengthUnit: z.enum(WAVELENGTH_UNITS).optional(),
 });
 export type CreateUploadFields = z.output<typeof createUploadFields>;
 

@@ -1,7 +1,7 @@
 import { findContinuumPeak, fitPlanck } from '../../../shared/physics/planck';
 import { PhysicsError } from '../../../shared/physics/errors';
 import type { Measured } from '../../../shared/physics/measured';
-import { toSi, type UnitName } from '../../../shared/physics/units';
+import { toSi, WAVELENGTH_UNITS, type UnitName } from '../../../shared/physics/units';
 import { normaliseHeader, readNumber, type RowError } from '../../../shared/schemas/measurement-file';
 import type { SpectrumPreview } from '../../../shared/schemas/uploads';
 import type { CsvTable } from './csv';
@@ -12,6 +12,8 @@ const UNIT_IN_HEADER: [RegExp, UnitName][] = [
   [/(?:^|[_(\s])(um|µm|μm|microns?)\)?$/, 'um'],
   [/(?:^|[_(\s])(m)\)?$/, 'm'],
 ];
+
+const WAVELENGTH_WORDS = `${WAVELENGTH_UNITS.slice(0, -1).join(', ')} or ${WAVELENGTH_UNITS.at(-1)}`;
 
 function unitFromHeader(header: string): UnitName | null {
   const h = normaliseHeader(header);
@@ -35,7 +37,7 @@ export function readSpectrum(
   const [wHeader, fHeader, sHeader] = table.headers;
   if (!fHeader) errors.push({ row: 1, column: wHeader ?? '', message: 'A spectrum needs two columns: wavelength and flux.' });
   const unit = givenUnit ?? unitFromHeader(wHeader ?? '');
-  if (!unit) errors.push({ row: 1, column: wHeader ?? '', message: 'Say the wavelength unit (nm, angstrom, um or m), in the form or in the header, e.g. "wavelength_nm".' });
+  if (!unit) errors.push({ row: 1, column: wHeader ?? '', message: `Say the wavelength unit (${WAVELENGTH_WORDS}), in the form or in the header, e.g. "wavelength_nm".` });
   const points: [number, number][] = [];
   const sigma: number[] = [];
   table.records.forEach((record, i) => {

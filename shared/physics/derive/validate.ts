@@ -2,6 +2,7 @@ import { PhysicsError, type PhysicsErrorCode } from '../errors';
 import { isMeasurementKind, MEASUREMENT_SI_UNIT, type MeasurementKind } from '../quantities';
 import type { QuantityId } from '../quantities';
 import { DERIVATION_NODES } from './nodes';
+import { MUST_BE_POSITIVE, MUST_NOT_BE_NEGATIVE, NEEDS_BAND, NEEDS_REST_WAVELENGTH } from '../measurement-rules';
 import type { DerivationIssue, MeasurementId, MeasurementInput } from './types';
 
 /** A measurement that passed the checks, with its defaults filled in. */
@@ -27,23 +28,6 @@ export interface ValidMeasurement {
 function firstQuantity(kind: MeasurementKind): QuantityId | null {
   return DERIVATION_NODES.find((node) => node.kinds.includes(kind))?.quantity ?? null;
 }
-
-/** Kinds whose value must be strictly positive. */
-const POSITIVE: ReadonlySet<MeasurementKind> = new Set([
-  'peak_wavelength',
-  'bolometric_flux',
-  'parallax',
-  'line_wavelength',
-  'distance',
-  'luminosity',
-  'planck_temperature',
-]);
-
-/** Sizes for which 0 (nothing detected) is data: they must not be negative. */
-const NON_NEGATIVE: ReadonlySet<MeasurementKind> = new Set(['limb_separation', 'zeeman_separation']);
-
-/** Kinds that need the line's rest wavelength. */
-const LINE_KINDS: ReadonlySet<MeasurementKind> = new Set(['line_wavelength', 'limb_separation', 'zeeman_separation']);
 
 /** Whitespace or the true minus sign: what normaliseBand changes. */
 const BAND_NOISE = /[\s\u2212]/;
@@ -71,15 +55,15 @@ function check(m: MeasurementInput): ValidMeasurement {
   const sigma = m.uncertaintySi ?? 0;
   if (!isFiniteNumber(sigma)) refuse('not_finite', kind, `${kind} uncertainty must be a finite number (got ${String(sigma)})`, 'finite');
   if (sigma < 0) refuse('negative_uncertainty', kind, `${kind} uncertainty must be ≥ 0 (got ${sigma} ${unit})`, '≥ 0');
-  if (POSITIVE.has(kind) && m.valueSi <= 0) refuse('non_positive', kind, `${kind} must be greater than 0 (got ${m.valueSi} ${unit})`, '> 0');
-  if (NON_NEGATIVE.has(kind) && m.valueSi < 0) refuse('negative', kind, `${kind} must be 0 or more (got ${m.valueSi} ${unit})`, '≥ 0');
+  if (MUST_BE_POSITIVE.has(kind) && m.valueSi <= 0) refuse('non_positive', kind, `${kind} must be greater than 0 (got ${m.valueSi} ${unit})`, '> 0');
+  if (MUST_NOT_BE_NEGATIVE.has(kind) && m.valueSi < 0) refuse('negative', kind, `${kind} must be 0 or more (got ${m.valueSi} ${unit})`, '≥ 0');
   const band = normaliseBand(m.band);
-  if ((kind === 'magnitude' || kind === 'colour_index') && band === undefined) {
+  if (NEEDS_BAND.has(kind) && band === undefined) {
     refuse('missing_input', kind, `${kind} needs its band (e.g. ${kind === 'magnitude' ? 'V' : 'B-V'})`);
   }
   let restWavelength = 0;
   let restWavelengthSigma = 0;
-  if (LINE_KINDS.has(kind)) {
+  if (NEEDS_REST_WAVELENGTH.has(kind)) {
     restWavelength = m.restWavelengthSi as number;
     if (m.restWavelengthSi === undefined) refuse('missing_input', 'rest_wavelength', `${kind} needs the line's rest wavelength`);
     if (!isFiniteNumber(restWavelength)) refuse('not_finite', 'rest_wavelength', `rest wavelength must be a finite number (got ${String(restWavelength)})`, 'finite');

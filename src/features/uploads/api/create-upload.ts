@@ -2,8 +2,9 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { Upload } from '@shared/schemas/uploads';
 import { api, type UploadProgress } from '@/lib/api-client';
 import { uploadKeys } from './keys';
+import type { WAVELENGTH_UNITS } from '@shared/physics/units';
 
-export type SpectrumWavelengthUnit = 'nm' | 'angstrom' | 'um' | 'm';
+export type SpectrumWavelengthUnit = (typeof WAVELENGTH_UNITS)[number];
 
 export type CreateUploadInput =
   | { kind: 'measurements'; file: File }

@@ -11,14 +11,13 @@ import {
   type RowError,
 } from '@shared/schemas/measurement-file';
 import { ALLOWED_UNITS } from '@shared/physics/units';
+import { NEEDS_BAND, NEEDS_REST_WAVELENGTH } from '@shared/physics/measurement-rules';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { LedgerBody, LedgerCell, LedgerHead, LedgerHeaderCell, LedgerRow, LedgerTable } from '@/components/ui/ledger-table';
 import { cn } from '@/lib/cn';
 import { FIELD_NAMES, MEASUREMENT_KIND_NAMES, unitSymbol } from '@/lib/measurement-words';
 
-const NEEDS_BAND: readonly FileQuantity[] = ['magnitude', 'colour_index'];
-const NEEDS_REST: readonly FileQuantity[] = ['line_wavelength', 'limb_separation', 'zeeman_separation'];
 
 /** One column's choice as the form holds it: text boxes stay text until "Apply mapping". */
 interface Draft {
@@ -67,13 +66,13 @@ function buildMapping(layout: ColumnMapping['layout'], headers: string[], drafts
     else if (d.choice === 'measurement') {
       const role: Extract<ColumnRole, { role: 'measurement' }> = { role: 'measurement', quantity: d.quantity, unit: d.unit };
       if (d.band.trim()) role.band = d.band.trim();
-      else if (NEEDS_BAND.includes(d.quantity)) problems[header] = `Column “${header}”: give the band of this ${MEASUREMENT_KIND_NAMES[d.quantity].toLowerCase()} (for example V, or B-V).`;
+      else if (NEEDS_BAND.has(d.quantity)) problems[header] = `Column “${header}”: give the band of this ${MEASUREMENT_KIND_NAMES[d.quantity].toLowerCase()} (for example V, or B-V).`;
       if (d.rest.trim()) {
         const r = readNumber(d.rest, 'the rest wavelength');
         if (!r.ok) problems[header] = `Column “${header}”: ${r.message}`;
         else if (r.value <= 0) problems[header] = `Column “${header}”: the rest wavelength must be positive.`;
         else role.restWavelength = r.value;
-      } else if (NEEDS_REST.includes(d.quantity)) problems[header] = `Column “${header}”: give the line’s rest wavelength, in ${unitSymbol(d.unit)}.`;
+      } else if (NEEDS_REST_WAVELENGTH.has(d.quantity)) problems[header] = `Column “${header}”: give the line’s rest wavelength, in ${unitSymbol(d.unit)}.`;
       if (d.lande.trim()) {
         const g = readNumber(d.lande, 'the Landé g factor');
         if (!g.ok) problems[header] = `Column “${header}”: ${g.message}`;
@@ -276,7 +275,7 @@ export function ColumnMappingForm({
                           ))}
                         </select>
                       </label>
-                      {NEEDS_BAND.includes(d.quantity) ? (
+                      {NEEDS_BAND.has(d.quantity) ? (
                         <DetailInput
                           label="Band"
                           className="w-20"
@@ -286,7 +285,7 @@ export function ColumnMappingForm({
                           onChange={(e) => update(header, { band: e.target.value })}
                         />
                       ) : null}
-                      {NEEDS_REST.includes(d.quantity) ? (
+                      {NEEDS_REST_WAVELENGTH.has(d.quantity) ? (
                         <DetailInput
                           label={`Rest wavelength (${unitSymbol(d.unit)})`}
                           className="w-28"

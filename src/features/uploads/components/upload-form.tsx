@@ -1,5 +1,6 @@
 import { useId, useRef, useState, type DragEvent, type FormEvent } from 'react';
 import type { Upload } from '@shared/schemas/uploads';
+import { UNITS, WAVELENGTH_UNITS } from '@shared/physics/units';
 import { isApiError, type UploadProgress } from '@/lib/api-client';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -13,12 +14,8 @@ export interface TargetChoice {
   designation: string;
 }
 
-const WAVELENGTH_UNITS: ReadonlyArray<{ value: SpectrumWavelengthUnit; label: string }> = [
-  { value: 'nm', label: 'nm (nanometres)' },
-  { value: 'angstrom', label: 'Å (ångström)' },
-  { value: 'um', label: 'µm (micrometres)' },
-  { value: 'm', label: 'm (metres)' },
-];
+const UNIT_NAMES: Record<SpectrumWavelengthUnit, string> = { nm: 'nanometres', angstrom: 'ångström', um: 'micrometres', m: 'metres' };
+const WAVELENGTH_CHOICES: ReadonlyArray<{ value: SpectrumWavelengthUnit; label: string }> = WAVELENGTH_UNITS.map((u) => ({ value: u, label: `${UNITS[u].symbol} (${UNIT_NAMES[u]})` }));
 
 type FileKind = 'measurements' | 'spectrum';
 
@@ -203,7 +200,7 @@ export function UploadForm({
               onChange={(e) => setWavelengthUnit(e.target.value as SpectrumWavelengthUnit)}
               hint="The unit of the first column."
             >
-              {WAVELENGTH_UNITS.map((u) => (
+              {WAVELENGTH_CHOICES.map((u) => (
                 <option key={u.value} value={u.value}>
                   {u.label}
                 </option>
