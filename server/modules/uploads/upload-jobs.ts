@@ -1,6 +1,7 @@
 import { Worker } from 'node:worker_threads';
 import type { Db } from '../../db/knex';
 import { AppError } from '../../lib/errors';
+import { describeForLog } from '../../middleware/error-handler';
 import type { ErrorCode } from '../../../shared/errors';
 import type { UploadProgress } from '../../../shared/schemas/uploads';
 import { runCommit, runPreview, runRemap, type CommitJob, type CommitOutcome, type PreviewJob, type RemapJob, type Report } from './upload-pipeline';
@@ -128,9 +129,13 @@ export function workerUploadJobs(databaseUrl: string): UploadJobs {
     const fail = (err: Error) => {
       for (const waiting of pending.values()) waiting.reject(err);
       pending.clear();
-      worker = null;
+      if (worker === w) worker = null;
     };
-    w.on('error', fail);
+    // An error nothing in the worker caught ends the thread: it is logged, the jobs waiting on it fail, and the next job starts a new one.
+    w.on('error', (err) => {
+      console.error('[upload worker]', describeForLog(err));
+      fail(err);
+    });
     w.on('exit', (code) => fail(new Error(`The upload worker stopped (exit code ${code}).`)));
     w.unref();
     return w;
