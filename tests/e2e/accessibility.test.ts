@@ -97,7 +97,7 @@ const pages: PageSpec[] = [
     fitsPhone: true,
   },
   { name: 'calculator', who: 'lead@demo.invalid', path: () => '/calculator', ready: fillCalculator },
-  { name: 'api-reference', who: 'observer@demo.invalid', path: () => '/api-reference', ready: (p) => p.getByRole('heading', { name: 'Uploads' }).waitFor() },
+  { name: 'api-reference', who: 'observer@demo.invalid', path: () => '/api-reference', ready: (p) => p.getByRole('heading', { name: 'Uploads', exact: true, level: 2 }).waitFor() },
   { name: 'settings', who: 'lead@demo.invalid', path: () => '/projects/1/settings', ready: (p) => p.getByLabel(/site name/i).waitFor() },
   { name: 'summary', who: 'pi@demo.invalid', path: () => '/projects/1/summary', ready: (p) => p.frameLocator('[data-testid="mail-html"]').getByRole('heading', { name: 'Values approved' }).waitFor() },
   { name: 'mail-preferences', who: 'observer@demo.invalid', path: () => '/account/mail', ready: (p) => p.getByLabel('The weekly summary of this project').first().waitFor(), fitsPhone: true },
