@@ -93,12 +93,14 @@ function matchTargets(
   errors.sort((a, b) => a.row - b.row);
 
   const rowsWithErrors = new Set(errors.map((e) => e.row));
+  // Looked up once per record: a scan of every error for each record would make an all-wrong 100 000-row file take a minute.
+  const targetErrorRows = new Set(targets ? errors.filter((e) => e.column === targets.column).map((e) => e.row) : []);
   const created = new Set<string>();
   let newTargetErrorRows = 0;
   let everyRowKnownTarget = targets !== null && !rowsWithErrors.has(1);
   targets?.texts.forEach((text, i) => {
     const row = i + 2;
-    const unreadable = text === '' || errors.some((e) => e.row === row && e.column === targets.column);
+    const unreadable = text === '' || targetErrorRows.has(row);
     if (unreadable) {
       everyRowKnownTarget = false;
       return;
