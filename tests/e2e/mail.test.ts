@@ -23,7 +23,6 @@ describe.skipIf(!chromiumAvailable)('the weekly summary in the browser', () => {
 
   it('the PI previews the demo’s summary, sends it now, and the site admin reads it as the fake received it', async () => {
     const pi = await pageAs('pi@demo.invalid');
-    await pi.getByRole('navigation', { name: 'Project' }).waitFor({ state: 'detached' }).catch(() => undefined);
     await pi.goto(`${baseUrl()}/projects/1`);
     await pi.getByRole('navigation', { name: 'Project' }).getByRole('link', { name: 'Summary' }).click();
     await pi.getByRole('heading', { name: 'Weekly summary', level: 1 }).waitFor();
