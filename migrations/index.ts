@@ -10,6 +10,8 @@ import * as mailSummaryPreferences from './20261202030000_mail_summary_preferenc
 import * as uploadStorage from './20261202060000_upload_storage';
 import * as invitationsPasswordResets from './20261202070000_invitations_password_resets';
 import * as targetListIndexes from './20261202080000_target_list_indexes';
+import * as projectTargetCount from './20261202090000_project_target_count';
+import * as projectTargetCountFill from './20261202090100_project_target_count_fill';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -29,6 +31,8 @@ const migrations: Record<string, Knex.Migration> = {
   '20261202060000_upload_storage': uploadStorage,
   '20261202070000_invitations_password_resets': invitationsPasswordResets,
   '20261202080000_target_list_indexes': targetListIndexes,
+  '20261202090000_project_target_count': projectTargetCount,
+  '20261202090100_project_target_count_fill': projectTargetCountFill,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -138,7 +138,11 @@ export async function listTargets(db: Db, projectId: number, query: ListTargetsQ
       this.select(db.raw('1')).from('derived_values as w').whereRaw('w.target_id = t.id').andWhere('w.status', 'proposed');
     });
   }
-  const countRow = await base.clone().count<{ n: number | string }>('* as n').first();
+  // Unfiltered, the total is the project's own count (kept by triggers); a filter counts what it matches.
+  const filtered = Boolean(query.q || query.tag || query.awaiting);
+  const countRow = filtered
+    ? await base.clone().count<{ n: number | string }>('* as n').first()
+    : await db('projects').where({ id: projectId }).first<{ n: number | string } | undefined>('target_count as n');
 
   const page = base.clone().select('t.*');
   if (view.countProposals) {
