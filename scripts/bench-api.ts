@@ -165,6 +165,7 @@ try {
     } finally {
       app.kill('SIGTERM');
       await new Promise((r) => app.once('exit', r));
+      fs.rmSync(dir, { recursive: true, force: true });
     }
   }
 } finally {
