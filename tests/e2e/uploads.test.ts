@@ -2,7 +2,8 @@ import path from 'node:path';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { planckSpectralRadiance } from '../../shared/physics/planck';
-import { browserSuite, chromiumAvailable, screenshot } from './support/harness';
+import { axeViolations } from './support/axe';
+import { browserSuite, chromiumAvailable, screenshot, shotsDir } from './support/harness';
 
 const SAMPLE = path.resolve(import.meta.dirname, '../../public/samples/glasswing-night.csv');
 
@@ -127,4 +128,41 @@ describe.skipIf(!chromiumAvailable)('measurement uploads in the browser', () => 
     await page.getByTestId('measurements-table').waitFor();
     await screenshot(page, 'uploads-09-reader-target-sheet');
   });
+});
+
+/** A season's file large enough that its commit takes a few seconds: `rows` magnitudes over `targets` new targets. */
+function season(rows: number, targets: number, tag: string): Buffer {
+  const lines = ['target,ra,dec,quantity,value,uncertainty,unit,band,observed_at'];
+  for (let i = 0; i < rows; i += 1) {
+    const t = i % targets;
+    const position = i < targets ? `${((t * 0.03) % 360).toFixed(3)},${(-60 + (t % 1200) * 0.1).toFixed(2)}` : ',';
+    lines.push(`${tag} ${t + 1},${position},magnitude,${(6 + (i % 40) / 10).toFixed(2)},0.02,mag,V,2026-10-${String(1 + Math.floor(i / targets)).padStart(2, '0')}T21:00:00Z`);
+  }
+  return Buffer.from(`${lines.join('\n')}\n`);
+}
+
+describe.skipIf(!chromiumAvailable)('a large commit in the browser', () => {
+  const { baseUrl, pageAs } = browserSuite();
+
+  for (const [theme, width] of [['day', 1366], ['night', 390]] as const) {
+    it(`shows rows written and targets derived while it runs (${theme}, ${width} px), and axe finds nothing`, { timeout: 180_000 }, async () => {
+      const page = await pageAs('observer@demo.invalid');
+      await page.setViewportSize({ width, height: 900 });
+      await page.evaluate((t) => window.localStorage.setItem('starledger.theme', t), theme);
+      await page.goto(`${baseUrl()}/projects/1/upload`);
+      await page.getByLabel('Measurement file').setInputFiles({ name: `season-${theme}.csv`, mimeType: 'text/csv', buffer: season(100_000, 10_000, theme === 'day' ? 'PD' : 'PN') });
+      await page.getByRole('button', { name: 'Upload and preview' }).click();
+      await page.waitForURL(/\/projects\/\d+\/uploads\/\d+$/, { timeout: 60_000 });
+      await page.getByRole('button', { name: 'Commit all 100,000 measurements' }).click();
+      const status = page.getByTestId('commit-progress').getByRole('status');
+      await status.filter({ hasText: /Writing measurements|Deriving values/ }).waitFor({ timeout: 60_000 });
+      expect(await status.textContent()).toMatch(/^(Writing measurements: [\d,]+ of 100,000|Deriving values: [\d,]+ of 10,000 targets \(100,000 measurements written\))$/);
+      // The page lists 10 000 new targets; the shot is the screenful around the commit panel.
+      await page.getByTestId('commit-progress').scrollIntoViewIfNeeded();
+      await page.screenshot({ path: path.join(shotsDir, `uploads-commit-progress-${theme}-${width}.png`) });
+      expect(await axeViolations(page)).toEqual([]);
+      await page.getByTestId('commit-outcome').waitFor({ timeout: 120_000 });
+      expect(await page.getByTestId('commit-outcome').textContent()).toContain('100,000 measurements added');
+    });
+  }
 });

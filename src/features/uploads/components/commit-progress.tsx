@@ -30,8 +30,9 @@ export function CommitProgress({ progress }: { progress: UploadProgress | null |
   const f = fraction(progress);
   return (
     <div className="max-w-prose space-y-1" data-testid="commit-progress">
+      {/* Track and bar drawn in theme tokens (the browser's own grey would break the night theme's red-only light). */}
       <progress
-        className="h-2 w-full accent-brass"
+        className="block h-2 w-full appearance-none overflow-hidden rounded-sm border border-rule bg-paper-deep [&::-moz-progress-bar]:bg-brass [&::-webkit-progress-bar]:bg-paper-deep [&::-webkit-progress-value]:bg-brass"
         aria-label="Commit progress"
         max={1}
         {...(f === null ? {} : { value: f })}
