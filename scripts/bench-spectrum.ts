@@ -8,8 +8,8 @@
  */
 import { gaussian, mulberry32 } from '../shared/physics/random';
 import { findContinuumPeak, fitPlanck, planckSpectralRadiance } from '../shared/physics/planck';
-import { decodeText, parseCsv } from '../server/modules/uploads/csv';
-import { readSpectrum } from '../server/modules/uploads/spectrum';
+import { decodeText, parseCsv } from '../shared/file-reading/text';
+import { readSpectrum } from '../shared/file-reading/spectrum';
 
 const SIZES = (process.env.BENCH_SIZES ?? '2000,20000,200000').split(',').map(Number);
 const RUNS = Number(process.env.BENCH_RUNS ?? 5);

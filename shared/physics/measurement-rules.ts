@@ -2,7 +2,7 @@ import type { MeasurementKind } from './quantities';
 
 /**
  * What each measurement kind needs beside its value, written once: the
- * file reader (shared/schemas/measurement-file.ts), the engine's own checks
+ * file reader (shared/file-reading/measurement-file.ts), the engine's own checks
  * (derive/validate.ts) and the column-mapping form all read these. The
  * units each kind accepts are ALLOWED_UNITS in units.ts.
  */

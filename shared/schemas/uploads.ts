@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { columnMapping, type ColumnMapping, type RowError } from './measurement-file';
+import { columnMapping, type ColumnMapping, type RowError } from '../file-reading/measurement-file';
 import { idParam } from './common';
 import { WAVELENGTH_UNITS } from '../physics/units';
 import { projectParams } from './params';

@@ -1,4 +1,4 @@
-import type { Field } from '@shared/schemas/measurement-file';
+import type { Field } from '@shared/file-reading/measurement-file';
 import type { MeasurementKind } from '@shared/physics/quantities';
 import { PhysicsError } from '@shared/physics/errors';
 import { parseUnit, UNITS } from '@shared/physics/units';

@@ -2,11 +2,11 @@ import type { Db } from '../../db/knex';
 import { AppError } from '../../lib/errors';
 import { sunCaution } from '../../../shared/sun-proximity';
 import { designationKey } from '../../../shared/coordinates';
-import { readMeasurementRecords, type ColumnMapping, type NormalisedRow, type RowError } from '../../../shared/schemas/measurement-file';
+import { readMeasurementRecords, type ColumnMapping, type NormalisedRow, type RowError } from '../../../shared/file-reading/measurement-file';
 import type { Caution } from '../../../shared/schemas/uploads';
 import { insertMeasurements, type NewMeasurement } from '../measurements/measurements.repository';
 import { addTargetsFromUpload } from '../targets/targets.service';
-import type { CsvTable } from './csv';
+import type { CsvTable } from '../../../shared/file-reading/text';
 import type { Analysis, CommitContext, Imported } from './upload-pipeline';
 import type { PreviewState } from './uploads.repository';
 

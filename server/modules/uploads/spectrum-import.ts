@@ -4,8 +4,8 @@ import { sunCaution } from '../../../shared/sun-proximity';
 import type { CreateUploadFields } from '../../../shared/schemas/uploads';
 import { insertMeasurements } from '../measurements/measurements.repository';
 import { findTarget } from '../targets/targets.repository';
-import type { CsvTable } from './csv';
-import { readSpectrum } from './spectrum';
+import type { CsvTable } from '../../../shared/file-reading/text';
+import { readSpectrum } from '../../../shared/file-reading/spectrum';
 import type { Analysis, CommitContext, Imported } from './upload-pipeline';
 import type { PreviewState } from './uploads.repository';
 

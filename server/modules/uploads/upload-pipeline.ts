@@ -1,11 +1,11 @@
 import { createHash } from 'node:crypto';
 import type { Db } from '../../db/knex';
-import { AppError, conflict } from '../../lib/errors';
-import { suggestMapping, type ColumnMapping, type RowError } from '../../../shared/schemas/measurement-file';
+import { AppError, conflict, validationFailed } from '../../lib/errors';
+import { suggestMapping, type ColumnMapping, type RowError } from '../../../shared/file-reading/measurement-file';
 import type { CreateUploadFields, Upload, UploadProgress } from '../../../shared/schemas/uploads';
 import { appendTrail } from '../trail/trail.repository';
 import { rederiveTargets } from '../derived-values/derived-values.service';
-import { decodeText, parseCsv, type CsvTable } from './csv';
+import { decodeText, parseCsv, UnreadableFile, type CsvTable } from '../../../shared/file-reading/text';
 import { analyseMeasurements, commitMeasurements } from './measurement-import';
 import { analyseSpectrum, commitSpectrum } from './spectrum-import';
 import {
@@ -87,6 +87,16 @@ export type Report = (uploadId: number, progress: Partial<UploadProgress>) => vo
 export const headerSignature = (headers: string[]) =>
   createHash('sha256').update(JSON.stringify(headers.map((h) => h.trim().toLowerCase()))).digest('hex');
 
+/** The bytes of an upload as a table; a file that cannot be read is refused on its `file` field. */
+export function readTable(bytes: Buffer): CsvTable {
+  try {
+    return parseCsv(decodeText(bytes));
+  } catch (e) {
+    if (e instanceof UnreadableFile) throw validationFailed([{ path: 'file', message: e.message }]);
+    throw e;
+  }
+}
+
 async function analyse(
   db: Db,
   projectId: number,
@@ -115,7 +125,7 @@ export async function runPreview(db: Db, job: PreviewJob): Promise<number> {
   const now = new Date(job.now);
   const buffer = Buffer.from(job.content.buffer, job.content.byteOffset, job.content.byteLength);
   // A file that is not text, or has no rows, is refused before anything is stored.
-  const table = parseCsv(decodeText(buffer));
+  const table = readTable(buffer);
   const sha256 = createHash('sha256').update(buffer).digest('hex');
   const uploadId = await db.transaction(async (trx) => {
     const id = await insertUpload(
@@ -148,7 +158,7 @@ export async function runPreview(db: Db, job: PreviewJob): Promise<number> {
 export async function runRemap(db: Db, job: RemapJob): Promise<void> {
   const stored = await loadContent(db, job.projectId, job.uploadId);
   if (!stored) throw conflict('This upload has no file; upload it again.');
-  await analyse(db, job.projectId, job.uploadId, 'measurements', parseCsv(decodeText(stored.content)), { mapping: job.mapping, sha256: stored.sha256 });
+  await analyse(db, job.projectId, job.uploadId, 'measurements', readTable(stored.content), { mapping: job.mapping, sha256: stored.sha256 });
 }
 
 /** Targets re-derived per step of a commit, so its progress can be followed. */

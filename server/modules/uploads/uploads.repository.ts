@@ -1,7 +1,7 @@
 import { gunzipSync, gzipSync } from 'node:zlib';
 import type { Db } from '../../db/knex';
 import { bulkInsert } from '../../db/bulk-insert';
-import type { ColumnMapping, NormalisedRow, RowError } from '../../../shared/schemas/measurement-file';
+import type { ColumnMapping, NormalisedRow, RowError } from '../../../shared/file-reading/measurement-file';
 import { ERRORS_SHOWN, type Caution, type SpectrumPreview, type Upload } from '../../../shared/schemas/uploads';
 import { parseJson, toIso } from '../../lib/rows';
 

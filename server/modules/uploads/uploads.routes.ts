@@ -1,6 +1,6 @@
 import type { Request, Response } from 'express';
 import { commitBody, createUploadFields, remapBody, uploadErrorsQuery, uploadParams, uploadRowsQuery } from '../../../shared/schemas/uploads';
-import { LONG_TEMPLATE, WIDE_TEMPLATE } from '../../../shared/schemas/measurement-file';
+import { LONG_TEMPLATE, WIDE_TEMPLATE } from '../../../shared/file-reading/measurement-file';
 import { projectAccessOf } from '../../middleware/access';
 import { parsed } from '../../middleware/validate';
 import type { UploadsService } from './uploads.service';

@@ -1,12 +1,12 @@
 import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
 import { AppError, conflict, notFound, validationFailed } from '../../lib/errors';
-import type { ColumnMapping, RowError } from '../../../shared/schemas/measurement-file';
+import type { ColumnMapping, RowError } from '../../../shared/file-reading/measurement-file';
 import type { CreateUploadFields, Upload, UploadErrorsPage, UploadProgress, UploadRowsPage } from '../../../shared/schemas/uploads';
 import { appendTrail } from '../trail/trail.repository';
-import { decodeText, parseCsv } from './csv';
 import { spectrumTarget } from './spectrum-import';
 import { inlineUploadJobs, type UploadJobs } from './upload-jobs';
+import { readTable } from './upload-pipeline';
 import {
   abandonedPreviews,
   dropPreviewRows,
@@ -111,7 +111,7 @@ export function createUploadsService(db: Db, clock: Clock, options: UploadsOptio
       if (!records) {
         // Uploads stored before their records were kept in chunks: read the file itself.
         const stored = await loadContent(db, projectId, uploadId);
-        const table = parseCsv(decodeText(stored!.content));
+        const table = readTable(stored!.content);
         records = new Map(numbers.map((n) => [n, table.records[n - 2] ?? []]));
       }
       const errorsByRow = new Map<number, RowError[]>();

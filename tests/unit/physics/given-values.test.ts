@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CONSTANTS } from '@shared/physics/constants';
 import { deriveAll, dependentsOf } from '@shared/physics/derive';
 import { isMeasurementKind, MEASUREMENT_SI_UNIT } from '@shared/physics/quantities';
-import { readMeasurementRecords, suggestMapping, FILE_QUANTITIES } from '@shared/schemas/measurement-file';
+import { readMeasurementRecords, suggestMapping, FILE_QUANTITIES } from '@shared/file-reading/measurement-file';
 import { allowedUnits, measurementToSi } from '@shared/physics/units';
 
 /*

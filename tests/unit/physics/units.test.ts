@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { PhysicsError } from '@shared/physics/errors';
 import { MEASUREMENT_KINDS } from '@shared/physics/quantities';
-import { readMeasurementRecords, suggestMapping } from '@shared/schemas/measurement-file';
+import { readMeasurementRecords, suggestMapping } from '@shared/file-reading/measurement-file';
 import { allowedUnits, convert, convertQuantity, measurementToSi, parseUnit, toSi } from '@shared/physics/units';
 
 describe('units', () => {

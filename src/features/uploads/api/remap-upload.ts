@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { ColumnMapping } from '@shared/schemas/measurement-file';
+import type { ColumnMapping } from '@shared/file-reading/measurement-file';
 import type { Upload } from '@shared/schemas/uploads';
 import { api } from '@/lib/api-client';
 import { uploadKeys } from './keys';

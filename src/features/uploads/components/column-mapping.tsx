@@ -9,7 +9,7 @@ import {
   type Field,
   type FileQuantity,
   type RowError,
-} from '@shared/schemas/measurement-file';
+} from '@shared/file-reading/measurement-file';
 import { ALLOWED_UNITS } from '@shared/physics/units';
 import { NEEDS_BAND, NEEDS_REST_WAVELENGTH } from '@shared/physics/measurement-rules';
 import { Alert } from '@/components/ui/alert';

@@ -1,4 +1,4 @@
-import { FILE_QUANTITIES } from '@shared/schemas/measurement-file';
+import { FILE_QUANTITIES } from '@shared/file-reading/measurement-file';
 import { linkClasses } from '@/components/ui/button';
 import { uploadDownloads } from '../api/keys';
 

@@ -1,5 +1,5 @@
 import { useId, useState } from 'react';
-import type { RowError } from '@shared/schemas/measurement-file';
+import type { RowError } from '@shared/file-reading/measurement-file';
 import { StatusLine } from '@/components/ui/alert';
 import { QueryError } from '@/components/errors/query-error';
 import { Button } from '@/components/ui/button';

@@ -4,7 +4,7 @@ import { measurementToSi } from '../physics/units';
 import { MUST_BE_POSITIVE, MUST_NOT_BE_NEGATIVE, NEEDS_BAND, NEEDS_REST_WAVELENGTH } from '../physics/measurement-rules';
 import { PhysicsError } from '../physics/errors';
 import { MEASUREMENT_KINDS, type MeasurementKind } from '../physics/quantities';
-import { designation as designationSchema } from './targets';
+import { designation as designationSchema } from '../schemas/targets';
 
 /**
  * The measurement file (PRODUCT.md, "The measurement file"): CSV with a

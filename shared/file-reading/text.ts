@@ -1,5 +1,16 @@
 import Papa from 'papaparse';
-import { validationFailed } from '../../lib/errors';
+
+/**
+ * The one home of reading an upload: this file turns bytes into a table,
+ * measurement-file.ts reads a table of measurements under a column mapping,
+ * spectrum.ts reads a spectrum; the rules of what each kind needs are
+ * shared/physics/measurement-rules.ts and the units shared/physics/units.ts.
+ */
+
+/** A file that cannot be read as a table at all; the message says what to do about it. */
+export class UnreadableFile extends Error {
+  override name = 'UnreadableFile';
+}
 
 export interface CsvTable {
   headers: string[];
@@ -14,22 +25,22 @@ export interface CsvTable {
  * read, and the message says so instead of importing garbage.
  */
 export function decodeText(bytes: Buffer): string {
-  if (bytes.length === 0) throw validationFailed([{ path: 'file', message: 'The file is empty.' }]);
+  if (bytes.length === 0) throw new UnreadableFile('The file is empty.');
   const utf16 = bytes[0] === 0xff && bytes[1] === 0xfe ? 'utf-16le' : bytes[0] === 0xfe && bytes[1] === 0xff ? 'utf-16be' : null;
   if (utf16) {
     try {
       return new TextDecoder(utf16, { fatal: true }).decode(bytes);
     } catch {
-      throw validationFailed([{ path: 'file', message: 'The file starts like UTF-16 text but is not valid UTF-16. Save it as CSV UTF-8.' }]);
+      throw new UnreadableFile('The file starts like UTF-16 text but is not valid UTF-16. Save it as CSV UTF-8.');
     }
   }
   if (bytes.subarray(0, Math.min(bytes.length, 8192)).includes(0)) {
-    throw validationFailed([{ path: 'file', message: 'This is not a text CSV file (it contains binary data). Export it from your spreadsheet as CSV, UTF-8.' }]);
+    throw new UnreadableFile('This is not a text CSV file (it contains binary data). Export it from your spreadsheet as CSV, UTF-8.');
   }
   try {
     return new TextDecoder('utf-8', { fatal: true, ignoreBOM: false }).decode(bytes);
   } catch {
-    throw validationFailed([{ path: 'file', message: 'The file is not UTF-8 text. Save it as CSV UTF-8 and upload it again.' }]);
+    throw new UnreadableFile('The file is not UTF-8 text. Save it as CSV UTF-8 and upload it again.');
   }
 }
 
@@ -42,13 +53,13 @@ export function parseCsv(text: string): CsvTable {
   });
   const [headerRow, ...records] = result.data;
   if (!headerRow || headerRow.every((h) => h.trim() === '')) {
-    throw validationFailed([{ path: 'file', message: 'The file is empty.' }]);
+    throw new UnreadableFile('The file is empty.');
   }
   const headers = headerRow.map((h) => h.replace(/^\uFEFF/, '').trim());
   const blank = headers.findIndex((h) => h === '');
-  if (blank >= 0) throw validationFailed([{ path: 'file', message: `Column ${blank + 1} of the header row has no name.` }]);
+  if (blank >= 0) throw new UnreadableFile(`Column ${blank + 1} of the header row has no name.`);
   const dup = headers.find((h, i) => headers.findIndex((o) => o.toLowerCase() === h.toLowerCase()) !== i);
-  if (dup) throw validationFailed([{ path: 'file', message: `The header names the column "${dup}" twice.` }]);
-  if (records.length === 0) throw validationFailed([{ path: 'file', message: 'The file has a header row but no data rows.' }]);
+  if (dup) throw new UnreadableFile(`The header names the column "${dup}" twice.`);
+  if (records.length === 0) throw new UnreadableFile('The file has a header row but no data rows.');
   return { headers, records, delimiter: result.meta.delimiter };
 }

@@ -1,10 +1,10 @@
-import { findContinuumPeak, fitPlanck } from '../../../shared/physics/planck';
-import { PhysicsError } from '../../../shared/physics/errors';
-import type { Measured } from '../../../shared/physics/measured';
-import { toSi, WAVELENGTH_UNITS, type UnitName } from '../../../shared/physics/units';
-import { normaliseHeader, readNumber, type RowError } from '../../../shared/schemas/measurement-file';
-import type { SpectrumPreview } from '../../../shared/schemas/uploads';
-import type { CsvTable } from './csv';
+import { findContinuumPeak, fitPlanck } from '../physics/planck';
+import { PhysicsError } from '../physics/errors';
+import type { Measured } from '../physics/measured';
+import { toSi, WAVELENGTH_UNITS, type UnitName } from '../physics/units';
+import { normaliseHeader, readNumber, type RowError } from './measurement-file';
+import type { SpectrumPreview } from '../schemas/uploads';
+import type { CsvTable } from './text';
 
 const UNIT_IN_HEADER: [RegExp, UnitName][] = [
   [/(?:^|[_(\s])(nm|nanomet(?:er|re)s?)\)?$/, 'nm'],
