@@ -3,7 +3,6 @@ import path from 'node:path';
 import compression from 'compression';
 import express, { type Express } from 'express';
 import helmet from 'helmet';
-import { rateLimit } from 'express-rate-limit';
 import type { Db } from './db/knex';
 import { systemClock, type Clock } from './lib/clock';
 import type { Mailer } from './mail/mailer';
@@ -15,7 +14,7 @@ import { errorHandler, notFoundHandler } from './middleware/error-handler';
 import { sessionMiddleware } from './middleware/session';
 import { apiRoutes, mountRoutes } from './routes';
 import { createServices } from './services';
-import { AppError } from './lib/errors';
+import { createLoginThrottle, defaultThrottleRules, type ThrottleRules } from './modules/auth/login-throttle';
 import type { UploadJobs } from './modules/uploads/upload-jobs';
 
 export interface AppOptions {
@@ -26,13 +25,14 @@ export interface AppOptions {
   secureCookies?: boolean;
   /** Built client to serve (dist/); omitted in API tests. */
   clientDir?: string;
-  loginAttemptsPerWindow?: number;
+  /** Failed sign-ins before delays start, and the delays (server/modules/auth/login-throttle.ts). */
+  loginThrottle?: Partial<ThrottleRules>;
   /** The address people open Starledger at, for links in mail (PUBLIC_URL). */
   publicUrl?: string;
   /** The local mail fake's inbox, shown to the site admin; absent when mail goes to a real SMTP server. */
   mailInbox?: MailInbox;
   sessionCleanupIntervalMs?: number;
-  /** Which proxies' X-Forwarded-Proto to believe, in Express's `trust proxy` terms (TRUST_PROXY); loopback by default. */
+  /** Which proxies' X-Forwarded-Proto and X-Forwarded-For to believe, in Express's `trust proxy` terms (TRUST_PROXY); loopback by default. */
   trustProxy?: string | number | boolean;
   /** Where uploads are read and committed; see server/modules/uploads/upload-jobs.ts. */
   uploadJobs?: UploadJobs;
@@ -46,7 +46,7 @@ export function createApp(options: AppOptions): Express {
 
   const app = express();
   app.disable('x-powered-by');
-  // req.secure (and so HSTS) follows X-Forwarded-Proto only from these proxies.
+  // req.secure (and so HSTS) and req.ip (and so the sign-in throttle) follow X-Forwarded-Proto and -For only from these proxies.
   app.set('trust proxy', options.trustProxy ?? 'loopback');
   // Text assets and JSON compressed, brotli or gzip by what the client accepts (compression ≥ 1.8 speaks both).
   app.use(compression());
@@ -70,14 +70,7 @@ export function createApp(options: AppOptions): Express {
     next();
   });
 
-  const loginLimiter = rateLimit({
-    windowMs: 15 * 60 * 1000,
-    limit: options.loginAttemptsPerWindow ?? 20,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    handler: (_req, _res, next) => next(new AppError(429, 'rate_limited')),
-  });
+  const loginThrottle = createLoginThrottle(db, clock, { ...defaultThrottleRules, ...options.loginThrottle });
 
   const api = express.Router();
   // API answers are one person's view of live data: no browser or proxy keeps them.
@@ -96,7 +89,7 @@ export function createApp(options: AppOptions): Express {
   api.use(...passportMiddleware(passport));
   api.use(bearerAuth(services.tokens));
   api.use(csrfProtection);
-  api.use(mountRoutes(db, apiRoutes(services, passport, loginLimiter)));
+  api.use(mountRoutes(db, apiRoutes(services, passport, loginThrottle)));
   api.use(notFoundHandler);
   api.use(errorHandler);
   app.use('/api', api);

@@ -11,6 +11,7 @@ import type { StarledgerPassport } from './middleware/auth';
 import type { Services } from './services';
 import { openApiDocument } from './openapi';
 import { authHandlers } from './modules/auth/auth.routes';
+import type { LoginThrottle } from './modules/auth/login-throttle';
 import { usersHandlers } from './modules/users/users.routes';
 import { projectsHandlers } from './modules/projects/projects.routes';
 import { membersHandlers } from './modules/members/members.routes';
@@ -58,8 +59,8 @@ export interface RouteDef {
  * test walks this list, so a new route cannot be added without saying who
  * may call it.
  */
-export function apiRoutes(services: Services, passport: StarledgerPassport, loginLimiter: RequestHandler): RouteDef[] {
-  const auth = authHandlers(passport, services.users);
+export function apiRoutes(services: Services, passport: StarledgerPassport, loginThrottle: LoginThrottle): RouteDef[] {
+  const auth = authHandlers(passport, services.users, loginThrottle);
   const users = usersHandlers(services.users);
   const projects = projectsHandlers(services.projects);
   const members = membersHandlers(services.members);
@@ -83,7 +84,7 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'get', path: '/openapi.json', access: signedIn, handler: (_req, res) => res.json((document ??= openApiDocument(routes, API_VERSION))) },
 
     // Sign-in
-    { method: 'post', path: '/auth/login', access: anyone, before: [loginLimiter], body: loginBody, handler: auth.login },
+    { method: 'post', path: '/auth/login', access: anyone, body: loginBody, handler: auth.login },
     { method: 'post', path: '/auth/logout', access: signedIn, handler: auth.logout },
     { method: 'get', path: '/auth/me', access: signedIn, handler: auth.me },
     // A forgotten password: the link's token travels in the body, never in a URL that logs keep

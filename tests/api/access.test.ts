@@ -1,9 +1,9 @@
-import type { RequestHandler } from 'express';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
 import { apiRoutes } from '../../server/routes';
 import { createServices } from '../../server/services';
 import { createPassport } from '../../server/middleware/auth';
+import { createLoginThrottle } from '../../server/modules/auth/login-throttle';
 import { createDb } from '../../server/db/knex';
 import { systemClock } from '../../server/lib/clock';
 import { hashLinkToken } from '../../server/lib/link-tokens';
@@ -108,8 +108,7 @@ const SAMPLE_FILE = 'target,quantity,value,unit\nT 1,parallax,12.5,mas\n';
 function declaredRoutes() {
   const db = createDb('file::memory:');
   const services = createServices(db, systemClock);
-  const noop: RequestHandler = (_q, _s, n) => n();
-  const routes = apiRoutes(services, createPassport(services.users), noop);
+  const routes = apiRoutes(services, createPassport(services.users), createLoginThrottle(db, systemClock));
   void db.destroy();
   return routes.map((r) => `${r.method.toUpperCase()} ${r.path}`);
 }

@@ -1,10 +1,10 @@
 import { compileErrors, validate } from '@readme/openapi-parser';
-import type { RequestHandler } from 'express';
 import { afterEach, describe, expect, it } from 'vitest';
 import type { z } from 'zod';
 import { createDb } from '../../server/db/knex';
 import { systemClock } from '../../server/lib/clock';
 import { createPassport } from '../../server/middleware/auth';
+import { createLoginThrottle } from '../../server/modules/auth/login-throttle';
 import { openApiPath } from '../../server/openapi';
 import { apiRoutes, type RouteDef } from '../../server/routes';
 import { createServices } from '../../server/services';
@@ -16,8 +16,7 @@ afterEach(async () => world?.db.destroy());
 function declaredRoutes(): RouteDef[] {
   const db = createDb('file::memory:');
   const services = createServices(db, systemClock);
-  const noop: RequestHandler = (_q, _s, n) => n();
-  const routes = apiRoutes(services, createPassport(services.users), noop);
+  const routes = apiRoutes(services, createPassport(services.users), createLoginThrottle(db, systemClock));
   void db.destroy();
   return routes;
 }

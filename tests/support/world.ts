@@ -6,6 +6,7 @@ import { fixedClock, type Clock } from '../../server/lib/clock';
 import { hashPassword } from '../../server/lib/passwords';
 import { createMailInbox, type MailInbox } from '../../server/mail/fake-smtp';
 import type { UploadJobs } from '../../server/modules/uploads/upload-jobs';
+import type { ThrottleRules } from '../../server/modules/auth/login-throttle';
 import { newLinkToken } from '../../server/lib/link-tokens';
 
 export const PASSWORD = 'correct-horse-battery';
@@ -39,7 +40,7 @@ export interface World {
  * who belongs to neither, and one target.
  */
 export async function makeWorld(
-  options: { loginAttemptsPerWindow?: number; clientDir?: string; clock?: Clock; databaseFile?: string; uploadJobs?: UploadJobs } = {},
+  options: { loginThrottle?: Partial<ThrottleRules>; trustProxy?: string | number | boolean; clientDir?: string; clock?: Clock; databaseFile?: string; uploadJobs?: UploadJobs } = {},
 ): Promise<World> {
   // A file when a test needs a second connection to the same database; in memory otherwise.
   const db = createDb(`file:${options.databaseFile ?? ':memory:'}`);
@@ -69,7 +70,8 @@ export async function makeWorld(
     clock: options.clock ?? fixedClock('2026-12-01T03:00:00.000Z'),
     sessionSecret: 'test-secret',
     sessionCleanupIntervalMs: 0,
-    loginAttemptsPerWindow: options.loginAttemptsPerWindow,
+    loginThrottle: options.loginThrottle,
+    trustProxy: options.trustProxy,
     clientDir: options.clientDir,
     mailInbox,
     uploadJobs: options.uploadJobs,

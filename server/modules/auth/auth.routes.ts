@@ -4,6 +4,9 @@ import { AppError } from '../../lib/errors';
 import { csrfToken } from '../../middleware/csrf';
 import type { StarledgerPassport } from '../../middleware/auth';
 import type { UsersService } from '../users/users.service';
+import { loginBody } from '../../../shared/schemas/auth';
+import { parsed } from '../../middleware/validate';
+import type { LoginThrottle } from './login-throttle';
 
 /** What the browser keeps of a session: the person, their roles and the CSRF token for writes. */
 export async function sessionBody(req: Request, users: UsersService) {
@@ -11,17 +14,32 @@ export async function sessionBody(req: Request, users: UsersService) {
   return { user, memberships: await users.memberships(user.id), csrfToken: csrfToken(req) };
 }
 
-export function authHandlers(passport: StarledgerPassport, users: UsersService) {
+export function authHandlers(passport: StarledgerPassport, users: UsersService, throttle: LoginThrottle) {
   return {
-    login(req: Request, res: Response, next: NextFunction) {
+    /**
+     * While the account or the address waits out a delay (see
+     * login-throttle.ts) the answer is 429 whatever the password, so that a
+     * delay is no oracle; it is the same for an e-mail no account has.
+     */
+    async login(req: Request, res: Response, next: NextFunction) {
+      const { email } = parsed(res, 'body', loginBody);
+      const wait = await throttle.waitSeconds(req, email);
+      if (wait > 0) {
+        res.set('Retry-After', String(wait));
+        return next(new AppError(429, 'rate_limited'));
+      }
       passport.authenticate('local', (err: unknown, user: User | false) => {
         if (err) return next(err);
         // One message whether the e-mail is unknown or the password wrong.
-        if (!user) return next(new AppError(401, 'invalid_credentials'));
-        req.logIn(user, (loginErr) => {
-          if (loginErr) return next(loginErr);
-          sessionBody(req, users).then((body) => res.json(body), next);
-        });
+        if (!user) return throttle.failed(req, email).then(() => next(new AppError(401, 'invalid_credentials')), next);
+        throttle.succeeded(req, email).then(
+          () =>
+            req.logIn(user, (loginErr) => {
+              if (loginErr) return next(loginErr);
+              sessionBody(req, users).then((body) => res.json(body), next);
+            }),
+          next,
+        );
       })(req, res, next);
     },
 
