@@ -1,6 +1,6 @@
 import { Router, type RequestHandler } from 'express';
 import type { z } from 'zod';
-import { loginBody, createUserBody, completePasswordResetBody, linkBody, passwordResetRequestBody } from '../shared/schemas/auth';
+import { loginBody, changePasswordBody, createUserBody, completePasswordResetBody, linkBody, passwordResetRequestBody } from '../shared/schemas/auth';
 import { addMemberBody, createProjectBody, updateMemberBody, updateProjectBody } from '../shared/schemas/projects';
 import { memberParams, projectParams, targetParams } from '../shared/schemas/params';
 import { createTargetBody, listTargetsQuery, updateTargetBody } from '../shared/schemas/targets';
@@ -87,6 +87,8 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'post', path: '/auth/login', access: anyone, body: loginBody, handler: auth.login },
     { method: 'post', path: '/auth/logout', access: signedIn, handler: auth.logout },
     { method: 'get', path: '/auth/me', access: signedIn, handler: auth.me },
+    // A signed-in person's new password: the current one is asked for, and every other session ends
+    { method: 'post', path: '/auth/password', access: signedIn, body: changePasswordBody, handler: auth.changePassword },
     // A forgotten password: the link's token travels in the body, never in a URL that logs keep
     { method: 'post', path: '/auth/password-reset', access: anyone, body: passwordResetRequestBody, handler: passwordResets.request },
     { method: 'post', path: '/auth/password-reset/lookup', access: anyone, body: linkBody, handler: passwordResets.lookup },

@@ -1,4 +1,7 @@
 import { createHash, randomBytes, scrypt as scryptCb, timingSafeEqual, type ScryptOptions } from 'node:crypto';
+import commonPasswords from 'fxa-common-password-list';
+import { contextualPasswordProblem, passwordRule, type PasswordContext } from '../../shared/schemas/auth';
+import { validationFailed } from './errors';
 
 function scrypt(password: string, salt: Buffer, keylen: number, options: ScryptOptions): Promise<Buffer> {
   return new Promise((resolve, reject) =>
@@ -45,4 +48,27 @@ export const decoyHash = hashPassword(randomBytes(16).toString('hex'));
  */
 export function sessionStamp(passwordHash: string): string {
   return createHash('sha256').update(passwordHash).digest('hex').slice(0, 16);
+}
+
+/**
+ * Why a new password is refused, or undefined when it is acceptable: the
+ * length (shared passwordRule), one of the most common passwords (Mozilla's
+ * fxa-common-password-list, drawn from the OWASP SecLists "10 million
+ * passwords" top list; ASVS 4.0 2.1.7), or one made of the account's own
+ * words (contextualPasswordProblem). The one check every way of setting a
+ * password passes through: a new account, an invitation, a reset, a change.
+ */
+export function passwordProblem(password: string, context: PasswordContext): string | undefined {
+  const length = passwordRule.safeParse(password);
+  if (!length.success) return length.error.issues[0]?.message;
+  if (commonPasswords.test(password) || commonPasswords.test(password.toLowerCase())) {
+    return 'This is one of the most common passwords, which are tried first. Choose another; a few unrelated words together make a strong one.';
+  }
+  return contextualPasswordProblem(password, context);
+}
+
+/** Throws a validation error on the form's password field when passwordProblem finds one. */
+export function assertAcceptablePassword(password: string, context: PasswordContext, field = 'password'): void {
+  const problem = passwordProblem(password, context);
+  if (problem) throw validationFailed([{ path: field, message: problem }]);
 }

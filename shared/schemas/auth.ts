@@ -27,7 +27,50 @@ export const meResponse = z.object({
 });
 export type MeResponse = z.infer<typeof meResponse>;
 
-export const passwordRule = z.string().min(10, 'Use at least 10 characters.').max(200, 'Use at most 200 characters.');
+/**
+ * The length of a new password (ASVS 4.0 2.1.1 and 2.1.2: at least 12,
+ * and at least 64 allowed). Any characters, spaces included, and no rules
+ * about kinds of character (2.1.9); a few words together make a good one.
+ * The server also refuses common passwords and ones made of the account's
+ * own words (server/lib/passwords.ts, acceptablePassword).
+ */
+export const PASSWORD_MIN_LENGTH = 12;
+export const PASSWORD_MAX_LENGTH = 200;
+export const passwordRule = z
+  .string()
+  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters; a few words together make a good password.`)
+  .max(PASSWORD_MAX_LENGTH, `Use at most ${PASSWORD_MAX_LENGTH} characters.`);
+
+/** The hint beside every field where a new password is chosen. */
+export const PASSWORD_HINT = `At least ${PASSWORD_MIN_LENGTH} characters, any kind; a few words together make a good password. Not a common one, not your e-mail or name.`;
+
+/** What a password must not be made of: the account's e-mail, its parts, the person's name, the product's name. */
+export interface PasswordContext {
+  email: string;
+  name?: string | null;
+}
+
+const lettersOf = (s: string) => s.toLowerCase().replace(/[^\p{L}]+/gu, '');
+
+/**
+ * A password made only of the account's own words (its e-mail or the part
+ * before the @, the name or a part of it, "Starledger"), with or without
+ * digits and symbols, is refused (ASVS 4.0 2.1.7, context-specific words):
+ * "starledger2026", "Tobiah.Ferrand!1" and "lead@demo.invalid" are; a
+ * phrase with other words in it, like "lead-demo-2026" for lead@…, is not.
+ */
+export function contextualPasswordProblem(password: string, context: PasswordContext): string | undefined {
+  const local = context.email.split('@')[0] ?? '';
+  const words = [context.email, local, ...local.split(/[^\p{L}]+/u), context.name ?? '', ...(context.name ?? '').split(/\s+/), 'starledger']
+    .map(lettersOf)
+    .filter((w) => w.length >= 2)
+    .sort((a, b) => b.length - a.length);
+  const letters = lettersOf(password);
+  if (letters === '') return undefined;
+  let rest = letters;
+  for (const word of words) rest = rest.split(word).join('');
+  return rest === '' ? 'This password is made of your e-mail, your name or "Starledger", which are guessed first. Add words of your own.' : undefined;
+}
 
 export const createUserBody = z.object({
   email: z.string().trim().toLowerCase().email('Enter an e-mail address.'),
@@ -61,6 +104,16 @@ export type CompletePasswordResetBody = z.infer<typeof completePasswordResetBody
 /** The browser's forms have a password typed twice, so that a slip of the finger does not lock the account. */
 export const samePassword = (f: { password?: string; repeat: string }) => f.password === f.repeat;
 export const samePasswordIssue = { path: ['repeat'], message: 'The two passwords differ.' };
+
+/** A signed-in person's new password; the current one proves it is them at the keyboard. */
+export const changePasswordBody = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password.'),
+  password: passwordRule,
+});
+export type ChangePasswordBody = z.infer<typeof changePasswordBody>;
+
+export const changePasswordForm = changePasswordBody.extend({ repeat: z.string() }).refine(samePassword, samePasswordIssue);
+export type ChangePasswordForm = z.infer<typeof changePasswordForm>;
 
 export const choosePasswordForm = z.object({ password: passwordRule, repeat: z.string() }).refine(samePassword, samePasswordIssue);
 export type ChoosePasswordForm = z.infer<typeof choosePasswordForm>;

@@ -7,7 +7,7 @@ import { createLoginThrottle } from '../../server/modules/auth/login-throttle';
 import { createDb } from '../../server/db/knex';
 import { systemClock } from '../../server/lib/clock';
 import { hashLinkToken } from '../../server/lib/link-tokens';
-import { emails, makeWorld, openLink, proposeValue, signIn, type Who, type World } from '../support/world';
+import { emails, makeWorld, openLink, PASSWORD, proposeValue, signIn, type Who, type World } from '../support/world';
 
 /**
  * Walks every API route with every kind of caller and checks the status.
@@ -37,6 +37,7 @@ const cases: Record<string, Case> = {
   'POST /auth/login': { rule: 'public' },
   'POST /auth/logout': { rule: 'signed-in' },
   'GET /auth/me': { rule: 'signed-in' },
+  'POST /auth/password': { rule: 'signed-in', body: () => ({ currentPassword: PASSWORD, password: 'a-new-long-password' }) },
   'GET /openapi.json': { rule: 'signed-in' },
   'POST /auth/password-reset': { rule: 'public', body: () => ({ email: emails.reader }) },
   'POST /auth/password-reset/lookup': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset') }) },

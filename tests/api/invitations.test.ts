@@ -121,7 +121,7 @@ describe('accepting an invitation', () => {
     ]);
     const short = await request(w.app).post('/api/invitations/accept').send({ token, name: 'F', password: 'short' });
     expect(short.status).toBe(400);
-    expect(short.body.error.details).toEqual([{ path: 'password', message: 'Use at least 10 characters.' }]);
+    expect(short.body.error.details).toEqual([{ path: 'password', message: 'Use at least 12 characters; a few words together make a good password.' }]);
     await request(w.app).post('/api/invitations/lookup').send({ token }).expect(200);
   });
 

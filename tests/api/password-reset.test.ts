@@ -151,7 +151,7 @@ describe('setting a new password from the link', () => {
     const token = await openLink(w, 'reset');
     const res = await request(w.app).post('/api/auth/password-reset/complete').send({ token, password: 'short' });
     expect(res.status).toBe(400);
-    expect(res.body.error.details).toEqual([{ path: 'password', message: 'Use at least 10 characters.' }]);
+    expect(res.body.error.details).toEqual([{ path: 'password', message: 'Use at least 12 characters; a few words together make a good password.' }]);
     await request(w.app).post('/api/auth/password-reset/lookup').send({ token }).expect(200);
   });
 

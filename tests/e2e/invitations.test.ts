@@ -119,7 +119,7 @@ describe.skipIf(!chromiumAvailable)('invitations and password resets in the brow
     await page.getByLabel('New password', { exact: true }).fill('short');
     await page.getByLabel('The same again').fill('short');
     await page.getByRole('button', { name: 'Set the new password' }).click();
-    await page.getByText('Use at least 10 characters.').waitFor();
+    await page.getByText('Use at least 12 characters; a few words together make a good password.').waitFor();
     await page.getByLabel('New password', { exact: true }).fill('nightfall-observer-2026');
     await page.getByLabel('The same again').fill('nightfall-observer-2026');
     await page.getByRole('button', { name: 'Set the new password' }).click();

@@ -1,10 +1,10 @@
 import type { NextFunction, Request, Response } from 'express';
 import type { User } from '../../../shared/schemas/auth';
-import { AppError } from '../../lib/errors';
+import { AppError, validationFailed } from '../../lib/errors';
 import { csrfToken } from '../../middleware/csrf';
 import type { StarledgerPassport } from '../../middleware/auth';
 import type { UsersService } from '../users/users.service';
-import { loginBody } from '../../../shared/schemas/auth';
+import { changePasswordBody, loginBody } from '../../../shared/schemas/auth';
 import { parsed } from '../../middleware/validate';
 import type { LoginThrottle } from './login-throttle';
 
@@ -41,6 +41,32 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
           next,
         );
       })(req, res, next);
+    },
+
+    /**
+     * A signed-in person's new password. The current one is asked for and
+     * counted by the sign-in throttle like a sign-in, so that a borrowed
+     * session cannot guess it; the change ends every session of the account
+     * and this browser gets a new one with the new password's stamp.
+     */
+    async changePassword(req: Request, res: Response, next: NextFunction) {
+      const user = req.user as User;
+      const body = parsed(res, 'body', changePasswordBody);
+      const wait = await throttle.waitSeconds(req, user.email);
+      if (wait > 0) {
+        res.set('Retry-After', String(wait));
+        throw new AppError(429, 'rate_limited');
+      }
+      if (!(await users.authenticate(user.email, body.currentPassword))) {
+        await throttle.failed(req, user.email);
+        throw validationFailed([{ path: 'currentPassword', message: 'This is not your current password.' }]);
+      }
+      await throttle.succeeded(req, user.email);
+      await users.changePassword(user.id, body.password);
+      req.logIn(user, (loginErr) => {
+        if (loginErr) return next(loginErr);
+        sessionBody(req, users).then((session) => res.json({ ...session, message: 'Your password is changed. Your other sessions have ended.' }), next);
+      });
     },
 
     logout(req: Request, res: Response, next: NextFunction) {

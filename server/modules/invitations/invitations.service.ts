@@ -5,7 +5,7 @@ import type { AcceptInvitationBody, CreateInvitationBody, Invitation, Invitation
 import type { FieldIssue } from '../../../shared/errors';
 import { AppError, conflict, forbidden, notFound, validationFailed } from '../../lib/errors';
 import { expiresAfter, hashLinkToken, linkRefusal, newLinkToken, UNKNOWN_LINK } from '../../lib/link-tokens';
-import { hashPassword } from '../../lib/passwords';
+import { assertAcceptablePassword, hashPassword } from '../../lib/passwords';
 import { enqueueMail } from '../../mail/outbox';
 import { appendTrail } from '../trail/trail.repository';
 import { findUserByEmail, findUserById, insertUser } from '../users/users.repository';
@@ -120,6 +120,7 @@ export function createInvitationsService(db: Db, clock: Clock, options: { public
         if (!input.name) missing.push({ path: 'name', message: 'Enter your name.' });
         if (!input.password) missing.push({ path: 'password', message: 'Choose a password.' });
         if (missing.length > 0) throw validationFailed(missing);
+        assertAcceptablePassword(input.password!, { email: inv.email, name: input.name });
         passwordHash = await hashPassword(input.password!);
       }
       const now = clock.now();

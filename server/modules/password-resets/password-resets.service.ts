@@ -4,10 +4,10 @@ import type { Clock } from '../../lib/clock';
 import type { CompletePasswordResetBody, PasswordResetLookup } from '../../../shared/schemas/auth';
 import { AppError } from '../../lib/errors';
 import { expiresAfter, hashLinkToken, linkRefusal, newLinkToken, UNKNOWN_LINK } from '../../lib/link-tokens';
-import { hashPassword } from '../../lib/passwords';
+import { assertAcceptablePassword, hashPassword } from '../../lib/passwords';
 import { enqueueMail } from '../../mail/outbox';
 import { appendTrail } from '../trail/trail.repository';
-import { findUserByEmail, setPasswordHash } from '../users/users.repository';
+import { findUserByEmail, findUserById, setPasswordHash } from '../users/users.repository';
 import { deleteSessionsOf } from '../auth/sessions.repository';
 import { passwordResetMail } from './password-reset-mail';
 import { claimReset, closeOpenResets, countResetsSince, findResetByHash, insertReset, type StoredReset } from './password-resets.repository';
@@ -76,6 +76,7 @@ export function createPasswordResetsService(db: Db, clock: Clock, options: { pub
     /** Sets the new password, uses the link (and every other open link of the account) and ends all the account's sessions, in one transaction. */
     async complete(input: CompletePasswordResetBody): Promise<{ userId: number }> {
       const reset = await usable(input.token);
+      assertAcceptablePassword(input.password, { email: reset.email, name: (await findUserById(db, reset.userId))?.name });
       const passwordHash = await hashPassword(input.password);
       const now = clock.now();
       await db.transaction(async (trx) => {

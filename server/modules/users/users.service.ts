@@ -1,10 +1,11 @@
 import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
 import type { CreateUserBody, User } from '../../../shared/schemas/auth';
-import { conflict } from '../../lib/errors';
-import { decoyHash, hashPassword, sessionStamp, verifyPassword } from '../../lib/passwords';
+import { conflict, notFound } from '../../lib/errors';
+import { deleteSessionsOf } from '../auth/sessions.repository';
+import { assertAcceptablePassword, decoyHash, hashPassword, sessionStamp, verifyPassword } from '../../lib/passwords';
 import { appendTrail } from '../trail/trail.repository';
-import { findUserByEmail, findUserById, findUserWithHash, insertUser, listUsers, membershipsOf } from './users.repository';
+import { findUserByEmail, findUserById, findUserWithHash, insertUser, listUsers, membershipsOf, setPasswordHash } from './users.repository';
 
 export function createUsersService(db: Db, clock: Clock) {
   return {
@@ -39,10 +40,30 @@ export function createUsersService(db: Db, clock: Clock) {
     memberships: (userId: number) => membershipsOf(db, userId),
     list: () => listUsers(db),
 
+    /**
+     * Sets a signed-in person's new password (the caller has checked the
+     * current one) and ends every session of the account, in one
+     * transaction; the caller opens a new session for the browser that
+     * asked, which carries the new password's stamp.
+     */
+    async changePassword(userId: number, password: string): Promise<void> {
+      const found = await findUserWithHash(db, userId);
+      if (!found) throw notFound('No such account.');
+      assertAcceptablePassword(password, found);
+      const passwordHash = await hashPassword(password);
+      const now = clock.now();
+      await db.transaction(async (trx) => {
+        await setPasswordHash(trx, userId, passwordHash, now);
+        const ended = await deleteSessionsOf(trx, userId);
+        await appendTrail(trx, { projectId: null, actorUserId: userId, action: 'user.password_changed', entityType: 'user', entityId: userId, after: { sessionsEnded: ended } }, now);
+      });
+    },
+
     async create(input: CreateUserBody, actorUserId: number | null): Promise<User> {
       if (await findUserByEmail(db, input.email)) {
         throw conflict('An account with that e-mail already exists.', [{ path: 'email', message: 'Already in use.' }]);
       }
+      assertAcceptablePassword(input.password, input);
       const passwordHash = await hashPassword(input.password);
       return db.transaction(async (trx) => {
         const user = await insertUser(trx, { ...input, passwordHash }, clock.now());

@@ -32,6 +32,7 @@ const PERSONAL_ACTION_WORDS: Record<string, string> = {
   'token.revoked': 'API token revoked',
   'user.created': 'Account created',
   'user.password_reset': 'Password set from a reset link',
+  'user.password_changed': 'Password changed by its owner',
 };
 
 export type ProjectAction = keyof typeof PROJECT_ACTION_WORDS;

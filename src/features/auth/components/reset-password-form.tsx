@@ -1,7 +1,7 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { choosePasswordForm, type ChoosePasswordForm } from '@shared/schemas/auth';
+import { choosePasswordForm, PASSWORD_HINT, type ChoosePasswordForm } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
@@ -33,7 +33,7 @@ export function ResetPasswordForm({ token, email, onDone }: { token: string; ema
     <form onSubmit={onSubmit} noValidate aria-label="Set a new password" className="space-y-4">
       {formError ? <Alert title="The password was not changed.">{formError}</Alert> : null}
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
-      <TextField label="New password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password?.message} {...register('password')} />
+      <TextField label="New password" type="password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
       <TextField label="The same again" type="password" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
       <Button type="submit" className="w-full" disabled={isSubmitting}>
         {isSubmitting ? 'Saving…' : 'Set the new password'}

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { createUserBody, type CreateUserBody, type User } from '@shared/schemas/auth';
+import { createUserBody, PASSWORD_HINT, type CreateUserBody, type User } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
 import { CheckboxField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
@@ -49,7 +49,7 @@ export function CreateUserForm() {
         label="First password"
         type="password"
         autoComplete="new-password"
-        hint="At least 10 characters."
+        hint={PASSWORD_HINT}
         error={errors.password?.message}
         {...register('password')}
       />

@@ -1,0 +1,34 @@
+import { describe, expect, it } from 'vitest';
+import { passwordProblem } from '../../../server/lib/passwords';
+
+const lead = { email: 'lead@demo.invalid', name: 'Tobiah Ferrand' };
+
+describe('what a new password may be', () => {
+  it('refuses fewer than 12 characters and takes 12, a 64-character passphrase with spaces and 200 characters (ASVS 4.0 2.1.1, 2.1.2, 2.1.9)', () => {
+    expect(passwordProblem('eleven-char', lead)).toMatch(/at least 12 characters/);
+    expect(passwordProblem('twelve-chars', lead)).toBeUndefined();
+    const phrase = 'the red lamp over the dome stays lit until the last plate is done';
+    expect(phrase.length).toBe(65);
+    expect(passwordProblem(phrase, lead)).toBeUndefined();
+    expect(passwordProblem('x7'.repeat(100), lead)).toBeUndefined();
+    expect(passwordProblem('x7'.repeat(100) + 'y', lead)).toMatch(/at most 200/);
+  });
+
+  it('refuses common passwords of any case (fxa-common-password-list)', () => {
+    for (const common of ['aaaaaaaaaaaa', '123456789012', 'password1234', 'PASSWORD1234', 'qwertyuiopasdfgh', 'passwordpassword']) {
+      expect(passwordProblem(common, lead), common).toMatch(/most common passwords/);
+    }
+  });
+
+  it("refuses a password made of the account's e-mail, name or the product's name with digits and symbols", () => {
+    for (const own of ['lead@demo.invalid', 'LEAD@DEMO.INVALID', 'starledger2026', 'Starledger!Starledger', 'Tobiah.Ferrand!1', 'ferrand-2026-tobiah', 'lead1234567890']) {
+      expect(passwordProblem(own, lead), own).toMatch(/your e-mail, your name or "Starledger"/);
+    }
+  });
+
+  it('takes phrases that merely include such a word, and the demo passwords', () => {
+    expect(passwordProblem('lead-demo-2026', lead)).toBeUndefined();
+    expect(passwordProblem('starledger at the summit', lead)).toBeUndefined();
+    expect(passwordProblem('pi-demo-2026', { email: 'pi@demo.invalid', name: 'Hesper Quillon' })).toBeUndefined();
+  });
+});
