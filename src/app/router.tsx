@@ -56,6 +56,7 @@ export const router = createBrowserRouter([
           { path: paths.project.hr.path, lazy: async () => ({ Component: (await import('./routes/hr-diagram')).HrDiagramRoute }) },
           { path: paths.account.tokens.path, lazy: async () => ({ Component: (await import('./routes/account-tokens')).AccountTokensRoute }) },
           { path: paths.account.mail.path, lazy: async () => ({ Component: (await import('./routes/account-mail')).AccountMailRoute }) },
+          { path: paths.account.password.path, lazy: async () => ({ Component: (await import('./routes/account-password')).AccountPasswordRoute }) },
           { path: paths.admin.mail.path, lazy: async () => ({ Component: (await import('./routes/admin-mail')).AdminMailRoute }) },
           { path: paths.admin.users.path, lazy: async () => ({ Component: (await import('./routes/admin-users')).AdminUsersRoute }) },
           { path: paths.calculator.path, lazy: async () => ({ Component: (await import('./routes/calculator')).CalculatorRoute }) },

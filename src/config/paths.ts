@@ -101,6 +101,10 @@ export const paths = {
       path: '/account/mail',
       getHref: () => '/account/mail',
     },
+    password: {
+      path: '/account/password',
+      getHref: () => '/account/password',
+    },
   },
   admin: {
     users: {

@@ -112,6 +112,9 @@ export function AppShell({
             <NavLink to={paths.account.mail.getHref()} className={navLinkClasses}>
               Mail
             </NavLink>
+            <NavLink to={paths.account.password.getHref()} className={navLinkClasses}>
+              Password
+            </NavLink>
             <button
               type="button"
               onClick={onSignOut}
