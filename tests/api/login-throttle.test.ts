@@ -120,6 +120,15 @@ describe('sign-in throttle', { timeout: 30_000 }, () => {
     await login(world, emails.lead, PASSWORD, '203.0.113.200').expect(429);
   });
 
+  it('counts a burst of simultaneous failures, each one, without an error', async () => {
+    world = await makeWorld();
+    const burst = await Promise.all(Array.from({ length: 12 }, (_, i) => login(world, emails.lead, `burst-${i}`, `192.0.2.${100 + i}`)));
+    expect(burst.every((r) => r.status === 401 || r.status === 429)).toBe(true);
+    const row = await world.db('login_throttle').where({ key: `account:${emails.lead}` }).first();
+    expect(row.failures).toBe(burst.filter((r) => r.status === 401).length);
+    await login(world, emails.lead, PASSWORD, '192.0.2.99').expect(429);
+  });
+
   it('keeps its counts in the database, so another process on it sees them', async () => {
     world = await makeWorld();
     for (let i = 0; i < 5; i++) await login(world, emails.lead, 'a-wrong-password', '192.0.2.9').expect(401);

@@ -91,7 +91,8 @@ export function createLoginThrottle(db: Db, clock: Clock, rules: ThrottleRules =
             blocked_until: delay > 0 ? new Date(now.getTime() + delay).toISOString() : null,
           };
           if (row) await trx('login_throttle').where({ key }).update(values);
-          else await trx('login_throttle').insert({ key, ...values });
+          // Two first failures at once on PostgreSQL both find no row: the later one merges rather than fails.
+          else await trx('login_throttle').insert({ key, ...values }).onConflict('key').merge();
         }
       });
     },
