@@ -61,7 +61,9 @@ describe.skipIf(!chromiumAvailable)('the weekly summary in the browser', () => {
     const observer = await pageAs('observer@demo.invalid');
     await observer.goto(`${baseUrl()}/account/mail`);
     const box = observer.getByTestId('mail-preference-GLASSWING').getByLabel('The weekly summary of this project');
-    await box.check();
+    // The box is drawn from the saved choice (shown at once, then confirmed by the server): click, then wait for it to show.
+    await box.click();
+    await expect.poll(() => box.isChecked()).toBe(true);
     await expect.poll(() => observer.evaluate(async () => ((await (await fetch('/api/mail-preferences')).json()) as { preferences: { weeklySummary: boolean }[] }).preferences[0].weeklySummary)).toBe(true);
     await screenshot(observer, 'mail-preferences');
     const lead = await pageAs('lead@demo.invalid');
