@@ -42,7 +42,7 @@ export interface NamedDerivedRow extends DerivedRow {
 
 /** The stored interval, or null where the value's interval is symmetric. */
 export function intervalOf(r: Pick<DerivedRow, 'interval_low' | 'interval_high'>): { low: number; high: number } | null {
-  return r.interval_low !== null && r.interval_high !== null && r.interval_low !== undefined && r.interval_high !== undefined ? { low: r.interval_low, high: r.interval_high } : null;
+  return r.interval_low != null && r.interval_high != null ? { low: r.interval_low, high: r.interval_high } : null;
 }
 
 export function toDerivedValue(r: NamedDerivedRow): DerivedValue {

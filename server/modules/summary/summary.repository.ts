@@ -138,18 +138,13 @@ export interface PeriodValue {
   warnings: { code: string; quantity: string; message: string }[];
 }
 
-function toPeriodValue(r: {
-  id: number;
-  target_id: number;
+/** A derived value's row as the period's queries read it (valueColumns), with its target's designation and any decision note. */
+type PeriodValueRow = Pick<DerivedRow, 'id' | 'target_id' | 'quantity' | 'value' | 'uncertainty' | 'label' | 'status' | 'warnings_json'> & {
   designation: string;
-  quantity: string;
-  value: number;
-  uncertainty: number;
-  label: string | null;
-  status: DerivedRow['status'];
   note?: string | null;
-  warnings_json: string;
-}): PeriodValue {
+};
+
+function toPeriodValue(r: PeriodValueRow): PeriodValue {
   return {
     id: r.id,
     targetId: r.target_id,
@@ -179,7 +174,7 @@ export async function decisionsInPeriod(db: Db, projectId: number, since: string
     .orderBy('t.designation_key')
     .orderBy('d.id')
     .select([...valueColumns, 'e.action', 'e.note']);
-  const values = rows.map((r: Parameters<typeof toPeriodValue>[0] & { action: string }) => ({ action: r.action, value: toPeriodValue(r) }));
+  const values = rows.map((r: PeriodValueRow & { action: string }) => ({ action: r.action, value: toPeriodValue(r) }));
   return {
     approved: values.filter((v) => v.action === 'value.approved').map((v) => v.value),
     rejected: values.filter((v) => v.action === 'value.rejected').map((v) => v.value),
@@ -219,5 +214,5 @@ export async function standingValues(db: Db, targetIds: number[]): Promise<(Peri
     .whereIn('d.target_id', targetIds)
     .whereIn('d.status', ['proposed', 'approved'])
     .select([...valueColumns, 'd.revision']);
-  return rows.map((r: Parameters<typeof toPeriodValue>[0] & { revision: number }) => ({ ...toPeriodValue(r), revision: r.revision }));
+  return rows.map((r: PeriodValueRow & { revision: number }) => ({ ...toPeriodValue(r), revision: r.revision }));
 }
