@@ -1,3 +1,4 @@
+import type { Response } from 'express';
 import { messageFor, type ErrorCode, type FieldIssue } from '../../shared/errors';
 
 /** A failure the client should hear about: a stable code, an HTTP status, a message and optional details. */
@@ -25,4 +26,20 @@ function describeIssues(details: FieldIssue[]): string {
   if (!first) return messageFor('validation_failed');
   const more = details.length > 1 ? ` (and ${details.length - 1} more)` : '';
   return `${first.path ? `${first.path}: ` : ''}${first.message}${more}`;
+}
+
+/** A wait in the unit people count it in, rounded up: "40 seconds", "2 minutes", "1 hour". */
+export function waitWords(seconds: number): string {
+  const [n, unit] = seconds < 60 ? [seconds, 'second'] : seconds < 3600 ? [Math.ceil(seconds / 60), 'minute'] : [Math.ceil(seconds / 3600), 'hour'];
+  return `${n} ${unit}${n === 1 ? '' : 's'}`;
+}
+
+/**
+ * 429 with the seconds to wait: in Retry-After (RFC 9110 §10.2.3), in
+ * `details.retryAfterSeconds` and in words after `what` ("Too many failed
+ * sign-ins."), so that a form can say how long without knowing the header.
+ */
+export function tooManyAttempts(res: Response, seconds: number, what: string): AppError {
+  res.set('Retry-After', String(seconds));
+  return new AppError(429, 'rate_limited', `${what} Try again in ${waitWords(seconds)}.`, { retryAfterSeconds: seconds });
 }

@@ -3,16 +3,11 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import { fixedClock } from '../../server/lib/clock';
 import { delayAfter, defaultThrottleRules } from '../../server/modules/auth/login-throttle';
+import { movableClock } from '../support/movable-clock';
 import { emails, makeWorld, PASSWORD, type World } from '../support/world';
 
 let world: World;
 afterEach(async () => world?.db.destroy());
-
-/** A clock the test moves, as an attacker who waits out each delay would see time pass. */
-function movableClock(iso = '2026-12-01T03:00:00.000Z') {
-  let t = Date.parse(iso);
-  return { now: () => new Date(t), advance: (ms: number) => (t += ms) };
-}
 
 const login = (w: World, email: string, password: string, from?: string) => {
   const req = request(w.app).post('/api/auth/login');
@@ -94,6 +89,27 @@ describe('sign-in throttle', { timeout: 30_000 }, () => {
     }
     expect(answers[0].status).toBe(429);
     expect(answers[1]).toEqual(answers[0]);
+  });
+
+  it('says how long to wait, in the Retry-After header, the details and the message, alike for an e-mail no account has', async () => {
+    const clock = movableClock();
+    world = await makeWorld({ clock });
+    const failThenAsk = async (email: string, from: string) => {
+      for (let failures = 0; failures < 11; ) {
+        const res = await login(world, email, 'a-wrong-password', from);
+        if (res.status === 429) clock.advance(Number(res.headers['retry-after']) * 1000);
+        else failures++;
+      }
+      return login(world, email, PASSWORD, from);
+    };
+    // By the rules in login-throttle.ts: the 11th failure is the 7th from the fifth, 1 s · 2^6 = 64 s, which rounds up to 2 minutes.
+    const known = await failThenAsk(emails.lead, '192.0.2.1');
+    expect(known.status).toBe(429);
+    expect(known.headers['retry-after']).toBe('64');
+    expect(known.body.error).toEqual({ code: 'rate_limited', message: 'Too many failed sign-ins. Try again in 2 minutes.', details: { retryAfterSeconds: 64 } });
+    const unknown = await failThenAsk('nobody@test.invalid', '192.0.2.2');
+    expect(unknown.headers['retry-after']).toBe(known.headers['retry-after']);
+    expect(unknown.body).toEqual(known.body);
   });
 
   it('forgets an address after an hour without failures, and an account after a day', async () => {

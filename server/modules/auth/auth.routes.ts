@@ -1,6 +1,6 @@
 import type { NextFunction, Request, Response } from 'express';
 import type { User } from '../../../shared/schemas/auth';
-import { AppError, validationFailed } from '../../lib/errors';
+import { AppError, tooManyAttempts, validationFailed } from '../../lib/errors';
 import { csrfToken } from '../../middleware/csrf';
 import type { StarledgerPassport } from '../../middleware/auth';
 import type { UsersService } from '../users/users.service';
@@ -24,10 +24,7 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
     async login(req: Request, res: Response, next: NextFunction) {
       const { email } = parsed(res, 'body', loginBody);
       const wait = await throttle.waitSeconds(req, email);
-      if (wait > 0) {
-        res.set('Retry-After', String(wait));
-        return next(new AppError(429, 'rate_limited'));
-      }
+      if (wait > 0) return next(tooManyAttempts(res, wait, 'Too many failed sign-ins.'));
       passport.authenticate('local', (err: unknown, user: User | false) => {
         if (err) return next(err);
         // One message whether the e-mail is unknown or the password wrong.
@@ -53,10 +50,7 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
       const user = req.user as User;
       const body = parsed(res, 'body', changePasswordBody);
       const wait = await throttle.waitSeconds(req, user.email);
-      if (wait > 0) {
-        res.set('Retry-After', String(wait));
-        throw new AppError(429, 'rate_limited');
-      }
+      if (wait > 0) throw tooManyAttempts(res, wait, 'Too many wrong passwords.');
       if (!(await users.authenticate(user.email, body.currentPassword))) {
         await throttle.failed(req, user.email);
         throw validationFailed([{ path: 'currentPassword', message: 'This is not your current password.' }]);

@@ -53,38 +53,48 @@ interface ThrottleRow {
   blocked_until: unknown;
 }
 
+/**
+ * How one key is counted: events before each further one delays the next
+ * attempt, the first delay (doubling at each further event, up to the
+ * most), and how long a key with no event starts again from nothing.
+ */
+export interface CountRule {
+  free: number;
+  firstDelayMs: number;
+  maxDelayMs: number;
+  forgetAfterMs: number;
+}
+
 /** The delay after `failures` failures when `free` of them are free. */
-export function delayAfter(failures: number, free: number, rules: ThrottleRules): number {
+export function delayAfter(failures: number, free: number, rules: Pick<CountRule, 'firstDelayMs' | 'maxDelayMs'>): number {
   if (failures < free) return 0;
   return Math.min(rules.maxDelayMs, rules.firstDelayMs * 2 ** Math.min(failures - free, 40));
 }
 
-export function createLoginThrottle(db: Db, clock: Clock, rules: ThrottleRules = defaultThrottleRules) {
-  const keysOf = (req: Request, email: string) => ({ account: `account:${email}`, address: `address:${req.ip ?? 'unknown'}` });
-
+/**
+ * Counts kept in `login_throttle` by key, each with the delay it has
+ * earned. Sign-in failures are counted here (below), and so are requests
+ * for a password reset (password-resets.service.ts), under their own keys.
+ */
+export function createThrottleCounts(db: Db, clock: Clock) {
   return {
-    /** Seconds the account or the address must still wait before a password is even looked at; 0 when none. */
-    async waitSeconds(req: Request, email: string): Promise<number> {
-      const { account, address } = keysOf(req, email);
-      const rows: ThrottleRow[] = await db('login_throttle').whereIn('key', [account, address]).select('*');
+    /** Seconds until none of the keys is delayed any longer; 0 when none is. */
+    async waitSeconds(keys: string[]): Promise<number> {
+      const rows: ThrottleRow[] = await db('login_throttle').whereIn('key', keys).select('*');
       const now = clock.now().getTime();
       const until = Math.max(0, ...rows.map((r) => (r.blocked_until == null ? 0 : Date.parse(toIso(r.blocked_until)))));
       return until > now ? Math.ceil((until - now) / 1000) : 0;
     },
 
-    /** Counts a failure against the account and the address, and sets the delay each has earned; one transaction. */
-    async failed(req: Request, email: string): Promise<void> {
-      const { account, address } = keysOf(req, email);
+    /** Counts one event against each key, and sets the delay each has earned; one transaction. */
+    async count(entries: ReadonlyArray<readonly [key: string, rule: CountRule]>): Promise<void> {
       const now = clock.now();
       await db.transaction(async (trx) => {
-        for (const [key, free, forgetAfterMs] of [
-          [account, rules.accountFreeFailures, rules.accountForgetAfterMs],
-          [address, rules.addressFreeFailures, rules.addressForgetAfterMs],
-        ] as const) {
+        for (const [key, rule] of entries) {
           const row = (await trx('login_throttle').where({ key }).first()) as ThrottleRow | undefined;
-          const fresh = !row || now.getTime() - Date.parse(toIso(row.last_failure_at)) > forgetAfterMs;
+          const fresh = !row || now.getTime() - Date.parse(toIso(row.last_failure_at)) > rule.forgetAfterMs;
           const failures = (fresh ? 0 : row.failures) + 1;
-          const delay = delayAfter(failures, free, rules);
+          const delay = delayAfter(failures, rule.free, rule);
           const values = {
             failures,
             last_failure_at: now.toISOString(),
@@ -97,9 +107,38 @@ export function createLoginThrottle(db: Db, clock: Clock, rules: ThrottleRules =
       });
     },
 
+    async forget(key: string): Promise<void> {
+      await db('login_throttle').where({ key }).delete();
+    },
+  };
+}
+
+export type ThrottleCounts = ReturnType<typeof createThrottleCounts>;
+
+export function createLoginThrottle(db: Db, clock: Clock, rules: ThrottleRules = defaultThrottleRules) {
+  const counts = createThrottleCounts(db, clock);
+  const keysOf = (req: Request, email: string) => ({ account: `account:${email}`, address: `address:${req.ip ?? 'unknown'}` });
+  const delays = { firstDelayMs: rules.firstDelayMs, maxDelayMs: rules.maxDelayMs };
+
+  return {
+    /** Seconds the account or the address must still wait before a password is even looked at; 0 when none. */
+    async waitSeconds(req: Request, email: string): Promise<number> {
+      const { account, address } = keysOf(req, email);
+      return counts.waitSeconds([account, address]);
+    },
+
+    /** Counts a failure against the account and the address, and sets the delay each has earned; one transaction. */
+    async failed(req: Request, email: string): Promise<void> {
+      const { account, address } = keysOf(req, email);
+      await counts.count([
+        [account, { free: rules.accountFreeFailures, forgetAfterMs: rules.accountForgetAfterMs, ...delays }],
+        [address, { free: rules.addressFreeFailures, forgetAfterMs: rules.addressForgetAfterMs, ...delays }],
+      ]);
+    },
+
     /** A correct password clears the account's count (not the address's: one good account must not excuse guesses at others). */
     async succeeded(_req: Request, email: string): Promise<void> {
-      await db('login_throttle').where({ key: `account:${email}` }).delete();
+      await counts.forget(`account:${email}`);
     },
   };
 }
