@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import request from 'supertest';
 import { createHash } from 'node:crypto';
 import { RESET_ANSWER_FLOOR_MS } from '../../server/modules/password-resets/password-resets.service';
+import { movableClock } from '../support/movable-clock';
 import { emails, makeWorld, openLink, PASSWORD, signIn, type World } from '../support/world';
 
 const worlds: World[] = [];
@@ -9,15 +10,17 @@ afterEach(async () => {
   await Promise.all(worlds.splice(0).map((w) => w.db.destroy()));
 });
 
-async function world(): Promise<World> {
-  const w = await makeWorld();
+async function world(options: Parameters<typeof makeWorld>[0] = {}): Promise<World> {
+  const w = await makeWorld(options);
   worlds.push(w);
   return w;
 }
 
-async function requestReset(w: World, email: string) {
+async function requestReset(w: World, email: string, from?: string) {
   const started = performance.now();
-  const res = await request(w.app).post('/api/auth/password-reset').send({ email });
+  const req = request(w.app).post('/api/auth/password-reset');
+  if (from) req.set('X-Forwarded-For', from);
+  const res = await req.send({ email });
   return { res, ms: performance.now() - started };
 }
 
@@ -28,6 +31,9 @@ async function queuedToken(w: World, to: string): Promise<string> {
   expect(mail.html).toContain(`/reset-password#${m[1]}`);
   return m[1];
 }
+
+const resetMails = async (w: World, to?: string) =>
+  Number((await w.db('mail_outbox').where({ purpose: 'password_reset', ...(to ? { to } : {}) }).count('* as n').first())?.n);
 
 const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
@@ -64,13 +70,73 @@ describe('asking for a password reset', () => {
     // Loose bound: the floor hides a write of a few milliseconds; 40 ms allows for a busy test machine.
     expect(Math.abs(median(knownMs) - median(unknownMs))).toBeLessThan(40);
   });
+});
 
-  it('sends at most three links an hour to one account, answering the fourth request the same', async () => {
-    const w = await world();
+// Limits from resetLimits in password-resets.service.ts: three links an hour per account, twenty requests an hour per address.
+describe('a hostile requester of reset links', { timeout: 30_000 }, () => {
+  it('gets three links an hour for one account however it varies its address or the case of the e-mail, then nothing, answered alike', async () => {
+    const clock = movableClock();
+    const w = await world({ clock });
+    const typed = [emails.pi, emails.pi.toUpperCase(), ` ${emails.pi}`, emails.pi, emails.pi];
     const answers = [];
-    for (let i = 0; i < 4; i++) answers.push((await requestReset(w, emails.pi)).res);
-    expect(new Set(answers.map((a) => `${a.status} ${a.text}`)).size).toBe(1);
-    expect(await w.db('mail_outbox').where({ purpose: 'password_reset' }).count('* as n').first()).toEqual({ n: 3 });
+    for (const [i, email] of typed.entries()) answers.push((await requestReset(w, email, `203.0.113.${i}`)).res);
+    expect(answers.map((a) => a.status)).toEqual([202, 202, 202, 202, 202]);
+    expect(new Set(answers.map((a) => a.text)).size).toBe(1);
+    expect(await resetMails(w, emails.pi)).toBe(3);
+    clock.advance(3600 * 1000 + 1);
+    await requestReset(w, emails.pi, '203.0.113.99');
+    expect(await resetMails(w, emails.pi)).toBe(4);
+  });
+
+  it('is answered exactly alike for an account and for an e-mail no account has, past the account limit too', async () => {
+    const w = await world();
+    const answers: string[] = [];
+    for (const email of [emails.reader, 'nobody@test.invalid']) {
+      for (let i = 0; i < 4; i++) {
+        const { res } = await requestReset(w, email, `198.51.100.${i}`);
+        answers.push(JSON.stringify({ status: res.status, retryAfter: res.headers['retry-after'], type: res.headers['content-type'], body: res.body }));
+      }
+    }
+    expect(new Set(answers).size).toBe(1);
+    expect(JSON.parse(answers[0]).status).toBe(202);
+    expect(await resetMails(w)).toBe(3);
+  });
+
+  it('may ask twenty times from one address over many e-mails; the next is refused with 429 and the wait, whatever the e-mail, while another address still asks', async () => {
+    const clock = movableClock();
+    const w = await world({ clock });
+    const accounts = [emails.reader, emails.observer, emails.pi, emails.lead, emails.outsider];
+    for (let i = 0; i < 20; i++) {
+      await requestReset(w, i < accounts.length ? accounts[i] : `person${i}@test.invalid`, '192.0.2.7').then(({ res }) => expect(res.status).toBe(202));
+    }
+    expect(await resetMails(w)).toBe(accounts.length);
+    const refused = [];
+    for (const email of [emails.admin, 'nobody@test.invalid']) refused.push((await requestReset(w, email, '192.0.2.7')).res);
+    for (const res of refused) {
+      expect(res.status).toBe(429);
+      expect(res.headers['retry-after']).toBe('3600');
+      expect(res.body.error).toEqual({ code: 'rate_limited', message: 'Too many requests for a reset link from this address. Try again in 1 hour.', details: { retryAfterSeconds: 3600 } });
+    }
+    expect(refused[1].text).toBe(refused[0].text);
+    expect(await resetMails(w, emails.admin)).toBe(0);
+    await requestReset(w, emails.admin, '192.0.2.8').then(({ res }) => expect(res.status).toBe(202));
+    expect(await resetMails(w, emails.admin)).toBe(1);
+    clock.advance(3600 * 1000 + 1);
+    await requestReset(w, 'person99@test.invalid', '192.0.2.7').then(({ res }) => expect(res.status).toBe(202));
+  });
+
+  it('cannot escape the address limit by forging X-Forwarded-For when TRUST_PROXY does not name the peer', async () => {
+    const w = await world({ trustProxy: false });
+    for (let i = 0; i < 20; i++) await requestReset(w, `person${i}@test.invalid`, `203.0.113.${i}`).then(({ res }) => expect(res.status).toBe(202));
+    expect((await requestReset(w, emails.reader, '203.0.113.200')).res.status).toBe(429);
+    expect(await resetMails(w)).toBe(0);
+  });
+
+  it('is counted in the login_throttle table beside the sign-in counts, under its own keys', async () => {
+    const w = await world();
+    await requestReset(w, emails.reader, '192.0.2.30');
+    const keys = (await w.db('login_throttle').select('key', 'failures')).map((r: { key: string; failures: number }) => `${r.key}=${r.failures}`).sort();
+    expect(keys).toEqual([`reset-account:${emails.reader}`, 'reset-address:192.0.2.30'].map((k) => `${k}=1`).sort());
   });
 });
 

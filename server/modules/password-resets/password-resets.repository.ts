@@ -24,12 +24,6 @@ export async function insertReset(db: Db, reset: { userId: number; tokenHash: st
   return (row as { id: number }).id;
 }
 
-/** How many reset links of one account were asked for since a moment (a cap on mail one address can be sent). */
-export async function countResetsSince(db: Db, userId: number, since: Date): Promise<number> {
-  const row = await db('password_resets').where('user_id', userId).where('created_at', '>', since.toISOString()).count<{ n: number | string }>('* as n').first();
-  return Number(row?.n ?? 0);
-}
-
 export async function findResetByHash(db: Db, tokenHash: string): Promise<StoredReset | undefined> {
   const row = (await db('password_resets as r').join('users as u', 'u.id', 'r.user_id').where('r.token_hash', tokenHash).select('r.*', 'u.email').first()) as
     | ResetRow

@@ -10,11 +10,24 @@ import { appendTrail } from '../trail/trail.repository';
 import { findUserByEmail, findUserById, setPasswordHash } from '../users/users.repository';
 import { deleteSessionsOf } from '../auth/sessions.repository';
 import { passwordResetMail } from './password-reset-mail';
-import { claimReset, closeOpenResets, countResetsSince, findResetByHash, insertReset, type StoredReset } from './password-resets.repository';
+import { createThrottleCounts, type CountRule } from '../auth/login-throttle';
+import { claimReset, closeOpenResets, findResetByHash, insertReset, type StoredReset } from './password-resets.repository';
 
 export const RESET_LIFETIME_MS = 3600 * 1000;
-/** At most this many links per account and hour, so that nobody can fill someone's mailbox from the sign-in page. */
-const RESETS_PER_HOUR = 3;
+const HOUR_MS = 3600 * 1000;
+/**
+ * Requests for a reset are counted like failed sign-ins (login-throttle.ts),
+ * per account (the e-mail as typed, whether or not an account has it) and
+ * per requesting address. An account is sent at most three links and then
+ * nothing for an hour, answered as before, so that nobody can fill
+ * someone's mailbox from the sign-in page; an address may ask twenty times
+ * and is then answered 429 for an hour, alike for every e-mail, so that one
+ * client cannot make the server mail many people.
+ */
+export const resetLimits: { perAccount: CountRule; perAddress: CountRule } = {
+  perAccount: { free: 3, firstDelayMs: HOUR_MS, maxDelayMs: HOUR_MS, forgetAfterMs: HOUR_MS },
+  perAddress: { free: 20, firstDelayMs: HOUR_MS, maxDelayMs: HOUR_MS, forgetAfterMs: HOUR_MS },
+};
 /**
  * Every request is answered no sooner than this after it arrived, whether an
  * account has the address or not: the work for a known address (a write and
@@ -32,6 +45,7 @@ const refusalWords = {
 
 export function createPasswordResetsService(db: Db, clock: Clock, options: { publicUrl: string }) {
   const base = options.publicUrl.replace(/\/+$/, '');
+  const counts = createThrottleCounts(db, clock);
 
   async function usable(token: string): Promise<StoredReset> {
     const reset = await findResetByHash(db, hashLinkToken(token));
@@ -41,21 +55,32 @@ export function createPasswordResetsService(db: Db, clock: Clock, options: { pub
     return reset;
   }
 
+  const addressKeyOf = (from: string) => `reset-address:${from}`;
+
   return {
+    /** Seconds the requesting address must still wait before it may ask again (the same whatever the e-mail); 0 when none. */
+    addressWaitSeconds(from: string): Promise<number> {
+      return counts.waitSeconds([addressKeyOf(from)]);
+    },
+
     /**
-     * Queues a reset link when an account has the address, and does the
-     * same work otherwise (a token, its hash and the message are made
-     * either way) before answering no sooner than the floor.
+     * Queues a reset link when an account has the address and its limit
+     * allows, and does the same work otherwise (the counts, a token, its
+     * hash and the message are made either way) before answering no sooner
+     * than the floor. The caller has asked `addressWaitSeconds` first.
      */
-    async request(email: string): Promise<{ message: string }> {
+    async request(email: string, from: string): Promise<{ message: string }> {
+      const accountKey = `reset-account:${email}`;
       const started = performance.now();
       try {
         const now = clock.now();
         const { token, hash } = newLinkToken();
         const expiresAt = expiresAfter(now, RESET_LIFETIME_MS);
+        const accountFree = (await counts.waitSeconds([accountKey])) === 0;
+        await counts.count(accountFree ? [[addressKeyOf(from), resetLimits.perAddress], [accountKey, resetLimits.perAccount]] : [[addressKeyOf(from), resetLimits.perAddress]]);
         const user = await findUserByEmail(db, email);
         const mail = passwordResetMail({ name: user?.name ?? 'Observer', href: `${base}/reset-password#${token}`, expiresAt });
-        if (user && (await countResetsSince(db, user.id, new Date(now.getTime() - 3600 * 1000))) < RESETS_PER_HOUR) {
+        if (user && accountFree) {
           await db.transaction(async (trx) => {
             const id = await insertReset(trx, { userId: user.id, tokenHash: hash, expiresAt }, now);
             await enqueueMail(trx, { purpose: 'password_reset', idempotencyKey: `password_reset:${id}`, to: user.email, ...mail }, now);
