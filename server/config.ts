@@ -30,13 +30,28 @@ function trustProxyOf(value: string): string | number | boolean {
   return value;
 }
 
-/** SESSION_SECRET, or one made once and kept under data/ so sessions survive a restart. */
+/**
+ * SESSION_SECRET, or one made once and kept under data/ so sessions survive
+ * a restart. Several processes sign each other's cookies only with one
+ * secret: the same SESSION_SECRET, or one DATA_DIR. The file is written
+ * whole under another name and linked into place, which fails if it exists,
+ * so of processes starting at once on one folder the first one's secret is
+ * the one every process reads.
+ */
 export function sessionSecret(): string {
   if (process.env.SESSION_SECRET) return process.env.SESSION_SECRET;
   const file = path.join(config.dataDir, 'session-secret');
   if (!fs.existsSync(file)) {
     fs.mkdirSync(config.dataDir, { recursive: true });
-    fs.writeFileSync(file, crypto.randomBytes(32).toString('hex'), { mode: 0o600 });
+    const draft = `${file}.${process.pid}`;
+    fs.writeFileSync(draft, crypto.randomBytes(32).toString('hex'), { mode: 0o600 });
+    try {
+      fs.linkSync(draft, file);
+    } catch (err) {
+      if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw err;
+    } finally {
+      fs.rmSync(draft, { force: true });
+    }
   }
   return fs.readFileSync(file, 'utf8').trim();
 }

@@ -130,9 +130,36 @@ function whyNotWritable(connection: Database, err: Error): string {
   return `${head} ${tail}`;
 }
 
+/**
+ * Runs `work` while no other Starledger process runs its own on the same
+ * database. On PostgreSQL, several app processes may start at once on one
+ * empty database: each waits for a session advisory lock held on one
+ * connection of its pool (PostgreSQL frees it if the process dies), so they
+ * migrate and seed one after another; knex's own migration lock would make
+ * the second fail ("Migration table is already locked") instead of waiting.
+ * A SQLite file has one app process, and the work just runs.
+ */
+export async function oneProcessAtATime<T>(db: Db, work: () => Promise<T>): Promise<T> {
+  if (isSqlite(db)) return work();
+  const connection = await db.client.acquireConnection();
+  try {
+    await db.raw('select pg_advisory_lock(?)', [START_UP_LOCK]).connection(connection);
+    try {
+      return await work();
+    } finally {
+      await db.raw('select pg_advisory_unlock(?)', [START_UP_LOCK]).connection(connection);
+    }
+  } finally {
+    await db.client.releaseConnection(connection);
+  }
+}
+
+/** The advisory lock's key: "STAR" in ASCII, a number nothing else on the database is expected to lock. */
+const START_UP_LOCK = 0x53544152;
+
 export async function migrateLatest(db: Db): Promise<void> {
   await checkWritable(db);
-  await db.migrate.latest({ migrationSource });
+  await oneProcessAtATime(db, () => db.migrate.latest({ migrationSource }));
 }
 
 /** SQLITE_BUSY and SQLITE_LOCKED with their extended forms (SQLITE_BUSY_SNAPSHOT, …): another connection holds the lock. */

@@ -16,11 +16,12 @@ export interface OutboxMessage {
 /**
  * Queues one message for the outbox worker. Call it with the transaction of
  * the action that causes the mail, so the message exists exactly when the
- * action does; a second call with the same key changes nothing.
+ * action does; a second call with the same key changes nothing, in this
+ * process or another. Returns whether this call queued it.
  */
-export async function enqueueMail(trx: Knex | Knex.Transaction, message: OutboxMessage, now: Date = new Date()): Promise<void> {
+export async function enqueueMail(trx: Knex | Knex.Transaction, message: OutboxMessage, now: Date = new Date()): Promise<boolean> {
   const at = now.toISOString();
-  await trx('mail_outbox')
+  const inserted = await trx('mail_outbox')
     .insert({
       purpose: message.purpose,
       idempotency_key: message.idempotencyKey,
@@ -34,5 +35,7 @@ export async function enqueueMail(trx: Knex | Knex.Transaction, message: OutboxM
       created_at: at,
     })
     .onConflict('idempotency_key')
-    .ignore();
+    .ignore()
+    .returning('id');
+  return inserted.length === 1;
 }

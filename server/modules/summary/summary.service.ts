@@ -102,6 +102,8 @@ export function createSummaryService(db: Db, clock: Clock, options: { publicUrl:
    * Queues the week's summary for every recipient who has not had it yet,
    * in one transaction; the key (project, ISO week, person) makes a week's
    * summary go out once however often this runs, in however many processes.
+   * Only the messages this call queued are counted and named in the trail,
+   * so of two processes racing for one week the one that lost says nothing.
    */
   async function enqueueWeek(project: SummaryProject, week: string, now: Date, actorUserId: number | null): Promise<SendSummaryResult> {
     const recipients = await summaryRecipients(db, project.id);
@@ -114,20 +116,23 @@ export function createSummaryService(db: Db, clock: Clock, options: { publicUrl:
     if (due.length === 0) return { week, queued: 0, alreadyQueued: already.size };
     const rendered = new Map<Audience, ReturnType<typeof render>>();
     for (const audience of new Set(due.map((r) => audienceOf(r.role)))) rendered.set(audience, render(await content(project, now, audience)));
-    await db.transaction(async (trx) => {
-      for (const r of due) {
+    const queued = await db.transaction(async (trx) => {
+      const mine: string[] = [];
+      // In one order in every process, so two racing for the same keys wait for each other rather than deadlock.
+      for (const r of [...due].sort((a, b) => a.userId - b.userId)) {
         const mail = rendered.get(audienceOf(r.role))!;
-        await enqueueMail(trx, { purpose: 'weekly_summary', idempotencyKey: `${prefix}${r.userId}`, to: r.email, ...mail }, now);
+        if (await enqueueMail(trx, { purpose: 'weekly_summary', idempotencyKey: `${prefix}${r.userId}`, to: r.email, ...mail }, now)) mine.push(r.email);
       }
-      if (actorUserId !== null) {
+      if (actorUserId !== null && mine.length > 0) {
         await appendTrail(
           trx,
-          { projectId: project.id, actorUserId, action: 'summary.sent_now', entityType: 'project', entityId: project.id, after: { week, recipients: due.map((r) => r.email) } },
+          { projectId: project.id, actorUserId, action: 'summary.sent_now', entityType: 'project', entityId: project.id, after: { week, recipients: mine } },
           now,
         );
       }
+      return mine.length;
     });
-    return { week, queued: due.length, alreadyQueued: already.size };
+    return { week, queued, alreadyQueued: recipients.length - queued };
   }
 
 async function settings(projectId: number): Promise<SummarySettings> {

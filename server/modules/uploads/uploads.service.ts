@@ -45,9 +45,15 @@ export function createUploadsService(db: Db, clock: Clock, options: UploadsOptio
     return upload;
   }
 
-  async function discardWithTrail(upload: Upload, actorUserId: number | null, action: 'upload.discarded' | 'upload.expired', note = '') {
-    await db.transaction(async (trx) => {
-      if ((await setUploadStatus(trx, upload.id, 'discarded', null)) === 0) return;
+  /**
+   * Discards a preview and writes its trail entry, or does nothing when the
+   * upload is no longer a preview: the status changes by compare-and-set in
+   * the transaction, so of two processes (or a discard and an expiry) racing
+   * for one preview exactly one writes the entry. Returns whether this one did.
+   */
+  async function discardWithTrail(upload: Upload, actorUserId: number | null, action: 'upload.discarded' | 'upload.expired', note = ''): Promise<boolean> {
+    return db.transaction(async (trx) => {
+      if ((await setUploadStatus(trx, upload.id, 'discarded', null)) === 0) return false;
       await dropPreviewRows(trx, upload.id);
       await appendTrail(
         trx,
@@ -63,6 +69,7 @@ export function createUploadsService(db: Db, clock: Clock, options: UploadsOptio
         },
         clock.now(),
       );
+      return true;
     });
   }
 
@@ -172,8 +179,7 @@ export function createUploadsService(db: Db, clock: Clock, options: UploadsOptio
         if (batch.length === 0) return expired;
         for (const a of batch) {
           const upload = await get(a.projectId, a.id);
-          await discardWithTrail(upload, null, 'upload.expired', `Not committed within ${Math.round(maxAgeMs / 3_600_000)} h; the file is kept.`);
-          expired += 1;
+          if (await discardWithTrail(upload, null, 'upload.expired', `Not committed within ${Math.round(maxAgeMs / 3_600_000)} h; the file is kept.`)) expired += 1;
         }
         if (batch.length < 100) return expired;
       }
