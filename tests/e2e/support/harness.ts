@@ -29,7 +29,16 @@ async function freePort(): Promise<number> {
 
 export interface RunningApp {
   baseUrl: string;
+  /** The server's process id (the outbox worker names its claims with it). */
+  pid: number;
   stop(): Promise<void>;
+}
+
+export interface AppOptions {
+  /** The database to run on; a fresh SQLite file in the app's data folder when omitted. */
+  databaseUrl?: string;
+  /** More environment for the server, such as SMTP_URL. */
+  env?: Record<string, string>;
 }
 
 /**
@@ -37,7 +46,7 @@ export interface RunningApp {
  * before this project runs) on a fresh database with the demo scenario, as
  * `npm start` would.
  */
-export async function startApp(): Promise<RunningApp> {
+export async function startApp(options: AppOptions = {}): Promise<RunningApp> {
   const serverJs = path.join(root, 'build/server.js');
   if (!fs.existsSync(serverJs) || !fs.existsSync(path.join(root, 'dist/index.html'))) {
     throw new Error('Run `npm run build` before the browser tests (npm test does).');
@@ -51,10 +60,11 @@ export async function startApp(): Promise<RunningApp> {
       ...process.env,
       PORT: String(port),
       DATA_DIR: dataDir,
-      DATABASE_URL: `file:${path.join(dataDir, 'e2e.sqlite')}`,
+      DATABASE_URL: options.databaseUrl ?? `file:${path.join(dataDir, 'e2e.sqlite')}`,
       CLIENT_DIR: path.join(root, 'dist'),
       SESSION_SECRET: 'e2e-secret',
       NODE_ENV: 'production',
+      ...options.env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
@@ -74,6 +84,7 @@ export async function startApp(): Promise<RunningApp> {
   });
   return {
     baseUrl: `http://127.0.0.1:${port}`,
+    pid: child.pid!,
     async stop() {
       child.kill('SIGTERM');
       await new Promise((r) => child.once('exit', r));
