@@ -67,6 +67,25 @@ describe('send now and the preview', () => {
     expect(settings.body.settings.weekQueuedAt).toBe('2026-12-01T03:00:00.000Z');
   });
 
+  it('queues and records the week once when the lead and the PI press at the same moment (as in two processes)', async () => {
+    const w = await world();
+    const reader = await signIn(w.app, 'reader');
+    await reader.agent.patch(`/api/projects/${w.projectId}/mail-preferences`).set('X-CSRF-Token', reader.csrf).send({ weeklySummary: true }).expect(200);
+    // Two services on one database, as in two processes; started together, both look before either has queued.
+    const press = (userId: number) => createSummaryService(w.db, fixedClock('2026-12-01T03:00:00.000Z'), { publicUrl: 'http://starledger.test' }).sendNow(w.projectId, userId);
+    const presses = await Promise.all([press(w.userIds.lead), press(w.userIds.pi)]);
+    // The one whose messages went in says so, the other that they were already queued.
+    const results = [...presses].sort((a, b) => b.queued - a.queued);
+    expect(results).toEqual([
+      { week: '2026-W49', queued: 2, alreadyQueued: 0 },
+      { week: '2026-W49', queued: 0, alreadyQueued: 2 },
+    ]);
+    expect((await w.db('mail_outbox').pluck('to')).sort()).toEqual([emails.pi, emails.reader].sort());
+    const trail = await w.db('trail_events').where({ action: 'summary.sent_now' }).select('after_json');
+    expect(trail).toHaveLength(1);
+    expect(JSON.parse(trail[0].after_json).recipients.sort()).toEqual([emails.pi, emails.reader].sort());
+  });
+
   it('shows a reader’s copy without values awaiting review, which readers are not shown', async () => {
     const w = await world();
     await proposedByObserver(w);
