@@ -182,4 +182,19 @@ describe('the stored preview', () => {
     expect(raw.body.toString()).toBe(manyRows(20, 2));
     expect(await later.expirePreviews(48 * 3_600_000)).toBe(0);
   });
+
+  it('expires a preview once when two processes expire at the same moment: one trail entry, counted by the one that did it', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const ids: number[] = [];
+    for (const name of ['first.csv', 'second.csv', 'third.csv']) ids.push((await send(s, world, manyRows(20, 2), name).expect(201)).body.upload.id);
+    const { createUploadsService } = await import('../../server/modules/uploads/uploads.service');
+    const { fixedClock } = await import('../../server/lib/clock');
+    // Two services on one database, as in two processes; started together, both find the same three previews.
+    const expiry = () => createUploadsService(world.db, fixedClock('2026-12-03T03:30:00.000Z')).expirePreviews(48 * 3_600_000);
+    const counts = await Promise.all([expiry(), expiry()]);
+    expect(counts[0] + counts[1]).toBe(3);
+    const trail = await world.db('trail_events').where({ action: 'upload.expired' }).orderBy('entity_id').pluck('entity_id');
+    expect(trail).toEqual(ids);
+  });
 });
