@@ -27,7 +27,10 @@ class SafeKnexStore extends ConnectSessionKnexStore {
    * SQLite's write lock, a waiting write would stop the whole request thread
    * (better-sqlite3 waits synchronously). So a session is touched at most
    * once a minute, and a touch that meets the lock is skipped; the next one
-   * (the expiry is 14 days away) moves it.
+   * (the expiry is 14 days away) moves it. `touchedAt` only spares writes:
+   * the session itself is read from the table on every request, so with
+   * several processes each touches on its own minute and a session ended in
+   * one (sign-out, a password change) is gone in all.
    */
   override touch(sid: string, sess: Parameters<ConnectSessionKnexStore['touch']>[1], cb?: () => void) {
     const now = Date.now();
