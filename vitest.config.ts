@@ -13,13 +13,14 @@ export default defineConfig({
   test: {
     projects: [
       { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'tests/unit/**/*.test.tsx'], environment: 'node' } },
-      { resolve: { alias }, test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node' } },
+      { resolve: { alias }, test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', globalSetup: ['tests/support/test-database.ts'] } },
       {
         resolve: { alias },
         test: {
           name: 'e2e',
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
+          globalSetup: ['tests/support/test-database.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,
           fileParallelism: false,

@@ -1,5 +1,5 @@
 import request from 'supertest';
-import { afterAll, describe, expect, it } from 'vitest';
+import { afterEach, describe, expect, it } from 'vitest';
 import { apiRoutes } from '../../server/routes';
 import { createServices } from '../../server/services';
 import { createPassport } from '../../server/middleware/auth';
@@ -125,8 +125,12 @@ function expected(rule: Rule, caller: Caller): 'ok' | 401 | 403 | 404 {
 }
 
 const callers: Caller[] = ['anonymous', 'outsider', 'admin', 'reader', 'pi', 'observer', 'lead'];
-const worlds: World[] = [];
-afterAll(async () => Promise.all(worlds.map((w) => w.db.destroy())));
+// Each case's world is closed after it: 400-odd open at once would outrun a PostgreSQL server's connections.
+let current: World | undefined;
+afterEach(async () => {
+  await current?.db.destroy();
+  current = undefined;
+});
 
 describe('access to every API route', () => {
   it('has an access rule in this test for every declared route, and no stale ones', () => {
@@ -137,8 +141,7 @@ describe('access to every API route', () => {
     for (const caller of callers) {
       const want = expected(c.rule, caller);
       it(`${key} as ${caller} → ${want === 'ok' ? '2xx' : want}`, async () => {
-        const world = await makeWorld();
-        worlds.push(world);
+        const world = (current = await makeWorld());
         const [method, pattern] = key.split(' ');
         const session = caller === 'anonymous' ? undefined : await signIn(world.app, caller);
         let uploadId = '1';

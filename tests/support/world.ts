@@ -8,6 +8,7 @@ import { createMailInbox, type MailInbox } from '../../server/mail/fake-smtp';
 import type { UploadJobs } from '../../server/modules/uploads/upload-jobs';
 import type { ThrottleRules } from '../../server/modules/auth/login-throttle';
 import { newLinkToken } from '../../server/lib/link-tokens';
+import { openTestDb } from './test-database';
 
 export const PASSWORD = 'correct-horse-battery';
 // One hash for every test account: hashing is deliberately slow.
@@ -35,15 +36,16 @@ export interface World {
 }
 
 /**
- * A fresh in-memory database with one project (lead, observer, reader, pi as
+ * A fresh database (in memory on SQLite, its own database on PostgreSQL:
+ * see test-database.ts) with one project (lead, observer, reader, pi as
  * members), a second project whose only member is the outsider, a site admin
  * who belongs to neither, and one target.
  */
 export async function makeWorld(
-  options: { loginThrottle?: Partial<ThrottleRules>; trustProxy?: string | number | boolean; clientDir?: string; clock?: Clock; databaseFile?: string; uploadJobs?: UploadJobs } = {},
+  options: { loginThrottle?: Partial<ThrottleRules>; trustProxy?: string | number | boolean; clientDir?: string; clock?: Clock; databaseFile?: string; databaseUrl?: string; uploadJobs?: UploadJobs } = {},
 ): Promise<World> {
-  // A file when a test needs a second connection to the same database; in memory otherwise.
-  const db = createDb(`file:${options.databaseFile ?? ':memory:'}`);
+  // On SQLite a file when a test needs a second connection to the same database; in memory otherwise.
+  const db = options.databaseUrl ? createDb(options.databaseUrl) : await openTestDb(`file:${options.databaseFile ?? ':memory:'}`);
   await migrateLatest(db);
   const at = '2026-11-30T22:00:00.000Z';
   const hash = await passwordHash;
