@@ -26,14 +26,16 @@ export interface TestDatabase {
 }
 
 /**
- * A new empty database: on PostgreSQL one made for the caller on the
- * TEST_DATABASE server; on SQLite the given URL as it is (`file::memory:`
- * unless the test needs a file).
+ * A new database: on PostgreSQL one made for the caller on the
+ * TEST_DATABASE server, migrated (a copy of the run's template) or, with
+ * `migrated: false`, without a table (for tests of start-up on an empty
+ * database); on SQLite the given URL as it is (`file::memory:` unless the
+ * test needs a file).
  */
-export async function newTestDatabase(sqliteUrl = 'file::memory:'): Promise<TestDatabase> {
+export async function newTestDatabase(sqliteUrl = 'file::memory:', options: { migrated?: boolean } = {}): Promise<TestDatabase> {
   if (!adminUrl) return { url: sqliteUrl, drop: async () => undefined };
   const name = `sl_test_${crypto.randomBytes(6).toString('hex')}`;
-  await admin((a) => a.raw(`create database ${name} template ${inject('migratedTemplate')}`));
+  await admin((a) => a.raw(options.migrated === false ? `create database ${name}` : `create database ${name} template ${inject('migratedTemplate')}`));
   return {
     url: urlOf(name),
     // WITH (FORCE) ends a connection a test left open (PostgreSQL 13 and later).
