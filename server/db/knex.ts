@@ -28,6 +28,43 @@ class SqliteClient extends BetterSqliteClient {
 
 export type Db = Knex;
 
+type TypeParser = (text: string) => unknown;
+const pgBuiltinTypes = createRequire(import.meta.url)('pg').types as { getTypeParser(oid: number, format?: string): TypeParser };
+
+/**
+ * What PostgreSQL hands back, made the same as what SQLite hands back, so
+ * that repositories (and tests reading rows) see one shape on either engine:
+ * - bigint (int8: count(*), sum() of integers, bigserial ids) comes from pg
+ *   as a string, for fear of numbers past 2^53; here it is a number, and a
+ *   value past 2^53 is an error rather than silently rounded;
+ * - numeric (avg(), sum() of bigints) likewise a number;
+ * - timestamptz comes from pg as a Date; here it is the ISO 8601 string
+ *   (UTC, milliseconds, "Z") that Starledger writes and SQLite returns.
+ * Booleans are left as they come (true/false; SQLite's 0/1): rows are read
+ * through Boolean().
+ */
+const pgTypes = {
+  getTypeParser(oid: number, format?: string): TypeParser {
+    if (format === 'binary') return pgBuiltinTypes.getTypeParser(oid, format);
+    if (oid === PG_INT8) return safeInteger;
+    if (oid === PG_NUMERIC) return Number;
+    if (oid === PG_TIMESTAMPTZ) {
+      const toDate = pgBuiltinTypes.getTypeParser(oid);
+      return (text) => (toDate(text) as Date).toISOString();
+    }
+    return pgBuiltinTypes.getTypeParser(oid, format);
+  },
+};
+const PG_INT8 = 20;
+const PG_NUMERIC = 1700;
+const PG_TIMESTAMPTZ = 1184;
+
+function safeInteger(text: string): number {
+  const n = Number(text);
+  if (!Number.isSafeInteger(n)) throw new RangeError(`The database returned the integer ${text}, past what JavaScript holds exactly (2^53).`);
+  return n;
+}
+
 /** `file:` or a bare path means SQLite (the embedded default); anything else is handed to knex as a PostgreSQL URL. */
 export function resolveDatabaseUrl(url = process.env.DATABASE_URL): string {
   return url && url.trim() !== '' ? url : 'file:data/starledger.sqlite';
@@ -40,7 +77,7 @@ export interface DbOptions {
 
 export function createDb(url = resolveDatabaseUrl(), options: DbOptions = {}): Db {
   if (url.startsWith('postgres://') || url.startsWith('postgresql://')) {
-    return knex({ client: 'pg', connection: url, compileSqlOnError: false, migrations: { migrationSource } });
+    return knex({ client: 'pg', connection: { connectionString: url, types: pgTypes }, compileSqlOnError: false, migrations: { migrationSource } });
   }
   const filename = url.replace(/^file:/, '');
   if (filename !== ':memory:') fs.mkdirSync(path.dirname(path.resolve(filename)), { recursive: true });

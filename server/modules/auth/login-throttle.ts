@@ -86,23 +86,30 @@ export function createThrottleCounts(db: Db, clock: Clock) {
       return until > now ? Math.ceil((until - now) / 1000) : 0;
     },
 
-    /** Counts one event against each key, and sets the delay each has earned; one transaction. */
+    /**
+     * Counts one event against each key, and sets the delay each has earned; one transaction.
+     * The count goes up in one statement (insert, or on the key's row add one, or start again
+     * from one when the last event is older than forgetAfterMs), so that events counted at the
+     * same moment by several requests or processes each count: on PostgreSQL the second waits
+     * for the first's row lock and adds to what the first wrote (read-then-write lost one).
+     */
     async count(entries: ReadonlyArray<readonly [key: string, rule: CountRule]>): Promise<void> {
       const now = clock.now();
       await db.transaction(async (trx) => {
         for (const [key, rule] of entries) {
-          const row = (await trx('login_throttle').where({ key }).first()) as ThrottleRow | undefined;
-          const fresh = !row || now.getTime() - Date.parse(toIso(row.last_failure_at)) > rule.forgetAfterMs;
-          const failures = (fresh ? 0 : row.failures) + 1;
-          const delay = delayAfter(failures, rule.free, rule);
-          const values = {
-            failures,
-            last_failure_at: now.toISOString(),
-            blocked_until: delay > 0 ? new Date(now.getTime() + delay).toISOString() : null,
-          };
-          if (row) await trx('login_throttle').where({ key }).update(values);
-          // Two first failures at once on PostgreSQL both find no row: the later one merges rather than fails.
-          else await trx('login_throttle').insert({ key, ...values }).onConflict('key').merge();
+          const forgottenBefore = new Date(now.getTime() - rule.forgetAfterMs).toISOString();
+          const [row] = await trx('login_throttle')
+            .insert({ key, failures: 1, last_failure_at: now.toISOString(), blocked_until: null })
+            .onConflict('key')
+            .merge({
+              failures: trx.raw('case when login_throttle.last_failure_at < ? then 1 else login_throttle.failures + 1 end', [forgottenBefore]),
+              last_failure_at: now.toISOString(),
+            })
+            .returning('failures');
+          const delay = delayAfter(row.failures, rule.free, rule);
+          await trx('login_throttle')
+            .where({ key })
+            .update({ blocked_until: delay > 0 ? new Date(now.getTime() + delay).toISOString() : null });
         }
       });
     },
