@@ -119,7 +119,7 @@ describe.skipIf(!onPostgres)('two app processes on one PostgreSQL database', () 
     expect(await db('uploads').where({ filename: 'glasswing-season-2026.csv' }).pluck('id')).toHaveLength(1);
     // Source: migrations/index.ts, each migration run once.
     const migrated: string[] = await db('knex_migrations').orderBy('name').pluck('name');
-    expect(migrated).toEqual([...(await migrationSource.getMigrations([]))].sort());
+    expect(migrated, 'the migrations build/server.js ran (npm run build after migrations/ changes)').toEqual([...(await migrationSource.getMigrations([]))].sort());
     for (const app of apps) expect((await call(app, await signIn(app, 'reader@demo.invalid'), 'GET', '/auth/me')).body.user.email).toBe('reader@demo.invalid');
   });
 
