@@ -13,6 +13,7 @@ import * as targetListIndexes from './20261202080000_target_list_indexes';
 import * as projectTargetCount from './20261202090000_project_target_count';
 import * as projectTargetCountFill from './20261202090100_project_target_count_fill';
 import * as loginThrottle from './20261202093000_login_throttle';
+import * as unboundedTexts from './20261202100000_unbounded_texts';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -35,6 +36,7 @@ const migrations: Record<string, Knex.Migration> = {
   '20261202090000_project_target_count': projectTargetCount,
   '20261202090100_project_target_count_fill': projectTargetCountFill,
   '20261202093000_login_throttle': loginThrottle,
+  '20261202100000_unbounded_texts': unboundedTexts,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -110,6 +110,9 @@ export function readNumber(text: string, what: string): NumberResult {
   return { ok: true, value };
 }
 
+/** The longest band and instrument the measurements table holds (migrations/20261201010000_measurements.ts); PostgreSQL refuses longer, SQLite would keep them. */
+const MAX_LENGTH = { band: 16, instrument: 120 } as const;
+
 function normaliseBand(band: string): string {
   return band.trim().replace(/[−–]/g, '-').replace(/\s+/g, '');
 }
@@ -291,6 +294,8 @@ function normalise(raw: RawMeasurement, errors: RowError[], cache: ReadCache): N
   const band = raw.fixed?.band ?? (text('band') ? normaliseBand(text('band')) : '');
   if (kind && NEEDS_BAND.has(kind) && !band) err('band', `A ${kind} needs its band (for example V, or B-V for a colour index).`);
   if (kind === 'colour_index' && band && !/^[A-Za-z]+-[A-Za-z]+$/.test(band)) err('band', `A colour index band is two bands with a hyphen, like B-V (got "${band}").`);
+  if (band.length > MAX_LENGTH.band) err('band', `A band is at most ${MAX_LENGTH.band} characters (this one has ${band.length}).`);
+  if (text('instrument').length > MAX_LENGTH.instrument) err('instrument', `An instrument is at most ${MAX_LENGTH.instrument} characters (this one has ${text('instrument').length}).`);
 
   let restValue: number | null = raw.fixed?.restWavelength ?? null;
   if (restValue === null && text('rest_wavelength')) {

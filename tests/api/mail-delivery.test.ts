@@ -12,6 +12,7 @@ import { startFakeSmtp, type FakeSmtp } from '../../server/mail/fake-smtp';
 import { enqueueMail } from '../../server/mail/outbox';
 import { createOutboxWorker } from '../../server/mail/outbox-worker';
 import { createSummaryService } from '../../server/modules/summary/summary.service';
+import { newTestDatabase } from '../support/test-database';
 
 /**
  * Delivery through real SMTP: every test talks to the local mail fake on a
@@ -22,11 +23,18 @@ afterEach(async () => {
   for (const c of cleanups.splice(0).reverse()) await c();
 });
 
-async function freshDb(url = 'file::memory:'): Promise<Db> {
-  const db = createDb(url);
-  await migrateLatest(db);
+/** A migrated empty database (SQLite at `sqliteUrl`, or its own PostgreSQL database under TEST_DATABASE) and its URL. */
+async function freshDatabase(sqliteUrl = 'file::memory:'): Promise<{ db: Db; url: string }> {
+  const database = await newTestDatabase(sqliteUrl);
+  cleanups.push(() => database.drop());
+  const db = createDb(database.url);
   cleanups.push(() => db.destroy());
-  return db;
+  await migrateLatest(db);
+  return { db, url: database.url };
+}
+
+async function freshDb(): Promise<Db> {
+  return (await freshDatabase()).db;
 }
 
 async function fake(port?: number): Promise<FakeSmtp> {
@@ -188,8 +196,7 @@ describe('the outbox worker', () => {
   it('delivers each message once when two worker processes share one database', async () => {
     const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'starledger-outbox-'));
     cleanups.push(() => fs.rmSync(dir, { recursive: true, force: true }));
-    const url = `file:${path.join(dir, 'db.sqlite')}`;
-    const db = await freshDb(url);
+    const { db, url } = await freshDatabase(`file:${path.join(dir, 'db.sqlite')}`);
     const smtp = await fake();
     const messages = Array.from({ length: 60 }, (_, i) => message(i + 1));
     await db.transaction(async (trx) => {

@@ -1,5 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import { createDb, migrateLatest, type Db } from '../../server/db/knex';
+import { migrateLatest, type Db } from '../../server/db/knex';
+import { openTestDb } from '../support/test-database';
 import { enqueueMail } from '../../server/mail/outbox';
 
 let db: Db | undefined;
@@ -19,7 +20,7 @@ const message = {
 
 describe('enqueueMail', () => {
   it('queues a message once however often the same key is enqueued, inside the caller’s transaction', async () => {
-    db = createDb('file::memory:');
+    db = await openTestDb();
     await migrateLatest(db);
     await db.transaction(async (trx) => {
       await enqueueMail(trx, message);
@@ -32,7 +33,7 @@ describe('enqueueMail', () => {
   });
 
   it('queues nothing when the causing transaction rolls back', async () => {
-    db = createDb('file::memory:');
+    db = await openTestDb();
     await migrateLatest(db);
     await expect(
       db.transaction(async (trx) => {

@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest';
 import type { Request, Response } from 'express';
 import { describeForLog, errorHandler } from '../../server/middleware/error-handler';
 import { makeWorld, signIn, type Session, type World } from '../support/world';
+import { onPostgres } from '../support/test-database';
 
 let world: World;
 afterEach(async () => {
@@ -70,8 +71,9 @@ describe('the log of an unexpected error', () => {
     errorHandler(failure, { method: 'POST', baseUrl: '/api', path: '/projects/1/uploads' } as Request, res, () => undefined);
     expect(res.status).toHaveBeenCalledWith(500);
     const text = logged.mock.calls.flat().map(String).join('\n');
-    expect(text).toMatch(/FOREIGN KEY constraint failed/);
-    expect(text).toMatch(/insert into `uploads`/);
+    // The cause in each engine's words (SQLite's result codes page; PostgreSQL's error 23503, foreign_key_violation), the SQL in its quoting.
+    expect(text).toMatch(onPostgres ? /violates foreign key constraint "uploads_project_id_foreign"/ : /FOREIGN KEY constraint failed/);
+    expect(text).toMatch(onPostgres ? /insert into "uploads"/ : /insert into `uploads`/);
     for (const leak of [secret.toString('hex'), 'CONTENT-OF-A-FILE', 'SHA-MARKER']) expect(text).not.toContain(leak);
     expect(describeForLog({ body: 'a request body' })).not.toContain('a request body');
   });
