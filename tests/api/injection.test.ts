@@ -16,7 +16,7 @@ describe('input a hostile member might send', () => {
       expect(res.status, q).toBe(200);
       expect(res.body.total, q).toBe(0);
     }
-    expect(await world.db('targets').count('* as n').first()).toEqual({ n: 1 });
+    expect(Number((await world.db('targets').count('* as n').first())?.n)).toBe(1);
   });
 
   it('a parameter sent twice is refused by name rather than one copy silently chosen (ASVS 5.1.1)', async () => {

@@ -16,7 +16,7 @@ describe('the session cookie', () => {
     const cookie = sessionCookie(login)!.split(';')[0];
     await request(world.app).get('/api/auth/me').set('Cookie', cookie).expect(200);
     await request(world.app).post('/api/auth/logout').set('Cookie', cookie).set('X-CSRF-Token', login.body.csrfToken).expect(204);
-    expect(await world.db('sessions').count('* as n').first()).toEqual({ n: 0 });
+    expect(Number((await world.db('sessions').count('* as n').first())?.n)).toBe(0);
     await request(world.app).get('/api/auth/me').set('Cookie', cookie).expect(401);
   });
 
