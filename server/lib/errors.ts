@@ -28,9 +28,10 @@ function describeIssues(details: FieldIssue[]): string {
   return `${first.path ? `${first.path}: ` : ''}${first.message}${more}`;
 }
 
-/** A wait in the unit people count it in, rounded up: "40 seconds", "2 minutes", "1 hour". */
+/** A wait in the unit people count it in, rounded up: "40 seconds", "2 minutes", "1 hour" (also for 3,599 seconds). */
 export function waitWords(seconds: number): string {
-  const [n, unit] = seconds < 60 ? [seconds, 'second'] : seconds < 3600 ? [Math.ceil(seconds / 60), 'minute'] : [Math.ceil(seconds / 3600), 'hour'];
+  const minutes = Math.ceil(seconds / 60);
+  const [n, unit] = seconds < 60 ? [seconds, 'second'] : minutes < 60 ? [minutes, 'minute'] : [Math.ceil(minutes / 60), 'hour'];
   return `${n} ${unit}${n === 1 ? '' : 's'}`;
 }
 
