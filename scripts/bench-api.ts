@@ -1,13 +1,16 @@
 /**
- * `npm run bench:api [-- --duration S --connections C --sizes 10000,100000]`:
+ * `npm run bench:api [-- --duration S --connections C --sizes 10000,100000 --only NAME --cpu-prof DIR]`:
  * autocannon against the production server (build/server.js) on loopback,
  * read through an API token as a pipeline would, for a project of 10 000
  * and one of 100 000 targets seeded straight into a bench database: the
  * 50-row target list (by designation and by right ascension), one target,
  * its derived values and the review queue. Beside them the ceiling: a bare
  * Express route answering a small JSON document, in its own process on the
- * same machine. Prints requests per second, p50/p99 latency, errors and each
- * route's share of the ceiling.
+ * same machine; and the floor: the same 50-row list with its SQL prepared
+ * once under bare Express and better-sqlite3 (scripts/bench-api-floor.mjs),
+ * what any implementation on this database pays. Prints requests per
+ * second, p50/p99 latency, errors, each route's share of the ceiling and the
+ * list's share of its floor.
  */
 import { execFileSync, spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
@@ -24,8 +27,13 @@ const argument = (name: string, fallback: string) => {
 const DURATION_S = Number(argument('duration', '10'));
 const CONNECTIONS = Number(argument('connections', '100'));
 const SIZES = argument('sizes', '10000,100000').split(',').map(Number);
+/** Only the routes whose name contains this (e.g. `--only list`). */
+const ONLY = argument('only', '');
+/** `--cpu-prof DIR`: the server runs under node --cpu-prof and leaves one profile per size in DIR (open it in Chrome's DevTools). */
+const CPU_PROF_DIR = argument('cpu-prof', '');
 const APP_PORT = Number(process.env.BENCH_APP_PORT ?? 3140);
 const BARE_PORT = Number(process.env.BENCH_BARE_PORT ?? 5240);
+const FLOOR_PORT = Number(process.env.BENCH_FLOOR_PORT ?? 5241);
 const root = path.resolve(import.meta.dirname, '..');
 const TOKEN = 'slt_bench-api-token-for-the-load-benchmark-only';
 
@@ -75,7 +83,8 @@ function waitFor(child: ChildProcess, text: string): Promise<void> {
 }
 
 async function startApp(dir: string): Promise<ChildProcess> {
-  const server = spawn(process.execPath, ['build/server.js'], {
+  const profiling = CPU_PROF_DIR ? ['--cpu-prof', '--cpu-prof-dir', path.resolve(CPU_PROF_DIR)] : [];
+  const server = spawn(process.execPath, [...profiling, 'build/server.js'], {
     cwd: root,
     env: { ...process.env, NODE_ENV: 'production', PORT: String(APP_PORT), DATA_DIR: dir, DATABASE_URL: `file:${path.join(dir, 'db.sqlite')}`, SESSION_SECRET: 'bench', SEED_DEMO: 'false' },
     stdio: ['ignore', 'pipe', 'inherit'],
@@ -103,6 +112,13 @@ interface Figures {
   p50: number;
   p99: number;
   errors: number;
+}
+
+/** The floor: the target list's SQL prepared once under plain Express (scripts/bench-api-floor.mjs), on the same database. */
+async function startFloor(file: string): Promise<ChildProcess> {
+  const floor = spawn(process.execPath, ['scripts/bench-api-floor.mjs', String(FLOOR_PORT), file], { cwd: root, stdio: ['ignore', 'pipe', 'inherit'] });
+  await waitFor(floor, 'running');
+  return floor;
 }
 
 /** Until the server answers one request briskly: requests left queued by the previous route must not count against the next. */
@@ -142,6 +158,9 @@ try {
     const t0 = performance.now();
     await seed(path.join(dir, 'db.sqlite'), size);
     console.log(`\n${size.toLocaleString('en')} targets (seeded in ${((performance.now() - t0) / 1000).toFixed(1)} s):`);
+    const floor = await startFloor(path.join(dir, 'db.sqlite'));
+    const floorList = await measure('floor: the list\'s SQL under bare Express', `http://127.0.0.1:${FLOOR_PORT}/api/projects/1/targets`);
+    floor.kill('SIGTERM');
     const app = await startApp(dir);
     try {
       const p = `http://127.0.0.1:${APP_PORT}/api/projects/1`;
@@ -154,9 +173,11 @@ try {
         ['its derived values', `${p}/targets/${middle}/derived`],
         ['review queue', `${p}/review-queue`],
       ] as const) {
-        rows.push(await measure(name, url));
+        if (name.includes(ONLY)) rows.push(await measure(name, url));
       }
-      print(rows, ceiling);
+      print([floorList, ...rows], ceiling);
+      const list = rows.find((r) => r.name.endsWith('by designation'));
+      if (list) console.log(`  the target list is ${((100 * list.rps) / floorList.rps).toFixed(0)} % of its floor`);
       for (const r of rows) {
         if (r.errors > 0) failures.push(`${size}: ${r.name}: ${r.errors} errors`);
         if (r.p99 > 50) failures.push(`${size}: ${r.name}: p99 ${r.p99} ms > 50 ms`);
