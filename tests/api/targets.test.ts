@@ -62,6 +62,9 @@ describe('targets', () => {
     expect(page2.body.items.map((t: { raDeg: number }) => t.raDeg)).toEqual([70, 60, 50, 40, 30]);
     const odd = await agent.get(`${targetsUrl(world)}?tag=odd`).expect(200);
     expect(odd.body.total).toBe(5);
+    // A tag is found whatever its case, on either engine (SQLite's LIKE ignores ASCII case, PostgreSQL's does not).
+    expect((await agent.get(`${targetsUrl(world)}?tag=ODD`).expect(200)).body.total).toBe(5);
+    expect((await agent.get(`${targetsUrl(world)}?q=T1`).expect(200)).body.total).toBe(4);
     const search = await agent.get(`${targetsUrl(world)}?q=t1`).expect(200);
     expect(search.body.items.map((t: { designation: string }) => t.designation).sort()).toEqual(['T 1', 'T 10', 'T 11', 'T 12']);
     const bad = await agent.get(`${targetsUrl(world)}?sort=colour`);

@@ -130,8 +130,8 @@ export async function listTargets(db: Db, projectId: number, query: ListTargetsQ
     );
   }
   if (query.tag) {
-    // Tags are stored as a JSON array of strings; the quoted form matches one whole tag.
-    base.andWhereRaw("t.tags LIKE ? ESCAPE '\\'", [`%${escapeLike(JSON.stringify(query.tag))}%`]);
+    // Tags are stored as a JSON array of strings; the quoted form matches one whole tag. Lowered on both sides, as SQLite's LIKE ignores (ASCII) case and PostgreSQL's does not.
+    base.andWhereRaw("LOWER(t.tags) LIKE ? ESCAPE '\\'", [`%${escapeLike(JSON.stringify(query.tag.toLowerCase()))}%`]);
   }
   if (query.awaiting) {
     base.whereExists(function proposed(this: Knex.QueryBuilder) {
