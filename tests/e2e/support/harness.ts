@@ -5,6 +5,7 @@ import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { afterAll, beforeAll } from 'vitest';
 import { demoAccounts } from '../../../seeds/01-demo-scenario';
+import { newTestDatabase } from '../../support/test-database';
 
 const root = path.resolve(import.meta.dirname, '../../..');
 export const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -35,7 +36,7 @@ export interface RunningApp {
 }
 
 export interface AppOptions {
-  /** The database to run on; a fresh SQLite file in the app's data folder when omitted. */
+  /** The database to run on; when omitted a fresh one, dropped at stop: a SQLite file in the app's data folder, or under TEST_DATABASE a PostgreSQL database (tests/support/test-database.ts). */
   databaseUrl?: string;
   /** More environment for the server, such as SMTP_URL. */
   env?: Record<string, string>;
@@ -54,13 +55,14 @@ export async function startApp(options: AppOptions = {}): Promise<RunningApp> {
   const port = await freePort();
   fs.mkdirSync(path.join(root, 'data'), { recursive: true });
   const dataDir = fs.mkdtempSync(path.join(root, 'data', 'e2e-'));
+  const database = options.databaseUrl ? undefined : await newTestDatabase(`file:${path.join(dataDir, 'e2e.sqlite')}`);
   const child: ChildProcess = spawn(process.execPath, [serverJs], {
     cwd: root,
     env: {
       ...process.env,
       PORT: String(port),
       DATA_DIR: dataDir,
-      DATABASE_URL: options.databaseUrl ?? `file:${path.join(dataDir, 'e2e.sqlite')}`,
+      DATABASE_URL: options.databaseUrl ?? database!.url,
       CLIENT_DIR: path.join(root, 'dist'),
       SESSION_SECRET: 'e2e-secret',
       NODE_ENV: 'production',
@@ -88,6 +90,7 @@ export async function startApp(options: AppOptions = {}): Promise<RunningApp> {
     async stop() {
       child.kill('SIGTERM');
       await new Promise((r) => child.once('exit', r));
+      await database?.drop();
       fs.rmSync(dataDir, { recursive: true, force: true });
     },
   };
