@@ -79,21 +79,24 @@ function shownRevisions(db: Db, projectId: number, quantity: string, statuses: r
     });
 }
 
-type ShownRow = Pick<DerivedRow, 'target_id' | 'quantity' | 'value' | 'uncertainty' | 'interval_low' | 'interval_high' | 'unit' | 'label' | 'status'>;
+type ShownRow = Pick<DerivedRow, 'target_id' | 'quantity' | 'revision' | 'value' | 'uncertainty' | 'interval_low' | 'interval_high' | 'unit' | 'label' | 'status'>;
 
 /** The table's values of the given targets, each column from the first of its sources that has a shown revision. */
 async function tableValuesOf(db: Db, targetIds: number[], statuses: readonly DerivedStatus[]): Promise<Map<number, TargetRow['values']>> {
   const stored = [...new Set(Object.values(tableQuantitySources).flat())];
   const rows: ShownRow[] = targetIds.length
     ? await db('derived_values')
-        .select('target_id', 'quantity', 'value', 'uncertainty', 'interval_low', 'interval_high', 'unit', 'label', 'status')
+        .select('target_id', 'quantity', 'revision', 'value', 'uncertainty', 'interval_low', 'interval_high', 'unit', 'label', 'status')
         .whereIn('target_id', targetIds)
         .whereIn('quantity', stored)
         .whereIn('status', [...statuses])
-        .orderBy('revision', 'asc')
     : [];
+  // The newest revision of each target's quantity, in one pass (an ORDER BY made SQLite sort the page's rows first, a quarter of this query's time).
   const newest = new Map<string, ShownRow>();
-  for (const r of rows) newest.set(`${r.target_id}:${r.quantity}`, r);
+  for (const r of rows) {
+    const key = `${r.target_id}:${r.quantity}`;
+    if ((newest.get(key)?.revision ?? -Infinity) < r.revision) newest.set(key, r);
+  }
   const byTarget = new Map<number, TargetRow['values']>();
   for (const id of targetIds) {
     const values: TargetRow['values'] = {};
