@@ -267,6 +267,19 @@ describe('measurement uploads: bad input', () => {
     expect(page.body.rows[1].cells[4]).toBe('12,5');
   });
 
+  it('refuses a band or an instrument longer than the database keeps, on its row and field', async () => {
+    // The measurements table holds a band of 16 characters and an instrument of 120 (migrations/20261201010000_measurements.ts); PostgreSQL refuses longer, SQLite would keep it.
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    const file = ['target,quantity,value,unit,band,instrument', `T 1,magnitude,8.0,mag,${'V'.repeat(17)},`, `T 1,magnitude,8.0,mag,V,${'x'.repeat(121)}`, `T 1,magnitude,8.0,mag,${'V'.repeat(16)},${'x'.repeat(120)}`].join('\n');
+    const res = await upload(s, world, file);
+    expect(res.status).toBe(201);
+    const up = res.body.upload;
+    expectRowError(up, 2, 'band', /at most 16 characters/);
+    expectRowError(up, 3, 'instrument', /at most 120 characters/);
+    expect(up.errors.every((e: { row: number }) => e.row !== 4)).toBe(true);
+  });
+
   it('names a missing required column', async () => {
     world = await makeWorld();
     const s = await signIn(world.app, 'observer');
