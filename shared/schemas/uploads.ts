@@ -129,7 +129,7 @@ export interface Upload {
   everyRowKnownTarget: boolean;
   cautions: Caution[];
   duplicateOf: number | null;
-  spectrum: SpectrumPreview | null;
+  spectrum: DrawnSpectrum | null;
   /** Targets whose measurements came from this upload (committed uploads, in the single-upload view). */
   targets: { id: number; designation: string }[];
   uploadedBy: string | null;
@@ -146,11 +146,19 @@ export interface CommitResult {
   targets: { id: number; designation: string }[];
 }
 
+/**
+ * A spectrum as answered to be drawn: at most MOST_POINTS_DRAWN of its
+ * points (shared/schemas/spectrum-drawing.ts) and how many it has.
+ */
+export type DrawnSpectrum = SpectrumPreview & { pointCount: number };
+
 export interface StoredSpectrum {
   id: number;
   uploadId: number | null;
-  /** [wavelength m, flux as sent] */
+  /** [wavelength m, flux as sent]: the points drawn, every n-th when there are more than MOST_POINTS_DRAWN. */
   points: [number, number][];
+  /** How many points the spectrum has. */
+  pointCount: number;
   fit: NonNullable<SpectrumPreview['fit']>;
   createdAt: string;
 }

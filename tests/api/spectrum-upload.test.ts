@@ -52,3 +52,32 @@ describe('spectrum upload: the Planck fit stands on its own', () => {
     expect(quantities).not.toContain('temperature_wien');
   });
 });
+
+describe('a long spectrum: every point fitted, only what a chart can show sent', () => {
+  it('answers a 60 000-point spectrum with 1 500 points to draw and its full count, in the preview and on the sheet, while the fit used every point', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    // Planck's law with CODATA 2018 h, c, k_B for a 5772 K star (IAU 2015 Resolution B3's nominal solar effective temperature), 1 % noise.
+    const spectrum = syntheticSpectrum({ temperatureK: 5772, fromM: 380e-9, toM: 900e-9, points: 60_000, seed: 5772, constantNoise: 0.01 });
+    const res = await uploadSpectrum(s, world, csvOf(spectrum));
+    expect(res.status).toBe(201);
+    const preview = res.body.upload.spectrum;
+    expect(preview.pointCount).toBe(60_000);
+    // Every 40th point: the smallest stride leaving at most 1 500.
+    expect(preview.points).toHaveLength(1_500);
+    // The file gives wavelengths to 0.1 pm (4 decimals of nm).
+    expect(preview.points[0][0]).toBeCloseTo(380e-9, 12);
+    expect(preview.points[1][0]).toBeCloseTo(spectrum.wavelengthM[40], 12);
+    // The fit (of all the points, on the server) finds the temperature drawn.
+    expect(Math.abs(preview.fit.temperatureK - 5772)).toBeLessThan(3 * preview.fit.temperatureSigmaK);
+    expect(res.text.length).toBeLessThan(200_000);
+
+    await s.agent.post(`/api/projects/${world.projectId}/uploads/${res.body.upload.id}/commit`).set('X-CSRF-Token', s.csrf).send({}).expect(200);
+    const stored = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/spectra`).expect(200);
+    expect(stored.body.spectra[0].pointCount).toBe(60_000);
+    expect(stored.body.spectra[0].points).toHaveLength(1_500);
+    // The spectra table keeps every point.
+    const row = await world.db('spectra').first('points_json');
+    expect(JSON.parse(row.points_json)).toHaveLength(60_000);
+  });
+});

@@ -5,6 +5,7 @@ import type { MeasurementInput } from '../../../shared/physics/derive';
 import { chunks } from '../../lib/chunks';
 import { bulkInsert } from '../../db/bulk-insert';
 import { parseJson, toIso } from '../../lib/rows';
+import { pointsToDraw } from '../../../shared/schemas/spectrum-drawing';
 
 export interface NewMeasurement {
   projectId: number;
@@ -118,11 +119,15 @@ export async function listMeasurements(db: Db, projectId: number, targetId: numb
 
 export async function listSpectra(db: Db, projectId: number, targetId: number): Promise<StoredSpectrum[]> {
   const rows = await db('spectra').where({ project_id: projectId, target_id: targetId }).orderBy('id', 'desc');
-  return rows.map((r) => ({
-    id: r.id,
-    uploadId: r.upload_id,
-    points: parseJson<[number, number][]>(r.points_json, []),
-    fit: parseJson<StoredSpectrum['fit']>(r.fit_json, {} as StoredSpectrum['fit']),
-    createdAt: toIso(r.created_at),
-  }));
+  return rows.map((r) => {
+    const points = parseJson<[number, number][]>(r.points_json, []);
+    return {
+      id: r.id,
+      uploadId: r.upload_id,
+      points: pointsToDraw(points),
+      pointCount: points.length,
+      fit: parseJson<StoredSpectrum['fit']>(r.fit_json, {} as StoredSpectrum['fit']),
+      createdAt: toIso(r.created_at),
+    };
+  });
 }

@@ -4,6 +4,7 @@ import { bulkInsert } from '../../db/bulk-insert';
 import type { ColumnMapping, NormalisedRow, RowError } from '../../../shared/file-reading/measurement-file';
 import { ERRORS_SHOWN, type Caution, type SpectrumPreview, type Upload } from '../../../shared/schemas/uploads';
 import { parseJson, toIso } from '../../lib/rows';
+import { pointsToDraw } from '../../../shared/schemas/spectrum-drawing';
 
 /** What the preview shows about a file (small; read whenever the upload is shown). */
 export interface PreviewSummary {
@@ -81,7 +82,7 @@ function toUpload(r: UploadRow, preview: PreviewSummary | null, errors: RowError
     everyRowKnownTarget: preview?.everyRowKnownTarget ?? (preview?.newTargets.length === 0 && r.error_count === 0),
     cautions: preview?.cautions ?? [],
     duplicateOf: preview?.duplicateOf ?? null,
-    spectrum: preview?.spectrum ?? null,
+    spectrum: preview?.spectrum ? { ...preview.spectrum, points: pointsToDraw(preview.spectrum.points), pointCount: preview.spectrum.points.length } : null,
     targets: [],
     uploadedBy: r.uploaded_by ?? null,
     createdAt: toIso(r.created_at),

@@ -107,7 +107,7 @@ function UploadPreviewPage({ projectId, uploadId }: { projectId: number; uploadI
 
       {u.kind === 'spectrum' && u.spectrum ? (
         <Section title="Spectrum and Planck fit" className="mb-10">
-          <SpectrumChart points={u.spectrum.points} fit={u.spectrum.fit} designation={spectrumTarget}>
+          <SpectrumChart points={u.spectrum.points} pointCount={u.spectrum.pointCount} fit={u.spectrum.fit} designation={spectrumTarget}>
             {u.spectrum.fit ? null : <Alert title="No Planck fit could be made.">The errors below say what stopped it.</Alert>}
           </SpectrumChart>
         </Section>

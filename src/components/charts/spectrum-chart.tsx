@@ -11,9 +11,6 @@ const SpectrumPlot = lazy(() => import('./spectrum-plot'));
 /** A Planck fit as the server sends it, for an upload's preview or a stored spectrum alike. */
 export type SpectrumFit = NonNullable<SpectrumPreview['fit']>;
 
-/** More points than a chart this wide can show; beyond it every n-th point is drawn (the fit used them all). */
-const MOST_POINTS_DRAWN = 1500;
-
 /** The chart's width as laid out, so the number of ticks follows the room there is. */
 function useWidth() {
   const box = useRef<HTMLDivElement>(null);
@@ -121,22 +118,22 @@ function FitDetails({ fit, pointCount }: { fit: SpectrumFit; pointCount: number 
  */
 export function SpectrumChart({
   points,
+  pointCount,
   fit,
   designation,
   children,
 }: {
-  /** [wavelength m, flux as sent] */
+  /** [wavelength m, flux as sent]: the points the server sent to be drawn (every n-th of a long spectrum; the fit used them all). */
   points: readonly [number, number][];
+  /** How many points the spectrum has. */
+  pointCount: number;
   fit: SpectrumFit | null;
   designation: string | null;
   children?: ReactNode;
 }) {
   const data = useMemo(() => {
-    const stride = Math.max(1, Math.ceil(points.length / MOST_POINTS_DRAWN));
     const scale = fit ? Math.exp(fit.logScale) : 0;
-    return points
-      .filter((_, i) => i % stride === 0)
-      .map(([wavelengthM, flux]) => ({
+    return points.map(([wavelengthM, flux]) => ({
         nm: wavelengthM * 1e9,
         flux,
         fit: fit ? planckSpectralRadiance(wavelengthM, fit.temperatureK) * scale : undefined,
@@ -151,7 +148,7 @@ export function SpectrumChart({
   const peak = fit ? peakOf(fit) : null;
   const first = data[0].nm;
   const last = data[data.length - 1].nm;
-  const description = `Spectrum${designation ? ` of ${designation}` : ''}: ${points.length} points from ${first.toFixed(0)} to ${last.toFixed(0)} nm${
+  const description = `Spectrum${designation ? ` of ${designation}` : ''}: ${pointCount} points from ${first.toFixed(0)} to ${last.toFixed(0)} nm${
     temperature ? `; Planck fit ${temperature.text}; ${peak ? `continuum peak ${peak.text}` : 'no continuum peak inside the range'}` : '; no Planck fit'
   }.`;
 
@@ -159,7 +156,7 @@ export function SpectrumChart({
     <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)] print:grid-cols-1">
       <figure className="min-w-0 break-inside-avoid">
         <SpectrumLegend
-          pointCount={points.length}
+          pointCount={pointCount}
           drawnCount={data.length}
           fitText={temperature ? temperature.text : null}
           peakText={peakNm !== null ? (peak?.text ?? null) : null}
@@ -181,7 +178,7 @@ export function SpectrumChart({
         </div>
       </figure>
       <div className="break-inside-avoid">
-        {fit ? <FitDetails fit={fit} pointCount={points.length} /> : null}
+        {fit ? <FitDetails fit={fit} pointCount={pointCount} /> : null}
         {fit?.warnings.length ? (
           <ul className="mt-3 space-y-1 text-sm">
             {fit.warnings.map((w, i) => (

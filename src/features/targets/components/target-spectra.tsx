@@ -56,7 +56,7 @@ export function TargetSpectra({ projectId, designation, spectra }: { projectId: 
         )}
         {spectra.length > 1 ? `; ${spectra.length} spectra of this target in all.` : '.'}
       </p>
-      <SpectrumChart key={shown.id} points={shown.points} fit={shown.fit} designation={designation} />
+      <SpectrumChart key={shown.id} points={shown.points} pointCount={shown.pointCount} fit={shown.fit} designation={designation} />
     </div>
   );
 }
