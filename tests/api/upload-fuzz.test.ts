@@ -1,3 +1,5 @@
+import v8 from 'node:v8';
+import vm from 'node:vm';
 import fc from 'fast-check';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -10,7 +12,8 @@ import { makeWorld, signIn, type World } from '../support/world';
  * script, and spectra of every size up to the upload limit. For each: never
  * a 5xx, never a partial import (the project's measurements and targets
  * grow by what a successful commit reports, or not at all), and no request
- * slower than a few seconds.
+ * slower than a few seconds, and the server's heap back near where it
+ * started once the run is over (nothing of the files kept in memory).
  *
  * FUZZ_RUNS sets the number of cases (`npm run fuzz` runs 10 000); the
  * normal test run takes 1 000 (about 35 s here), with spectra up
@@ -20,6 +23,17 @@ const RUNS = Number(process.env.FUZZ_RUNS ?? 1000);
 const FULL = RUNS >= 10_000;
 const SLOWEST_MS = 5_000;
 const MAX_SPECTRUM_POINTS = FULL ? 600_000 : 20_000;
+/** What the heap may have grown by after the run, garbage collected: caches that are meant to stay (compiled code, prepared statements), not the files. */
+const HEAP_GROWTH_ALLOWED = 64 * 1024 * 1024;
+
+/** The JavaScript heap in use after a full collection (V8's gc, exposed for the test). */
+function heapAfterCollection(): number {
+  v8.setFlagsFromString('--expose-gc');
+  const collect = vm.runInNewContext('gc') as () => void;
+  collect();
+  collect();
+  return process.memoryUsage().heapUsed;
+}
 
 let world: World;
 let auth: string;
@@ -118,7 +132,8 @@ async function timed<T>(what: string, run: () => Promise<T>): Promise<T> {
 }
 
 describe(`upload fuzz (${RUNS} cases)`, () => {
-  it('never answers 5xx, never imports part of a file, never takes more than a few seconds', async () => {
+  it('never answers 5xx, never imports part of a file, never takes more than a few seconds, and lets go of the files', async () => {
+    const heapAtStart = heapAfterCollection();
     let n = 0;
     const outcomes: Record<string, number> = {};
     await fc.assert(
@@ -151,5 +166,8 @@ describe(`upload fuzz (${RUNS} cases)`, () => {
     // What the cases came to (commit answers by kind), so a run that commits nothing shows.
     console.log(`upload fuzz, ${n} cases, commits: ${JSON.stringify(outcomes)}`);
     expect(Object.keys(outcomes).some((k) => k.endsWith(' 200'))).toBe(true);
+    const growth = heapAfterCollection() - heapAtStart;
+    console.log(`upload fuzz: heap ${(heapAtStart / 2 ** 20).toFixed(0)} MB at the start, ${(growth / 2 ** 20).toFixed(1)} MB more after the run`);
+    expect(growth).toBeLessThan(HEAP_GROWTH_ALLOWED);
   }, Math.max(120_000, RUNS * 1_000));
 });
