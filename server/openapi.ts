@@ -22,6 +22,10 @@ const apiError = z
         .array(z.object({ path: z.string(), message: z.string() }))
         .optional()
         .meta({ description: 'With validation_failed: one entry per field, `path` naming the field (dotted when nested).' }),
+      reference: z
+        .string()
+        .optional()
+        .meta({ description: 'With internal: a random id that also stands on the server’s log line for this error; quote it to the operator.' }),
     }),
   })
   .meta({ id: 'Error' });
@@ -82,7 +86,7 @@ function errorResponses(route: RouteDef) {
   if (route.params) out['404'] = errorResponse('not_found: no such project, target or record for this caller.');
   out['503'] = errorResponse('database_busy: try again after the Retry-After header’s seconds.');
   out['507'] = errorResponse('storage_full: nothing was saved.');
-  out['500'] = errorResponse('internal: the error was logged.');
+  out['500'] = errorResponse('internal: the error was logged under the answer’s `reference`.');
   return out;
 }
 

@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import type { NextFunction, Request, Response } from 'express';
 import { messageFor } from '../../shared/errors';
 import { AppError } from '../lib/errors';
@@ -24,7 +25,8 @@ interface HttpishError {
  * The one place that answers with `{ error: { code, message, details } }`.
  * Known failures keep their status; body-parser and multer errors are
  * translated; anything else is logged with its cause and answered as a
- * plain 500 without a trace.
+ * plain 500 without a trace, the log line and the answer sharing a random
+ * reference so an operator can find the one from the other.
  */
 export function errorHandler(err: unknown, req: Request, res: Response, next: NextFunction): void {
   if (res.headersSent) return next(err);
@@ -61,8 +63,9 @@ export function errorHandler(err: unknown, req: Request, res: Response, next: Ne
     res.status(status).json({ error: { code: 'bad_request', message: e.expose ? String((err as Error).message) : 'The request could not be processed.' } });
     return;
   }
-  console.error(`[${req.method} ${req.baseUrl}${req.path}]`, describeForLog(err));
-  res.status(500).json({ error: { code: 'internal', message: messageFor('internal') } });
+  const reference = randomUUID();
+  console.error(`[${req.method} ${req.baseUrl}${req.path}] reference ${reference}:`, describeForLog(err));
+  res.status(500).json({ error: { code: 'internal', message: `${messageFor('internal')} Reference: ${reference}.`, reference } });
 }
 
 /**
