@@ -14,6 +14,9 @@ import * as projectTargetCount from './20261202090000_project_target_count';
 import * as projectTargetCountFill from './20261202090100_project_target_count_fill';
 import * as loginThrottle from './20261202093000_login_throttle';
 import * as unboundedTexts from './20261202100000_unbounded_texts';
+import * as uploadErrorChunks from './20261202190000_upload_error_chunks';
+import * as uploadErrorChunksFill from './20261202190100_upload_error_chunks_fill';
+import * as dropUploadErrors from './20261202190200_drop_upload_errors';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -37,6 +40,9 @@ const migrations: Record<string, Knex.Migration> = {
   '20261202090100_project_target_count_fill': projectTargetCountFill,
   '20261202093000_login_throttle': loginThrottle,
   '20261202100000_unbounded_texts': unboundedTexts,
+  '20261202190000_upload_error_chunks': uploadErrorChunks,
+  '20261202190100_upload_error_chunks_fill': uploadErrorChunksFill,
+  '20261202190200_drop_upload_errors': dropUploadErrors,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -113,6 +113,37 @@ describe('an upload with many errors stays small to show', () => {
     expect(commit.body.error.details).toHaveLength(20);
   });
 
+  it('keeps a file whose every line is wrong in less room than the file, and pages its errors across the stored chunks in file order', async () => {
+    world = await makeWorld();
+    const s = await signIn(world.app, 'observer');
+    // 2 000 lines, each with three errors (position out of range, value not a number, unknown unit), over four chunks of 500 lines.
+    const lines = ['target,ra,dec,quantity,value,uncertainty,unit'];
+    for (let i = 0; i < 2000; i += 1) lines.push(`Q ${i},400,95,parallax,v${i},0.2,furlong`);
+    const file = `${lines.join('\n')}\n`;
+    const res = await send(s, world, file, 'all-wrong.csv').expect(201);
+    const id = res.body.upload.id;
+    const total = res.body.upload.errorCount;
+    expect(total).toBeGreaterThanOrEqual(3 * 2000);
+    const chunks = await world.db('upload_error_chunks').where({ upload_id: id }).select('errors');
+    const stored = chunks.reduce((n: number, c: { errors: Buffer }) => n + c.errors.length, 0);
+    expect(stored).toBeLessThan(Buffer.byteLength(file));
+
+    // Every error, page by page (pages of 300 cross the 500-line chunks at different places), in file order, none twice.
+    const all: { row: number; message: string }[] = [];
+    for (let page = 1; (page - 1) * 300 < total; page += 1) {
+      all.push(...(await s.agent.get(`${uploadsUrl(world)}/${id}/errors?page=${page}&pageSize=300`).expect(200)).body.errors);
+    }
+    expect(all).toHaveLength(total);
+    expect(all.every((e, i) => i === 0 || all[i - 1].row <= e.row)).toBe(true);
+    expect(new Set(all.map((e) => e.row)).size).toBe(2000);
+    expect(all.filter((e) => e.row === 1501).map((e) => e.message).join(' ')).toMatch(/"v1499"/);
+    // The rows with errors, and one page of them past the first chunk with each row's own errors.
+    const bad = await s.agent.get(`${uploadsUrl(world)}/${id}/rows?page=3&pageSize=200&onlyErrors=true`).expect(200);
+    expect(bad.body.total).toBe(2000);
+    expect(bad.body.rows.map((r: { row: number }) => r.row)).toEqual(Array.from({ length: 200 }, (_, i) => 402 + i));
+    expect(bad.body.rows[150].errors).toEqual(all.filter((e) => e.row === 552));
+  });
+
   it('answers one page of rows from the stored chunks, without reading the file again', async () => {
     world = await makeWorld();
     const s = await signIn(world.app, 'observer');

@@ -154,8 +154,8 @@ export async function savePreview(
       preview_json: null,
       preview_blob: packRows(rows),
     });
-  await trx('upload_errors').where({ upload_id: uploadId }).delete();
-  await bulkInsert(trx, 'upload_errors', p.errors.map((e) => ({ upload_id: uploadId, row: e.row, column: e.column.slice(0, 255), message: e.message })));
+  await trx('upload_error_chunks').where({ upload_id: uploadId }).delete();
+  await bulkInsert(trx, 'upload_error_chunks', errorChunks(uploadId, p.errors));
   await trx('upload_row_chunks').where({ upload_id: uploadId }).delete();
   const chunks: Record<string, unknown>[] = [];
   for (let i = 0; i * CHUNK_ROWS < p.records.length; i += 1) {
@@ -169,31 +169,87 @@ export async function dropPreviewRows(db: Db, uploadId: number): Promise<void> {
   await db('uploads').where({ id: uploadId }).update({ preview_blob: null, preview_json: null });
 }
 
+/**
+ * Row errors are kept in compressed chunks of CHUNK_ROWS lines of the file
+ * (migrations/20261202190000_upload_error_chunks.ts says why), each with how
+ * many errors it holds and on how many rows, so that a page of errors, or
+ * of rows with errors, finds the chunks it spans from those counts and
+ * unpacks only them. Chunk −1 holds the errors below row 2 (the header, the
+ * file as a whole).
+ */
+const errorChunkOf = (row: number) => (row < 2 ? -1 : Math.floor((row - 2) / CHUNK_ROWS));
+
+interface ErrorChunkCounts {
+  chunk: number;
+  error_count: number;
+  row_count: number;
+}
+
+/** An upload's errors as the chunk rows to store, each chunk's errors in file order (by row, then as found). */
+function errorChunks(uploadId: number, errors: RowError[]): Record<string, unknown>[] {
+  const byChunk = new Map<number, RowError[]>();
+  for (const e of [...errors].sort((a, b) => a.row - b.row)) {
+    const error = { row: e.row, column: e.column, message: e.message };
+    const list = byChunk.get(errorChunkOf(e.row));
+    if (list) list.push(error);
+    else byChunk.set(errorChunkOf(e.row), [error]);
+  }
+  return [...byChunk].map(([chunk, list]) => ({
+    upload_id: uploadId,
+    chunk,
+    error_count: list.length,
+    row_count: new Set(list.map((e) => e.row)).size,
+    errors: pack(list),
+  }));
+}
+
+async function errorChunkCounts(db: Db, uploadId: number): Promise<ErrorChunkCounts[]> {
+  return db('upload_error_chunks').where({ upload_id: uploadId }).orderBy('chunk').select('chunk', 'error_count', 'row_count');
+}
+
+/** The errors of the given chunks, in file order. */
+async function errorsOfChunks(db: Db, uploadId: number, chunks: number[]): Promise<RowError[]> {
+  if (chunks.length === 0) return [];
+  const stored: { chunk: number; errors: Buffer }[] = await db('upload_error_chunks').where({ upload_id: uploadId }).whereIn('chunk', chunks).orderBy('chunk').select('chunk', 'errors');
+  return stored.flatMap((c) => unpack<RowError[]>(c.errors));
+}
+
+/** The chunks a page of `offset`/`limit` items spans, counting each chunk's items with `size`, and where the first of them starts. */
+function chunksSpanned(counts: ErrorChunkCounts[], size: (c: ErrorChunkCounts) => number, page: { offset: number; limit: number }) {
+  const chunks: number[] = [];
+  let start = 0;
+  let firstStart = 0;
+  for (const c of counts) {
+    const end = start + size(c);
+    if (end > page.offset && start < page.offset + page.limit) {
+      if (chunks.length === 0) firstStart = start;
+      chunks.push(c.chunk);
+    }
+    start = end;
+  }
+  return { chunks, firstStart, total: start };
+}
+
 /** Row errors in file order, a page at a time. */
 export async function listErrors(db: Db, uploadId: number, page: { offset: number; limit: number }): Promise<RowError[]> {
-  return db('upload_errors')
-    .where({ upload_id: uploadId })
-    .orderBy([{ column: 'row' }, { column: 'id' }])
-    .offset(page.offset)
-    .limit(page.limit)
-    .select('row', 'column', 'message');
+  const { chunks, firstStart } = chunksSpanned(await errorChunkCounts(db, uploadId), (c) => c.error_count, page);
+  const errors = await errorsOfChunks(db, uploadId, chunks);
+  return errors.slice(page.offset - firstStart, page.offset - firstStart + page.limit);
 }
 
 /** The errors of the given rows, for one page of the preview. */
 export async function errorsOfRows(db: Db, uploadId: number, fromRow: number, toRow: number): Promise<RowError[]> {
-  return db('upload_errors')
-    .where({ upload_id: uploadId })
-    .whereBetween('row', [fromRow, toRow])
-    .orderBy([{ column: 'row' }, { column: 'id' }])
-    .select('row', 'column', 'message');
+  const counts = await errorChunkCounts(db, uploadId);
+  const wanted = counts.map((c) => c.chunk).filter((chunk) => chunk >= errorChunkOf(fromRow) && chunk <= errorChunkOf(toRow));
+  return (await errorsOfChunks(db, uploadId, wanted)).filter((e) => e.row >= fromRow && e.row <= toRow);
 }
 
 /** Data rows (not the header) that have errors: how many, and one page of their numbers. */
 export async function rowsWithErrors(db: Db, uploadId: number, page: { offset: number; limit: number }): Promise<{ total: number; rows: number[] }> {
-  const base = () => db('upload_errors').where({ upload_id: uploadId }).where('row', '>=', 2);
-  const counted = await base().countDistinct<{ n: number | string }[]>('row as n');
-  const rows = await base().distinct('row').orderBy('row').offset(page.offset).limit(page.limit);
-  return { total: Number(counted[0]?.n ?? 0), rows: rows.map((r: { row: number }) => r.row) };
+  const dataChunks = (await errorChunkCounts(db, uploadId)).filter((c) => c.chunk >= 0);
+  const { chunks, firstStart, total } = chunksSpanned(dataChunks, (c) => c.row_count, page);
+  const rows = [...new Set((await errorsOfChunks(db, uploadId, chunks)).map((e) => e.row))];
+  return { total, rows: rows.slice(page.offset - firstStart, page.offset - firstStart + page.limit) };
 }
 
 /**
@@ -234,10 +290,38 @@ export async function findUpload(db: Db, projectId: number, uploadId: number): P
   return upload;
 }
 
+/**
+ * The first ERRORS_SHOWN errors of each of the given uploads, in two
+ * queries whatever their number: every upload's chunk counts, then only the
+ * chunks that hold its first errors.
+ */
+async function firstErrorsOf(db: Db, uploadIds: number[]): Promise<Map<number, RowError[]>> {
+  const first = new Map<number, RowError[]>();
+  if (uploadIds.length === 0) return first;
+  const counts: (ErrorChunkCounts & { upload_id: number })[] = await db('upload_error_chunks')
+    .whereIn('upload_id', uploadIds)
+    .orderBy([{ column: 'upload_id' }, { column: 'chunk' }])
+    .select('upload_id', 'chunk', 'error_count', 'row_count');
+  const wanted: [number, number][] = [];
+  const seen = new Map<number, number>();
+  for (const c of counts) {
+    const before = seen.get(c.upload_id) ?? 0;
+    if (before < ERRORS_SHOWN) wanted.push([c.upload_id, c.chunk]);
+    seen.set(c.upload_id, before + c.error_count);
+  }
+  if (wanted.length === 0) return first;
+  const stored: { upload_id: number; errors: Buffer }[] = await db('upload_error_chunks')
+    .whereIn(['upload_id', 'chunk'], wanted)
+    .orderBy([{ column: 'upload_id' }, { column: 'chunk' }])
+    .select('upload_id', 'errors');
+  for (const c of stored) first.set(c.upload_id, [...(first.get(c.upload_id) ?? []), ...unpack<RowError[]>(c.errors)].slice(0, ERRORS_SHOWN));
+  return first;
+}
+
 /** The first few errors shown with an upload; the rest are paged from their own route. */
 async function firstErrors(db: Db, row: UploadRow): Promise<RowError[]> {
   if (row.error_count === 0) return [];
-  const errors = await listErrors(db, row.id, { offset: 0, limit: ERRORS_SHOWN });
+  const errors = (await firstErrorsOf(db, [row.id])).get(row.id) ?? [];
   if (errors.length) return errors;
   // Uploads previewed before errors had their own table kept them as one JSON list.
   const old = await db('uploads').where({ id: row.id }).first('errors_json');
@@ -264,24 +348,7 @@ export async function listUploads(db: Db, projectId: number): Promise<Upload[]> 
     .where('u.project_id', projectId)
     .orderBy('u.id', 'desc')
     .select(SUMMARY_COLUMNS);
-  const withErrors = rows.filter((r) => r.error_count > 0).map((r) => r.id);
-  const first = new Map<number, RowError[]>();
-  if (withErrors.length) {
-    // The first few errors of each upload, by their place in the file, in one query.
-    const ranked = await db
-      .select('upload_id', 'row', 'column', 'message')
-      .from(
-        db('upload_errors')
-          .whereIn('upload_id', withErrors)
-          .select('upload_id', 'row', 'column', 'message', db.raw('row_number() over (partition by upload_id order by "row", id) as n'))
-          .as('e'),
-      )
-      .where('n', '<=', ERRORS_SHOWN)
-      .orderBy([{ column: 'upload_id' }, { column: 'n' }]);
-    for (const e of ranked as (RowError & { upload_id: number })[]) {
-      first.set(e.upload_id, [...(first.get(e.upload_id) ?? []), { row: e.row, column: e.column, message: e.message }]);
-    }
-  }
+  const first = await firstErrorsOf(db, rows.filter((r) => r.error_count > 0).map((r) => r.id));
   return rows.map((r) => toUpload(r, null, first.get(r.id) ?? []));
 }
 
