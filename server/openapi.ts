@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { errorCodes } from '../shared/errors';
 import { permissions, roleLabels } from '../shared/schemas/roles';
 import type { Access } from './middleware/access';
-import type { RouteDef } from './routes';
+import { bodyMediaType, type RouteDef } from './routes';
 
 /**
  * The OpenAPI 3.1 document of the whole API, generated from the route table
@@ -83,6 +83,8 @@ function errorResponses(route: RouteDef) {
   if (route.access.kind !== 'public') out['401'] = errorResponse('unauthenticated: no session and no valid token.');
   if (route.method !== 'get') out['403'] = errorResponse('csrf_invalid (a session without the X-CSRF-Token header), or forbidden.');
   else if (route.access.kind === 'siteAdmin' || route.access.kind === 'project') out['403'] = errorResponse('forbidden: the caller’s role does not allow it.');
+  const mediaType = bodyMediaType(route);
+  if (mediaType) out['415'] = errorResponse(`unsupported_media_type: a body sent as anything but ${mediaType}.`);
   if (route.params) out['404'] = errorResponse('not_found: no such project, target or record for this caller.');
   out['503'] = errorResponse('database_busy: try again after the Retry-After header’s seconds.');
   out['507'] = errorResponse('storage_full: nothing was saved.');
@@ -100,9 +102,9 @@ export function openApiDocument(routes: readonly RouteDef[], version: string) {
   registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'starledger.sid', description: 'The browser’s session; writes also send X-CSRF-Token.' });
   for (const route of routes) {
     // A file upload sends its fields as multipart form data beside the file.
-    const multipart = (route.receive?.length ?? 0) > 0;
+    const mediaType = bodyMediaType(route);
     const body = route.body
-      ? multipart
+      ? mediaType === 'multipart/form-data'
         ? { content: { 'multipart/form-data': { schema: (route.body as z.ZodObject).extend({ file: z.string().meta({ format: 'binary', description: 'The file (CSV).' }) }) } } }
         : { content: { 'application/json': { schema: route.body } } }
       : undefined;

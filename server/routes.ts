@@ -7,6 +7,7 @@ import { createTargetBody, listTargetsQuery, updateTargetBody } from '../shared/
 import type { Db } from './db/knex';
 import { anyone, inProject, requireAccess, signedIn, siteAdmin, type Access } from './middleware/access';
 import { validate } from './middleware/validate';
+import { requireBodyType } from './middleware/content-type';
 import type { StarledgerPassport } from './middleware/auth';
 import type { Services } from './services';
 import { openApiDocument } from './openapi';
@@ -176,10 +177,17 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
   return routes;
 }
 
+/** The one media type a route's body is read as: form data beside a file where it receives one, JSON otherwise; none without a body. */
+export function bodyMediaType(route: RouteDef): 'application/json' | 'multipart/form-data' | undefined {
+  if (!route.body) return undefined;
+  return (route.receive?.length ?? 0) > 0 ? 'multipart/form-data' : 'application/json';
+}
+
 export function mountRoutes(db: Db, routes: RouteDef[]): Router {
   const router = Router();
   for (const r of routes) {
-    const chain: RequestHandler[] = [...(r.before ?? []), requireAccess(db, r.access), ...(r.receive ?? [])];
+    const mediaType = bodyMediaType(r);
+    const chain: RequestHandler[] = [...(r.before ?? []), requireAccess(db, r.access), ...(mediaType ? [requireBodyType(mediaType)] : []), ...(r.receive ?? [])];
     if (r.params) chain.push(validate('params', r.params));
     if (r.query) chain.push(validate('query', r.query));
     if (r.body) chain.push(validate('body', r.body));

@@ -21,6 +21,7 @@ export const errorCodes = {
   link_used: 'This link has already been used.',
   link_revoked: 'This invitation was withdrawn.',
   payload_too_large: 'The request is too large.',
+  unsupported_media_type: 'The request’s body is not of the type this address reads.',
   database_busy: 'The database is busy (a backup or another writer holds it). Nothing was changed; try again in a few seconds.',
   storage_full: 'The server’s storage is full, so nothing was saved. Ask the site admin to free disk space, then try again.',
   internal: 'Something went wrong on the server. The error was logged.',
