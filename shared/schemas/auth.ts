@@ -29,20 +29,20 @@ export type MeResponse = z.infer<typeof meResponse>;
 
 /**
  * The length of a new password (ASVS 4.0 2.1.1 and 2.1.2: at least 12,
- * and at least 64 allowed). Any characters, spaces included, and no rules
+ * at least 64 allowed, none over 128). Any characters, spaces included, and no rules
  * about kinds of character (2.1.9); a few words together make a good one.
  * The server also refuses common passwords and ones made of the account's
  * own words (server/lib/passwords.ts, acceptablePassword).
  */
 export const PASSWORD_MIN_LENGTH = 12;
-export const PASSWORD_MAX_LENGTH = 200;
+export const PASSWORD_MAX_LENGTH = 128;
 export const passwordRule = z
   .string()
   .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters; a few words together make a good password.`)
   .max(PASSWORD_MAX_LENGTH, `Use at most ${PASSWORD_MAX_LENGTH} characters.`);
 
 /** The hint beside every field where a new password is chosen. */
-export const PASSWORD_HINT = `At least ${PASSWORD_MIN_LENGTH} characters, any kind; a few words together make a good password. Not a common one, not your e-mail or name.`;
+export const PASSWORD_HINT = `${PASSWORD_MIN_LENGTH} to ${PASSWORD_MAX_LENGTH} characters, any kind; a few words together make a good password. Not a common one, not your e-mail or name.`;
 
 /** What a password must not be made of: the account's e-mail, its parts, the person's name, the product's name. */
 export interface PasswordContext {
