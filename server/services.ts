@@ -32,7 +32,7 @@ export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
 export function createServices(db: Db, clock: Clock, options: ServiceOptions = {}) {
   const publicUrl = options.publicUrl ?? DEFAULT_PUBLIC_URL;
   return {
-    users: createUsersService(db, clock),
+    users: createUsersService(db, clock, { publicUrl }),
     projects: createProjectsService(db, clock),
     members: createMembersService(db, clock),
     targets: createTargetsService(db, clock),

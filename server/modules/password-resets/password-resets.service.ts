@@ -10,6 +10,7 @@ import { appendTrail } from '../trail/trail.repository';
 import { findUserByEmail, findUserById, setPasswordHash } from '../users/users.repository';
 import { deleteSessionsOf } from '../auth/sessions.repository';
 import { passwordResetMail } from './password-reset-mail';
+import { queuePasswordChangedMail } from '../users/password-changed-mail';
 import { createThrottleCounts, type CountRule } from '../auth/login-throttle';
 import { claimReset, closeOpenResets, findResetByHash, insertReset, type StoredReset } from './password-resets.repository';
 
@@ -98,10 +99,11 @@ export function createPasswordResetsService(db: Db, clock: Clock, options: { pub
       return { email: reset.email, expiresAt: reset.expiresAt };
     },
 
-    /** Sets the new password, uses the link (and every other open link of the account) and ends all the account's sessions, in one transaction. */
+    /** Sets the new password, uses the link (and every other open link of the account), ends all the account's sessions and queues the notice of the change, in one transaction. */
     async complete(input: CompletePasswordResetBody): Promise<{ userId: number }> {
       const reset = await usable(input.token);
-      assertAcceptablePassword(input.password, { email: reset.email, name: (await findUserById(db, reset.userId))?.name });
+      const name = (await findUserById(db, reset.userId))?.name ?? 'Observer';
+      assertAcceptablePassword(input.password, { email: reset.email, name });
       const passwordHash = await hashPassword(input.password);
       const now = clock.now();
       await db.transaction(async (trx) => {
@@ -114,6 +116,7 @@ export function createPasswordResetsService(db: Db, clock: Clock, options: { pub
         await closeOpenResets(trx, reset.userId, now);
         const ended = await deleteSessionsOf(trx, reset.userId);
         await appendTrail(trx, { projectId: null, actorUserId: reset.userId, action: 'user.password_reset', entityType: 'user', entityId: reset.userId, after: { sessionsEnded: ended } }, now);
+        await queuePasswordChangedMail(trx, { email: reset.email, name }, passwordHash, 'reset', now, base);
       });
       return { userId: reset.userId };
     },

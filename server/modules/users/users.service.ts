@@ -5,9 +5,10 @@ import { conflict, notFound } from '../../lib/errors';
 import { deleteSessionsOf } from '../auth/sessions.repository';
 import { assertAcceptablePassword, decoyHash, hashPassword, sessionStamp, verifyPassword } from '../../lib/passwords';
 import { appendTrail } from '../trail/trail.repository';
+import { queuePasswordChangedMail } from './password-changed-mail';
 import { findUserByEmail, findUserById, findUserWithHash, insertUser, listUsers, membershipsOf, setPasswordHash } from './users.repository';
 
-export function createUsersService(db: Db, clock: Clock) {
+export function createUsersService(db: Db, clock: Clock, options: { publicUrl: string }) {
   return {
     /** Returns the user when the password matches; undefined otherwise, taking the same time whether or not the e-mail exists. */
     async authenticate(email: string, password: string): Promise<User | undefined> {
@@ -44,7 +45,8 @@ export function createUsersService(db: Db, clock: Clock) {
      * Sets a signed-in person's new password (the caller has checked the
      * current one) and ends every session of the account, in one
      * transaction; the caller opens a new session for the browser that
-     * asked, which carries the new password's stamp.
+     * asked, which carries the new password's stamp. The account's
+     * address is sent a notice of the change in the same transaction.
      */
     async changePassword(userId: number, password: string): Promise<void> {
       const found = await findUserWithHash(db, userId);
@@ -56,6 +58,7 @@ export function createUsersService(db: Db, clock: Clock) {
         await setPasswordHash(trx, userId, passwordHash, now);
         const ended = await deleteSessionsOf(trx, userId);
         await appendTrail(trx, { projectId: null, actorUserId: userId, action: 'user.password_changed', entityType: 'user', entityId: userId, after: { sessionsEnded: ended } }, now);
+        await queuePasswordChangedMail(trx, found, passwordHash, 'change', now, options.publicUrl);
       });
     },
 
