@@ -1,4 +1,4 @@
-import { useId, type ComponentProps, type ReactNode } from 'react';
+import { useId, useState, type ComponentProps, type ReactNode } from 'react';
 import { cn } from '@/lib/cn';
 
 interface FieldShellProps {
@@ -89,6 +89,43 @@ export function TextField({ label, hint, error, className, id, ...input }: Field
   return (
     <Field label={label} hint={hint} error={error} className={className} id={id}>
       {(control) => <input {...control} className={controlClasses(Boolean(error))} {...input} />}
+    </Field>
+  );
+}
+
+/**
+ * A password box with a Show button at its end (ASVS 2.1.12): pressed, the
+ * password reads as typed; pressed again, it is hidden. The button keeps one
+ * name ("Show" and, for screen readers, the field's label) and tells its
+ * state with aria-pressed; it is a plain button, so Tab reaches it and Space
+ * or Enter presses it.
+ */
+export function PasswordField({ label, hint, error, className, id, ...input }: FieldShellProps & Omit<ComponentProps<'input'>, 'type'>) {
+  const [shown, setShown] = useState(false);
+  return (
+    <Field label={label} hint={hint} error={error} className={className} id={id}>
+      {(control) => (
+        <div className="flex">
+          <input
+            {...control}
+            type={shown ? 'text' : 'password'}
+            autoCapitalize="off"
+            autoCorrect="off"
+            spellCheck={false}
+            className={cn(controlClasses(Boolean(error)), 'min-w-0 flex-1 rounded-r-none')}
+            {...input}
+          />
+          <button
+            type="button"
+            aria-pressed={shown}
+            aria-controls={control.id}
+            onClick={() => setShown((s) => !s)}
+            className="shrink-0 rounded-r-sm border border-l-0 border-rule bg-paper px-3 font-sans text-sm font-medium text-brass hover:bg-paper-deep aria-pressed:border-brass-deep aria-pressed:bg-brass aria-pressed:text-paper aria-pressed:hover:bg-brass-deep"
+          >
+            Show<span className="sr-only"> {typeof label === 'string' ? label.toLowerCase() : 'password'}</span>
+          </button>
+        </div>
+      )}
     </Field>
   );
 }

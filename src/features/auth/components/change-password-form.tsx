@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { changePasswordForm, PASSWORD_HINT, type ChangePasswordForm } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/field';
+import { PasswordField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { formParseOptions } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
@@ -41,9 +41,9 @@ export function ChangePasswordForm({ email }: { email: string }) {
       {formError ? <Alert title="The password was not changed.">{formError}</Alert> : null}
       {done ? <Alert kind="done" title={done} /> : null}
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
-      <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword?.message} {...register('currentPassword')} />
-      <TextField label="New password" type="password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
-      <TextField label="The new password again" type="password" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
+      <PasswordField label="Current password" autoComplete="current-password" error={errors.currentPassword?.message} {...register('currentPassword')} />
+      <PasswordField label="New password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
+      <PasswordField label="The new password again" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
       <Button type="submit" disabled={isSubmitting}>
         {isSubmitting ? 'Saving…' : 'Change the password'}
       </Button>

@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { choosePasswordForm, PASSWORD_HINT, type ChoosePasswordForm } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/field';
+import { PasswordField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { formParseOptions } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
@@ -33,8 +33,8 @@ export function ResetPasswordForm({ token, email, onDone }: { token: string; ema
     <form onSubmit={onSubmit} noValidate aria-label="Set a new password" className="space-y-4">
       {formError ? <Alert title="The password was not changed.">{formError}</Alert> : null}
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
-      <TextField label="New password" type="password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
-      <TextField label="The same again" type="password" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
+      <PasswordField label="New password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
+      <PasswordField label="The same again" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
       <Button type="submit" className="w-full" disabled={isSubmitting}>
         {isSubmitting ? 'Saving…' : 'Set the new password'}
       </Button>

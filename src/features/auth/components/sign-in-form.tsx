@@ -3,7 +3,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { loginBody, type LoginBody } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/field';
+import { PasswordField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { useLogin } from '@/lib/auth';
 import { formParseOptions } from '@/lib/form-errors';
@@ -42,9 +42,8 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
     <form onSubmit={onSubmit} noValidate aria-label="Sign in" className="space-y-4">
       {formError ? <Alert title={formError} /> : null}
       <TextField label="E-mail" type="email" autoComplete="username" error={errors.email?.message} {...register('email')} />
-      <TextField
+      <PasswordField
         label="Password"
-        type="password"
         autoComplete="current-password"
         error={errors.password?.message}
         {...register('password')}

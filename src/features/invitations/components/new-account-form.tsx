@@ -4,7 +4,7 @@ import { z } from 'zod';
 import { PASSWORD_HINT, samePassword, samePasswordIssue } from '@shared/schemas/auth';
 import { newAccountFields } from '@shared/schemas/invitations';
 import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/field';
+import { PasswordField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { formParseOptions } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
@@ -37,8 +37,8 @@ export function NewAccountForm({ token, email, onAccepted }: { token: string; em
       {formError ? <Alert title="The invitation was not accepted.">{formError}</Alert> : null}
       <TextField label="E-mail" type="email" autoComplete="username" value={email} readOnly hint="The invited address; it becomes your sign-in name." />
       <TextField label="Your name" autoComplete="name" hint="As your colleagues will see it in the trail." error={errors.name?.message} {...register('name')} />
-      <TextField label="Password" type="password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
-      <TextField label="The same again" type="password" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
+      <PasswordField label="Password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
+      <PasswordField label="The same again" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
       <Button type="submit" className="w-full" disabled={isSubmitting}>
         {isSubmitting ? 'Creating your account…' : 'Create my account and join'}
       </Button>

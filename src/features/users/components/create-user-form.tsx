@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { createUserBody, PASSWORD_HINT, type CreateUserBody, type User } from '@shared/schemas/auth';
 import { Button } from '@/components/ui/button';
-import { CheckboxField, TextField } from '@/components/ui/field';
+import { CheckboxField, PasswordField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
 import { formParseOptions } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
@@ -45,9 +45,8 @@ export function CreateUserForm() {
       {formError ? <Alert title="The account was not created.">{formError}</Alert> : null}
       <TextField label="Name" autoComplete="off" error={errors.name?.message} {...register('name')} />
       <TextField label="E-mail" type="email" autoComplete="off" error={errors.email?.message} {...register('email')} />
-      <TextField
+      <PasswordField
         label="First password"
-        type="password"
         autoComplete="new-password"
         hint={PASSWORD_HINT}
         error={errors.password?.message}
