@@ -99,7 +99,7 @@ export function openApiDocument(routes: readonly RouteDef[], version: string) {
     scheme: 'bearer',
     description: 'A personal API token (Account → API tokens). Writes with a token need no CSRF header.',
   });
-  registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'starledger.sid', description: 'The browser’s session; writes also send X-CSRF-Token.' });
+  registry.registerComponent('securitySchemes', 'session', { type: 'apiKey', in: 'cookie', name: 'starledger.sid', description: 'The browser’s session (named `__Host-starledger.sid` where the server sets Secure cookies, COOKIE_SECURE=true); writes also send X-CSRF-Token.' });
   for (const route of routes) {
     // A file upload sends its fields as multipart form data beside the file.
     const mediaType = bodyMediaType(route);

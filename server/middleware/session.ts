@@ -1,4 +1,4 @@
-import type { RequestHandler } from 'express';
+import type { CookieOptions, RequestHandler, Response } from 'express';
 import session from 'express-session';
 import { ConnectSessionKnexStore } from 'connect-session-knex';
 import { writeUnlessBusy, type Db } from '../db/knex';
@@ -67,19 +67,36 @@ export interface SessionOptions {
   cleanupIntervalMs: number;
 }
 
+/**
+ * The session cookie's name and attributes. With Secure it carries the
+ * `__Host-` prefix (RFC 6265bis §4.1.3.2; ASVS 3.4.4): a browser then takes
+ * it only if it is Secure, has Path=/ and names no Domain, so no other host
+ * under the domain and no plain-HTTP answer can set or shadow it. Without
+ * Secure (a LAN over plain HTTP) the prefix would make browsers drop it.
+ */
+export function sessionCookie(secure: boolean): { name: string; options: CookieOptions } {
+  return { name: secure ? '__Host-starledger.sid' : 'starledger.sid', options: { path: '/', httpOnly: true, sameSite: 'lax', secure } };
+}
+
 export function sessionMiddleware(db: Db, options: SessionOptions): RequestHandler {
-  return session({
-    name: 'starledger.sid',
+  const cookie = sessionCookie(options.secureCookies);
+  const handler = session({
+    name: cookie.name,
     secret: options.secret,
     resave: false,
     saveUninitialized: false,
     rolling: true,
     store: new SafeKnexStore({ knex: db, tableName: 'sessions', createTable: false, cleanupInterval: options.cleanupIntervalMs }),
-    cookie: {
-      httpOnly: true,
-      sameSite: 'lax',
-      secure: options.secureCookies,
-      maxAge: 1000 * 60 * 60 * 24 * 14,
-    },
+    cookie: { ...cookie.options, maxAge: 1000 * 60 * 60 * 24 * 14 },
   });
+  return (req, res, next) => {
+    res.locals.sessionCookie = cookie;
+    handler(req, res, next);
+  };
+}
+
+/** Tells the browser to drop the session cookie, with the name and attributes it was set with (a `__Host-` cookie is only cleared by a Secure, Path=/ one). */
+export function clearSessionCookie(res: Response): void {
+  const cookie = res.locals.sessionCookie as ReturnType<typeof sessionCookie>;
+  res.clearCookie(cookie.name, cookie.options);
 }

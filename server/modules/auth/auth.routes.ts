@@ -7,6 +7,7 @@ import type { UsersService } from '../users/users.service';
 import { changePasswordBody, loginBody } from '../../../shared/schemas/auth';
 import { parsed } from '../../middleware/validate';
 import type { LoginThrottle } from './login-throttle';
+import { clearSessionCookie } from '../../middleware/session';
 
 /** What the browser keeps of a session: the person, their roles and the CSRF token for writes. */
 export async function sessionBody(req: Request, users: UsersService) {
@@ -67,7 +68,7 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
       req.logout((err) => {
         if (err) return next(err);
         req.session.destroy(() => {
-          res.clearCookie('starledger.sid');
+          clearSessionCookie(res);
           res.status(204).end();
         });
       });

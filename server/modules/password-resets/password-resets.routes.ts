@@ -3,6 +3,7 @@ import { completePasswordResetBody, linkBody, passwordResetRequestBody } from '.
 import { tooManyAttempts } from '../../lib/errors';
 import { parsed } from '../../middleware/validate';
 import type { PasswordResetsService } from './password-resets.service';
+import { clearSessionCookie } from '../../middleware/session';
 
 export function passwordResetsHandlers(resets: PasswordResetsService) {
   return {
@@ -22,7 +23,7 @@ export function passwordResetsHandlers(resets: PasswordResetsService) {
       const { userId } = await resets.complete(parsed(res, 'body', completePasswordResetBody));
       if (req.user?.id === userId && req.session) {
         await new Promise<void>((resolve) => req.session.destroy(() => resolve()));
-        res.clearCookie('starledger.sid');
+        clearSessionCookie(res);
       }
       res.json({ message: 'Your new password is set. Sign in with it; every earlier session has ended.' });
     },
