@@ -79,23 +79,32 @@ function named(db: Db) {
     .select('d.*', 'pu.name as proposed_by_name', 'ru.name as reviewer_name');
 }
 
+type Revision = Pick<DerivedRow, 'target_id' | 'quantity' | 'revision'>;
+
+/**
+ * Adds to `newest` each row that is the newest revision of its target's
+ * quantity so far, keyed `targetId:quantity`: one pass, in any row order
+ * (an ORDER BY revision made SQLite sort the rows first).
+ */
+export function keepNewestRevisions<R extends Revision>(rows: readonly R[], newest = new Map<string, R>()): Map<string, R> {
+  for (const r of rows) {
+    const key = `${r.target_id}:${r.quantity}`;
+    if ((newest.get(key)?.revision ?? -Infinity) < r.revision) newest.set(key, r);
+  }
+  return newest;
+}
+
 /** The newest revision of every quantity of the given targets, keyed `targetId:quantity`. */
 export async function latestRevisions(db: Db, targetIds: number[]): Promise<Map<string, DerivedRow>> {
   const latest = new Map<string, DerivedRow>();
-  for (const ids of chunks(targetIds, 500)) {
-    const rows: DerivedRow[] = await db('derived_values').whereIn('target_id', ids).orderBy('revision', 'asc');
-    for (const r of rows) latest.set(`${r.target_id}:${r.quantity}`, r);
-  }
+  for (const ids of chunks(targetIds, 500)) keepNewestRevisions<DerivedRow>(await db('derived_values').whereIn('target_id', ids), latest);
   return latest;
 }
 
 /** The newest approved revision of every quantity of the given targets, keyed `targetId:quantity`. */
 export async function approvedRevisions(db: Db, targetIds: number[]): Promise<Map<string, NamedDerivedRow>> {
   const approved = new Map<string, NamedDerivedRow>();
-  for (const ids of chunks(targetIds, 500)) {
-    const rows: NamedDerivedRow[] = await named(db).whereIn('d.target_id', ids).where('d.status', 'approved').orderBy('d.revision', 'asc');
-    for (const r of rows) approved.set(`${r.target_id}:${r.quantity}`, r);
-  }
+  for (const ids of chunks(targetIds, 500)) keepNewestRevisions<NamedDerivedRow>(await named(db).whereIn('d.target_id', ids).where('d.status', 'approved'), approved);
   return approved;
 }
 

@@ -7,7 +7,7 @@ import type { Page } from '../../../shared/schemas/common';
 import { parseJson, toIso } from '../../lib/rows';
 import { bulkInsert } from '../../db/bulk-insert';
 import { chunks } from '../../lib/chunks';
-import { intervalOf, type DerivedRow } from '../derived-values/derived-values.repository';
+import { intervalOf, keepNewestRevisions, type DerivedRow } from '../derived-values/derived-values.repository';
 
 export interface TargetRecord {
   id: number;
@@ -91,12 +91,7 @@ async function tableValuesOf(db: Db, targetIds: number[], statuses: readonly Der
         .whereIn('quantity', stored)
         .whereIn('status', [...statuses])
     : [];
-  // The newest revision of each target's quantity, in one pass (an ORDER BY made SQLite sort the page's rows first, a quarter of this query's time).
-  const newest = new Map<string, ShownRow>();
-  for (const r of rows) {
-    const key = `${r.target_id}:${r.quantity}`;
-    if ((newest.get(key)?.revision ?? -Infinity) < r.revision) newest.set(key, r);
-  }
+  const newest = keepNewestRevisions(rows);
   const byTarget = new Map<number, TargetRow['values']>();
   for (const id of targetIds) {
     const values: TargetRow['values'] = {};
