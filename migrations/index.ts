@@ -17,6 +17,8 @@ import * as unboundedTexts from './20261202100000_unbounded_texts';
 import * as uploadErrorChunks from './20261202190000_upload_error_chunks';
 import * as uploadErrorChunksFill from './20261202190100_upload_error_chunks_fill';
 import * as dropUploadErrors from './20261202190200_drop_upload_errors';
+import * as sessionDetailsTokenExpiry from './20261203004100_session_details_token_expiry';
+import * as tokenExpiryFill from './20261203004200_token_expiry_fill';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -43,6 +45,8 @@ const migrations: Record<string, Knex.Migration> = {
   '20261202190000_upload_error_chunks': uploadErrorChunks,
   '20261202190100_upload_error_chunks_fill': uploadErrorChunksFill,
   '20261202190200_drop_upload_errors': dropUploadErrors,
+  '20261203004100_session_details_token_expiry': sessionDetailsTokenExpiry,
+  '20261203004200_token_expiry_fill': tokenExpiryFill,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {
