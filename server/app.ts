@@ -11,7 +11,8 @@ import { createPassport, passportMiddleware } from './middleware/auth';
 import { csrfProtection } from './middleware/csrf';
 import { bearerAuth } from './middleware/bearer';
 import { errorHandler, notFoundHandler } from './middleware/error-handler';
-import { sessionMiddleware } from './middleware/session';
+import { sessionLimits, sessionMiddleware } from './middleware/session';
+import { defaultSessionLimits, type SessionLimits } from './modules/auth/sessions.service';
 import { apiRoutes, mountRoutes } from './routes';
 import { createServices } from './services';
 import { createLoginThrottle, defaultThrottleRules, type ThrottleRules } from './modules/auth/login-throttle';
@@ -36,12 +37,15 @@ export interface AppOptions {
   trustProxy?: string | number | boolean;
   /** Where uploads are read and committed; see server/modules/uploads/upload-jobs.ts. */
   uploadJobs?: UploadJobs;
+  /** Hours from sign-in and idle minutes after which a session ends (SESSION_MAX_HOURS, SESSION_IDLE_MINUTES); 12 and 30 by default. */
+  sessionLimits?: Partial<SessionLimits>;
 }
 
 export function createApp(options: AppOptions): Express {
   const { db } = options;
   const clock = options.clock ?? systemClock;
-  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs });
+  const limits = { ...defaultSessionLimits, ...options.sessionLimits };
+  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits });
   const passport = createPassport(services.users);
 
   const app = express();
@@ -84,9 +88,11 @@ export function createApp(options: AppOptions): Express {
       secret: options.sessionSecret,
       secureCookies: options.secureCookies ?? false,
       cleanupIntervalMs: options.sessionCleanupIntervalMs ?? 60 * 60 * 1000,
+      maxHours: limits.maxHours,
     }),
   );
   api.use(...passportMiddleware(passport));
+  api.use(sessionLimits(services.sessions));
   api.use(bearerAuth(services.tokens));
   api.use(csrfProtection);
   api.use(mountRoutes(db, apiRoutes(services, passport, loginThrottle)));

@@ -21,7 +21,19 @@ export const config = {
   clientDir: path.resolve(process.env.CLIENT_DIR ?? 'dist'),
   /** Hours a preview may wait for its commit before it is discarded (its file is kept). */
   previewMaxAgeHours: Number(process.env.PREVIEW_MAX_AGE_HOURS ?? 48),
+  /** A signed-in session ends this many hours after sign-in, and after this many minutes without use (ASVS 3.3.2 level 2: at most 12 and 30). */
+  sessionMaxHours: positiveNumber('SESSION_MAX_HOURS', 12),
+  sessionIdleMinutes: positiveNumber('SESSION_IDLE_MINUTES', 30),
 };
+
+/** A setting that must be a number above zero; anything else stops the start with the setting's name. */
+function positiveNumber(name: string, fallback: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw.trim() === '') return fallback;
+  const n = Number(raw);
+  if (!Number.isFinite(n) || n <= 0) throw new Error(`${name} must be a number above 0 (it is "${raw}").`);
+  return n;
+}
 
 /** A hop count and true/false as Express reads them; anything else (loopback, addresses, subnets) as written. */
 function trustProxyOf(value: string): string | number | boolean {

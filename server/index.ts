@@ -42,6 +42,7 @@ async function main() {
     clientDir: config.clientDir,
     publicUrl: config.publicUrl,
     mailInbox: fake?.inbox,
+    sessionLimits: { maxHours: config.sessionMaxHours, idleMinutes: config.sessionIdleMinutes },
   });
   const server = app.listen(config.port, config.host, () => {
     console.log(`Starledger is running: sign in at http://localhost:${config.port}/sign-in`);

@@ -13,6 +13,8 @@ import type { Services } from './services';
 import { openApiDocument } from './openapi';
 import { authHandlers } from './modules/auth/auth.routes';
 import type { LoginThrottle } from './modules/auth/login-throttle';
+import { sessionsHandlers } from './modules/auth/sessions.routes';
+import { sessionParams } from '../shared/schemas/sessions';
 import { usersHandlers } from './modules/users/users.routes';
 import { projectsHandlers } from './modules/projects/projects.routes';
 import { membersHandlers } from './modules/members/members.routes';
@@ -62,6 +64,7 @@ export interface RouteDef {
  */
 export function apiRoutes(services: Services, passport: StarledgerPassport, loginThrottle: LoginThrottle): RouteDef[] {
   const auth = authHandlers(passport, services.users, loginThrottle);
+  const sessions = sessionsHandlers(services.sessions);
   const users = usersHandlers(services.users);
   const projects = projectsHandlers(services.projects);
   const members = membersHandlers(services.members);
@@ -90,6 +93,10 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'get', path: '/auth/me', access: signedIn, handler: auth.me },
     // A signed-in person's new password: the current one is asked for, and every other session ends
     { method: 'post', path: '/auth/password', access: signedIn, body: changePasswordBody, handler: auth.changePassword },
+    // A signed-in person's own sessions (where and when they are signed in): listed, and ended one by one or all but this one
+    { method: 'get', path: '/auth/sessions', access: signedIn, handler: sessions.list },
+    { method: 'post', path: '/auth/sessions/end-others', access: signedIn, handler: sessions.endOthers },
+    { method: 'delete', path: '/auth/sessions/:sessionId', access: signedIn, params: sessionParams, handler: sessions.end },
     // A forgotten password: the link's token travels in the body, never in a URL that logs keep
     { method: 'post', path: '/auth/password-reset', access: anyone, body: passwordResetRequestBody, handler: passwordResets.request },
     { method: 'post', path: '/auth/password-reset/lookup', access: anyone, body: linkBody, handler: passwordResets.lookup },

@@ -14,6 +14,7 @@ import { createMailPreferencesService } from './modules/mail-preferences/mail-pr
 import { createMailFakeService } from './modules/mail-fake/mail-fake.service';
 import { createInvitationsService } from './modules/invitations/invitations.service';
 import { createPasswordResetsService } from './modules/password-resets/password-resets.service';
+import { createSessionsService, type SessionLimits } from './modules/auth/sessions.service';
 import type { MailInbox } from './mail/fake-smtp';
 import type { UploadJobs } from './modules/uploads/upload-jobs';
 
@@ -24,6 +25,8 @@ export interface ServiceOptions {
   mailInbox?: MailInbox;
   /** Where uploads are read and committed (a worker thread in the server); in the request thread when omitted. */
   uploadJobs?: UploadJobs;
+  /** How long a signed-in session lasts (sessions.service.ts); 12 hours from sign-in and 30 idle minutes when omitted. */
+  sessionLimits?: SessionLimits;
 }
 
 export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
@@ -46,6 +49,7 @@ export function createServices(db: Db, clock: Clock, options: ServiceOptions = {
     mailFake: createMailFakeService(options.mailInbox),
     invitations: createInvitationsService(db, clock, { publicUrl }),
     passwordResets: createPasswordResetsService(db, clock, { publicUrl }),
+    sessions: createSessionsService(db, clock, options.sessionLimits),
   };
 }
 

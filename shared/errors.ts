@@ -7,6 +7,7 @@ export const errorCodes = {
   validation_failed: 'Some fields are not valid.',
   malformed_json: 'The request body is not valid JSON.',
   unauthenticated: 'Sign in first.',
+  session_ended: 'Your session has ended. Sign in again.',
   invalid_credentials: 'That e-mail and password do not match an account.',
   forbidden: 'Your role in this project does not allow that.',
   not_found: 'Not found.',

@@ -17,6 +17,8 @@ export class AppError extends Error {
 export const notFound = (what = 'Not found.') => new AppError(404, 'not_found', what);
 export const forbidden = (message?: string) => new AppError(403, 'forbidden', message);
 export const unauthenticated = () => new AppError(401, 'unauthenticated');
+/** 401 for a request whose session ran out (server/middleware/session.ts, sessionLimits), saying why. */
+export const sessionEnded = (message: string) => new AppError(401, 'session_ended', message);
 export const conflict = (message: string, details?: FieldIssue[]) => new AppError(409, 'conflict', message, details);
 export const validationFailed = (details: FieldIssue[], message?: string) =>
   new AppError(400, 'validation_failed', message ?? describeIssues(details), details);

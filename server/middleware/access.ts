@@ -1,7 +1,7 @@
 import type { NextFunction, Request, Response } from 'express';
 import { roleCan, type Permission } from '../../shared/schemas/roles';
 import type { Db } from '../db/knex';
-import { forbidden, notFound, unauthenticated } from '../lib/errors';
+import { forbidden, notFound, sessionEnded, unauthenticated } from '../lib/errors';
 import { roleInProject } from '../modules/projects/projects.repository';
 import type { ProjectAccess } from '../types';
 
@@ -21,7 +21,7 @@ export const inProject = (permission: Permission): Access => ({ kind: 'project',
 export function requireAccess(db: Db, access: Access) {
   return async (req: Request, res: Response, next: NextFunction) => {
     if (access.kind === 'public') return next();
-    if (!req.user) throw unauthenticated();
+    if (!req.user) throw typeof res.locals.sessionEnded === 'string' ? sessionEnded(res.locals.sessionEnded) : unauthenticated();
     if (access.kind === 'user') return next();
     if (access.kind === 'siteAdmin') {
       if (!req.user.isSiteAdmin) throw forbidden('Only a site admin can do that.');

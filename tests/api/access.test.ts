@@ -39,6 +39,9 @@ const cases: Record<string, Case> = {
   'GET /auth/me': { rule: 'signed-in' },
   'POST /auth/password': { rule: 'signed-in', body: () => ({ currentPassword: PASSWORD, password: 'a-new-long-password' }) },
   'GET /openapi.json': { rule: 'signed-in' },
+  'GET /auth/sessions': { rule: 'signed-in' },
+  'POST /auth/sessions/end-others': { rule: 'signed-in' },
+  'DELETE /auth/sessions/:sessionId': { rule: 'signed-in' },
   'POST /auth/password-reset': { rule: 'public', body: () => ({ email: emails.reader }) },
   'POST /auth/password-reset/lookup': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset') }) },
   'POST /auth/password-reset/complete': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset'), password: 'a-new-long-password' }) },
@@ -159,6 +162,10 @@ describe('access to every API route', () => {
           const made = await session.agent.post('/api/tokens').set('X-CSRF-Token', session.csrf).send({ name: 'to revoke' }).expect(201);
           tokenId = String(made.body.apiToken.id);
         }
+        let sessionId = 'none';
+        if (session && pattern.includes(':sessionId')) {
+          sessionId = (await session.agent.get('/api/auth/sessions').expect(200)).body.sessions[0].id;
+        }
         let invitationId = '1';
         if (pattern.includes(':invitationId')) {
           const [made] = await world.db('invitations').where('token_hash', hashLinkToken(await openLink(world, 'invitation'))).select('id');
@@ -177,7 +184,8 @@ describe('access to every API route', () => {
             .replace(':tokenId', tokenId)
             .replace(':uploadId', uploadId)
             .replace(':messageId', messageId)
-            .replace(':invitationId', invitationId) +
+            .replace(':invitationId', invitationId)
+            .replace(':sessionId', sessionId) +
           (c.query ?? '');
         const agent = session?.agent ?? request(world.app);
         let req = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](path);

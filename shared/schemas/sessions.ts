@@ -1,0 +1,23 @@
+import { z } from 'zod';
+
+/**
+ * One of a person's signed-in sessions as their account page lists it. The
+ * id names the session without being its secret (the cookie's value never
+ * leaves the server): see server/modules/auth/sessions.repository.ts.
+ */
+export const accountSessionSchema = z.object({
+  id: z.string(),
+  signedInAt: z.string(),
+  lastSeenAt: z.string(),
+  /** "Firefox 133 on Linux", read from the user agent; null when it names no browser. */
+  browser: z.string().nullable(),
+  userAgent: z.string().nullable(),
+  address: z.string().nullable(),
+  /** The session this request came with. */
+  current: z.boolean(),
+});
+export type AccountSession = z.infer<typeof accountSessionSchema>;
+
+export const accountSessionsResponse = z.object({ sessions: z.array(accountSessionSchema) });
+
+export const sessionParams = z.object({ sessionId: z.string().regex(/^[A-Za-z0-9_-]{1,64}$/, 'Not a session id.') });
