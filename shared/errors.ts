@@ -8,6 +8,7 @@ export const errorCodes = {
   malformed_json: 'The request body is not valid JSON.',
   unauthenticated: 'Sign in first.',
   session_ended: 'Your session has ended. Sign in again.',
+  token_expired: 'That API token has expired. Make a new one on your account’s API tokens page.',
   invalid_credentials: 'That e-mail and password do not match an account.',
   forbidden: 'Your role in this project does not allow that.',
   not_found: 'Not found.',

@@ -1,7 +1,12 @@
 import { z } from 'zod';
 
+/** The lifetimes a new token may be given, in days; it is refused once its lifetime has passed (ASVS 3.5.2). */
+export const TOKEN_LIFETIMES_DAYS = [30, 90, 365] as const;
+export const DEFAULT_TOKEN_LIFETIME_DAYS = 90;
+
 export const createTokenBody = z.object({
   name: z.string().trim().min(1, 'Name the token after what will use it.').max(80, 'Use at most 80 characters.'),
+  lifetimeDays: z.literal(TOKEN_LIFETIMES_DAYS, { error: 'Choose 30, 90 or 365 days.' }).default(DEFAULT_TOKEN_LIFETIME_DAYS),
 });
 export type CreateTokenBody = z.infer<typeof createTokenBody>;
 
@@ -11,6 +16,8 @@ export const apiTokenSchema = z.object({
   prefix: z.string(),
   createdAt: z.string(),
   lastUsedAt: z.string().nullable(),
+  /** After this the token is refused. */
+  expiresAt: z.string(),
   revokedAt: z.string().nullable(),
 });
 export type ApiToken = z.infer<typeof apiTokenSchema>;

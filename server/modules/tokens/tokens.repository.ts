@@ -9,6 +9,7 @@ interface TokenRow {
   prefix: string;
   created_at: unknown;
   last_used_at: unknown;
+  expires_at: unknown;
   revoked_at: unknown;
 }
 
@@ -19,13 +20,14 @@ function toToken(row: TokenRow): ApiToken {
     prefix: row.prefix,
     createdAt: toIso(row.created_at),
     lastUsedAt: row.last_used_at == null ? null : toIso(row.last_used_at),
+    expiresAt: toIso(row.expires_at),
     revokedAt: row.revoked_at == null ? null : toIso(row.revoked_at),
   };
 }
 
-export async function insertToken(db: Db, t: { userId: number; name: string; hash: string; prefix: string }, at: Date): Promise<ApiToken> {
+export async function insertToken(db: Db, t: { userId: number; name: string; hash: string; prefix: string; expiresAt: Date }, at: Date): Promise<ApiToken> {
   const [row] = await db('api_tokens')
-    .insert({ user_id: t.userId, name: t.name, token_hash: t.hash, prefix: t.prefix, created_at: at.toISOString() })
+    .insert({ user_id: t.userId, name: t.name, token_hash: t.hash, prefix: t.prefix, created_at: at.toISOString(), expires_at: t.expiresAt.toISOString() })
     .returning('*');
   return toToken(row);
 }
@@ -34,9 +36,10 @@ export async function listTokens(db: Db, userId: number): Promise<ApiToken[]> {
   return (await db<TokenRow>('api_tokens').where({ user_id: userId }).orderBy('id', 'desc')).map(toToken);
 }
 
-export async function findTokenOwner(db: Db, hash: string): Promise<{ id: number; userId: number } | undefined> {
-  const row = await db('api_tokens').where({ token_hash: hash }).whereNull('revoked_at').first('id', 'user_id');
-  return row ? { id: row.id, userId: row.user_id } : undefined;
+/** A live (not revoked) token by its hash, with its expiry; whether that has passed is the service's to judge. */
+export async function findTokenOwner(db: Db, hash: string): Promise<{ id: number; userId: number; expiresAt: string | null } | undefined> {
+  const row = await db('api_tokens').where({ token_hash: hash }).whereNull('revoked_at').first('id', 'user_id', 'expires_at');
+  return row ? { id: row.id, userId: row.user_id, expiresAt: row.expires_at == null ? null : toIso(row.expires_at) } : undefined;
 }
 
 /** Stamps a token's last use unless the database is busy; returns whether it did. */

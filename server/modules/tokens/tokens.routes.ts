@@ -13,8 +13,8 @@ export function tokensHandlers(tokens: TokensService) {
       res.json({ tokens: await tokens.list(req.user!.id) });
     },
     async create(req: Request, res: Response) {
-      const { name } = parsed(res, 'body', createTokenBody);
-      res.status(201).json(await tokens.create(req.user!.id, name));
+      const { name, lifetimeDays } = parsed(res, 'body', createTokenBody);
+      res.status(201).json(await tokens.create(req.user!.id, name, lifetimeDays));
     },
     async revoke(req: Request, res: Response) {
       await tokens.revoke(req.user!.id, parsed(res, 'params', tokenParams).tokenId);

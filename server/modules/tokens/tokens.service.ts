@@ -45,15 +45,16 @@ export function createTokensService(db: Db, clock: Clock) {
 
   return {
     /** Makes a token; the plain text is returned once and only its hash is kept. */
-    async create(userId: number, name: string) {
+    async create(userId: number, name: string, lifetimeDays: number) {
       const token = PREFIX + randomBytes(32).toString('base64url');
       const apiToken = await db.transaction(async (trx) => {
         const now = clock.now();
-        const made = await insertToken(trx, { userId, name, hash: hashOf(token), prefix: token.slice(0, 10) }, now);
+        const expiresAt = new Date(now.getTime() + lifetimeDays * 86_400_000);
+        const made = await insertToken(trx, { userId, name, hash: hashOf(token), prefix: token.slice(0, 10), expiresAt }, now);
         // A token acts with its owner's roles in every project, so its entry belongs to no one project.
         await appendTrail(
           trx,
-          { projectId: null, actorUserId: userId, action: 'token.created', entityType: 'token', entityId: made.id, after: { name: made.name, prefix: made.prefix } },
+          { projectId: null, actorUserId: userId, action: 'token.created', entityType: 'token', entityId: made.id, after: { name: made.name, prefix: made.prefix, expiresAt: made.expiresAt } },
           now,
         );
         return made;
@@ -71,11 +72,16 @@ export function createTokensService(db: Db, clock: Clock) {
       });
     },
 
-    /** The owner of a live token, or undefined. */
-    async userFor(token: string): Promise<User | undefined> {
+    /**
+     * The owner of a live token; `expired` (with when) for a token past its
+     * expiry, which stays refused (a token with no expiry, which the
+     * migrations never leave, is taken as expired); undefined for anything else.
+     */
+    async userFor(token: string): Promise<User | { expired: string | null } | undefined> {
       if (!token.startsWith(PREFIX)) return undefined;
       const found = await findTokenOwner(db, hashOf(token));
       if (!found) return undefined;
+      if (found.expiresAt === null || Date.parse(found.expiresAt) <= clock.now().getTime()) return { expired: found.expiresAt };
       stamp(found.id);
       return findUserById(db, found.userId);
     },
