@@ -18,6 +18,8 @@ export const accountSessionSchema = z.object({
 });
 export type AccountSession = z.infer<typeof accountSessionSchema>;
 
-export const accountSessionsResponse = z.object({ sessions: z.array(accountSessionSchema) });
+/** The sessions, and how long any session lasts (the server's SESSION_MAX_HOURS and SESSION_IDLE_MINUTES). */
+export const accountSessionsResponse = z.object({ sessions: z.array(accountSessionSchema), limits: z.object({ maxHours: z.number(), idleMinutes: z.number() }) });
+export type AccountSessionsResponse = z.infer<typeof accountSessionsResponse>;
 
 export const sessionParams = z.object({ sessionId: z.string().regex(/^[A-Za-z0-9_-]{1,64}$/, 'Not a session id.') });

@@ -105,6 +105,10 @@ export const paths = {
       path: '/account/password',
       getHref: () => '/account/password',
     },
+    sessions: {
+      path: '/account/sessions',
+      getHref: () => '/account/sessions',
+    },
   },
   admin: {
     users: {

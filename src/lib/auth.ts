@@ -1,6 +1,7 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { LoginBody, MeResponse, User } from '@shared/schemas/auth';
 import { api, isApiError, setCsrfToken } from './api-client';
+import { clearSessionEnded, reportSessionEnded, SESSION_ENDED_FALLBACK } from './session-ended';
 
 /*
  * The session lives here rather than in a feature because the app shell, the
@@ -11,19 +12,47 @@ export const authKeys = {
   me: () => [...authKeys.all, 'me'] as const,
 };
 
-/** The signed-in person, or null when nobody is signed in. */
+/** Whether this tab has had a signed-in person since it last signed out: a 401 then means their session ended. */
+let hadSession = false;
+
+/**
+ * The signed-in person, or null when nobody is signed in. When someone was,
+ * the 401 is the end of their session: it is reported (session-ended.ts)
+ * and thrown, so the query keeps the person it had and the page stays until
+ * the app shell decides where to go.
+ */
 export async function getMe(): Promise<MeResponse | null> {
   try {
     const me = await api.get<MeResponse>('/auth/me');
     setCsrfToken(me.csrfToken);
+    hadSession = true;
     return me;
   } catch (error) {
     if (isApiError(error) && error.status === 401) {
       setCsrfToken(null);
+      if (hadSession) {
+        reportSessionEnded(error.code === 'session_ended' ? error.message : SESSION_ENDED_FALLBACK);
+        throw error;
+      }
       return null;
     }
     throw error;
   }
+}
+
+/** A 401 on another request: the session of the person this tab had has ended. */
+export function noticeUnauthenticated(error: { code: string; message: string }): void {
+  if (!hadSession) return;
+  reportSessionEnded(error.code === 'session_ended' ? error.message : SESSION_ENDED_FALLBACK);
+}
+
+/** Leaving a page whose session ended for the sign-in page: nobody is signed in any more. */
+export function forgetEndedSession(queryClient: QueryClient): void {
+  hadSession = false;
+  setCsrfToken(null);
+  clearSessionEnded();
+  queryClient.setQueryData(authKeys.me(), null);
+  forgetEverythingButTheSession(queryClient);
 }
 
 export const meQueryOptions = () =>
@@ -51,6 +80,8 @@ function forgetEverythingButTheSession(queryClient: QueryClient) {
 
 /** A session that began in this browser (sign-in, or an accepted invitation that created the account) replaces whatever was cached. */
 export function adoptSession(queryClient: QueryClient, me: MeResponse) {
+  hadSession = true;
+  clearSessionEnded();
   setCsrfToken(me.csrfToken);
   forgetEverythingButTheSession(queryClient);
   queryClient.setQueryData(authKeys.me(), me);
@@ -78,6 +109,7 @@ export function useLogout() {
   return useMutation({
     mutationFn: logout,
     onSuccess: () => {
+      hadSession = false;
       setCsrfToken(null);
       queryClient.setQueryData(authKeys.me(), null);
       forgetEverythingButTheSession(queryClient);

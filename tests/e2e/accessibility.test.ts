@@ -81,6 +81,7 @@ const pages: PageSpec[] = [
   { name: 'summary', who: 'pi@demo.invalid', path: () => '/projects/1/summary', ready: (p) => p.frameLocator('[data-testid="mail-html"]').getByRole('heading', { name: 'Values approved' }).waitFor() },
   { name: 'mail-preferences', who: 'observer@demo.invalid', path: () => '/account/mail', ready: (p) => p.getByLabel('The weekly summary of this project').first().waitFor(), fitsPhone: true },
   { name: 'account-password', who: 'reader@demo.invalid', path: () => '/account/password', ready: (p) => p.getByLabel('Current password').waitFor(), fitsPhone: true },
+  { name: 'account-sessions', who: 'reader@demo.invalid', path: () => '/account/sessions', ready: (p) => p.getByText('This browser').waitFor(), fitsPhone: true },
   { name: 'caught-mail', who: 'admin@demo.invalid', path: () => '/admin/mail?message=1', ready: (p) => p.getByTestId('mail-text').waitFor() },
   {
     name: 'reader-target-sheet',

@@ -8,7 +8,7 @@ import type { SessionsService } from './sessions.service';
 export function sessionsHandlers(sessions: SessionsService) {
   return {
     async list(req: Request, res: Response) {
-      res.json({ sessions: await sessions.list(req.user!.id, req.sessionID) });
+      res.json({ sessions: await sessions.list(req.user!.id, req.sessionID), limits: sessions.limits });
     },
     /** Ending the session in use is signing out here. */
     async end(req: Request, res: Response) {

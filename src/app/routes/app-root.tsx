@@ -1,9 +1,12 @@
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { Navigate, Outlet, useLocation, useNavigate, useParams } from 'react-router-dom';
 import { useQuery } from '@tanstack/react-query';
 import { roleCan } from '@shared/schemas/roles';
 import { paths } from '@/config/paths';
 import { useLogout, useMe } from '@/lib/auth';
+import { forgetTyping, hasUnsavedTyping, useSessionEnded, watchTyping } from '@/lib/session-ended';
+import { Alert } from '@/components/ui/alert';
+import { Button } from '@/components/ui/button';
 import { AppShell } from '@/components/layouts/app-shell';
 import { QueryError } from '@/components/errors/query-error';
 import { RouteLoading } from './route-loading';
@@ -44,9 +47,23 @@ export function AppRoot() {
   const project = useShellProject(useParams().projectId);
   // A deliberate sign-out goes to a clean sign-in page, not back to where the person was.
   const [signingOut, setSigningOut] = useState(false);
+  const ended = useSessionEnded();
+  const here = location.pathname + location.search;
+  // The sign-in page forgets the ended session when it arrives (sign-in.tsx), so that this shell does not first redirect without the reason.
+  const signInAgain = () => navigate(paths.auth.signIn.getHref(here), { replace: true, state: { sessionEnded: ended } });
 
+  useEffect(watchTyping, []);
+  useEffect(forgetTyping, [location.pathname]);
+  // The reason travels to the sign-in page in the history entry's state, not in the address.
+  // Nothing typed would be lost: straight to sign-in, saying why, and back here afterwards.
+  const leaveAtOnce = ended !== null && !hasUnsavedTyping();
+  useEffect(() => {
+    if (leaveAtOnce) signInAgain();
+  });
+
+  if (leaveAtOnce) return <RouteLoading />;
   if (me.isPending) return <RouteLoading />;
-  if (me.isError) {
+  if (me.isError && !(ended && me.data)) {
     return (
       <div className="mx-auto max-w-xl px-6 py-16">
         <QueryError what="Your session" error={me.error} onRetry={() => void me.refetch()} />
@@ -54,7 +71,6 @@ export function AppRoot() {
     );
   }
   if (!me.data) {
-    const here = location.pathname + location.search;
     return <Navigate to={paths.auth.signIn.getHref(signingOut ? null : here)} replace />;
   }
 
@@ -76,6 +92,20 @@ export function AppRoot() {
         });
       }}
     >
+      {ended ? (
+        <Alert kind="caution" title={ended} className="mb-6">
+          <p>
+            What you typed on this page is still here but has not been saved. Copy it before you go, or sign in again in another tab and then save
+            it here.
+          </p>
+          <div className="mt-3 flex flex-wrap gap-2">
+            <Button onClick={signInAgain}>Sign in again</Button>
+            <a className="rounded-sm px-2 py-1.5 text-sm text-brass underline-offset-4 hover:underline" href={paths.auth.signIn.getHref()} target="_blank" rel="noopener">
+              Sign in in a new tab
+            </a>
+          </div>
+        </Alert>
+      ) : null}
       <Outlet />
     </AppShell>
   );

@@ -115,6 +115,9 @@ export function AppShell({
             <NavLink to={paths.account.password.getHref()} className={navLinkClasses}>
               Password
             </NavLink>
+            <NavLink to={paths.account.sessions.getHref()} className={navLinkClasses}>
+              Sessions
+            </NavLink>
             <button
               type="button"
               onClick={onSignOut}

@@ -1,17 +1,17 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
-import { createTokenBody, type CreateTokenBody } from '@shared/schemas/tokens';
+import { createTokenBody, DEFAULT_TOKEN_LIFETIME_DAYS, TOKEN_LIFETIMES_DAYS, type CreateTokenBody } from '@shared/schemas/tokens';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
-import { TextField } from '@/components/ui/field';
+import { SelectField, TextField } from '@/components/ui/field';
 import { formParseOptions } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateToken, type CreatedToken } from '../api/create-token';
 
-const FIELDS = ['name'] as const;
+const FIELDS = ['name', 'lifetimeDays'] as const;
 
-/** Names a new token after what will use it; the token itself is handed to `onCreated` to be shown once. */
+/** Names a new token after what will use it and chooses how long it lasts; the token itself is handed to `onCreated` to be shown once. */
 export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedToken) => void }) {
   const createToken = useCreateToken();
   const {
@@ -22,14 +22,14 @@ export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedTok
     formState: { errors, isSubmitting },
   } = useForm<z.input<typeof createTokenBody>, unknown, CreateTokenBody>({
     resolver: zodResolver(createTokenBody, formParseOptions),
-    defaultValues: { name: '' },
+    defaultValues: { name: '', lifetimeDays: DEFAULT_TOKEN_LIFETIME_DAYS },
   });
   const { formError, send } = useServerErrors(setError, FIELDS);
 
   const onSubmit = handleSubmit((body) =>
     send(async () => {
       const created = await createToken.mutateAsync(body);
-      reset({ name: '' });
+      reset({ name: '', lifetimeDays: DEFAULT_TOKEN_LIFETIME_DAYS });
       onCreated(created);
     }),
   );
@@ -46,6 +46,19 @@ export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedTok
           className="w-80"
           {...register('name')}
         />
+        <SelectField
+          label="Expires after"
+          hint="Then it stops working; make a new one."
+          error={errors.lifetimeDays?.message}
+          className="w-44"
+          {...register('lifetimeDays', { valueAsNumber: true })}
+        >
+          {TOKEN_LIFETIMES_DAYS.map((days) => (
+            <option key={days} value={days}>
+              {days === 365 ? '1 year' : `${days} days`}
+            </option>
+          ))}
+        </SelectField>
         <Button type="submit" className="mt-6" disabled={isSubmitting}>
           {isSubmitting ? 'Creating…' : 'Create token'}
         </Button>

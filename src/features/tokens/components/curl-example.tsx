@@ -13,7 +13,14 @@ export function CurlExample({ origin }: { origin: string }) {
     `  ${origin}/api/projects/1/uploads/UPLOAD_ID/commit`,
   ];
   return (
-    <pre className="overflow-x-auto rounded-sm border border-rule bg-paper-deep px-4 py-3 font-mono text-xs leading-relaxed" data-testid="curl-example">
+    // Wider than a phone: a named region in the tab order, so the keyboard can scroll it (WCAG 2.1.1).
+    <pre
+      tabIndex={0}
+      role="region"
+      aria-label="Example: calling the API with a token"
+      className="overflow-x-auto rounded-sm border border-rule bg-paper-deep px-4 py-3 font-mono text-xs leading-relaxed focus-visible:outline-2"
+      data-testid="curl-example"
+    >
       {lines.join('\n')}
     </pre>
   );

@@ -34,8 +34,9 @@ function RevokeToken({ token }: { token: ApiToken }) {
   );
 }
 
-/** The person's tokens: name, the first characters to recognise it by, when made, when last used, and whether revoked. */
+/** The person's tokens: name, the first characters to recognise it by, when made, last used and expiring, and whether revoked or expired. */
 export function TokensList({ tokens }: { tokens: ApiToken[] }) {
+  const now = Date.now();
   return (
     <LedgerTable aria-label="Your API tokens" data-testid="tokens-table">
       <LedgerHead>
@@ -44,6 +45,7 @@ export function TokensList({ tokens }: { tokens: ApiToken[] }) {
           <LedgerHeaderCell scope="col">Begins with</LedgerHeaderCell>
           <LedgerHeaderCell scope="col">Created</LedgerHeaderCell>
           <LedgerHeaderCell scope="col">Last used</LedgerHeaderCell>
+          <LedgerHeaderCell scope="col">Expires</LedgerHeaderCell>
           <LedgerHeaderCell scope="col">State</LedgerHeaderCell>
           <LedgerHeaderCell scope="col">
             <span className="sr-only">Revoke</span>
@@ -51,7 +53,9 @@ export function TokensList({ tokens }: { tokens: ApiToken[] }) {
         </tr>
       </LedgerHead>
       <LedgerBody>
-        {tokens.map((t) => (
+        {tokens.map((t) => {
+          const expired = Date.parse(t.expiresAt) <= now;
+          return (
           <LedgerRow key={t.id} data-token={t.name}>
             <LedgerCell className="font-semibold">{t.name}</LedgerCell>
             <LedgerCell className="font-mono text-xs">{t.prefix}…</LedgerCell>
@@ -59,18 +63,22 @@ export function TokensList({ tokens }: { tokens: ApiToken[] }) {
             <LedgerCell className="whitespace-nowrap tabular-nums">
               {t.lastUsedAt ? formatDateTime(t.lastUsedAt) : <span className="text-ink-soft">never</span>}
             </LedgerCell>
+            <LedgerCell className="whitespace-nowrap tabular-nums">{formatDateTime(t.expiresAt)}</LedgerCell>
             <LedgerCell>
               {t.revokedAt ? (
                 <span>
                   Revoked <span className="text-ink-soft tabular-nums">{formatDateTime(t.revokedAt)}</span>
                 </span>
+              ) : expired ? (
+                <span>Expired</span>
               ) : (
                 <span className="font-semibold">Active</span>
               )}
             </LedgerCell>
-            <LedgerCell>{t.revokedAt ? null : <RevokeToken token={t} />}</LedgerCell>
+            <LedgerCell>{t.revokedAt || expired ? null : <RevokeToken token={t} />}</LedgerCell>
           </LedgerRow>
-        ))}
+          );
+        })}
       </LedgerBody>
     </LedgerTable>
   );

@@ -1,0 +1,102 @@
+import { useState } from 'react';
+import type { AccountSession } from '@shared/schemas/sessions';
+import { Button } from '@/components/ui/button';
+import { Alert } from '@/components/ui/alert';
+import { formatCount, formatDateTime } from '@/lib/format';
+import { useEndSession } from '../api/end-session';
+import { useEndOtherSessions } from '../api/end-other-sessions';
+
+function nameOf(s: AccountSession): string {
+  return s.browser ?? 'An unnamed browser or program';
+}
+
+/** Ending asks once more, in place, naming the browser. */
+function EndSession({ session }: { session: AccountSession }) {
+  const [confirming, setConfirming] = useState(false);
+  const end = useEndSession();
+  if (!confirming) {
+    return (
+      <Button variant="danger" size="sm" onClick={() => setConfirming(true)} aria-label={`End this session (${nameOf(session)}, last used ${formatDateTime(session.lastSeenAt)})`}>
+        End this session
+      </Button>
+    );
+  }
+  return (
+    <div role="group" aria-label={`Confirm ending the session of ${nameOf(session)}`} className="flex flex-wrap items-center gap-2 text-sm">
+      <span>End it? That browser is signed out at once.</span>
+      <Button variant="danger" size="sm" disabled={end.isPending} onClick={() => end.mutate(session.id)}>
+        {end.isPending ? 'Ending…' : 'Yes, end it'}
+      </Button>
+      <Button variant="secondary" size="sm" disabled={end.isPending} onClick={() => setConfirming(false)}>
+        Keep it
+      </Button>
+      {end.isError ? (
+        <p role="alert" className="w-full">
+          <span className="font-semibold text-alert">Error:</span> {end.error.message}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/** Every other session at once, after one more question. */
+export function EndOtherSessions({ others }: { others: number }) {
+  const [confirming, setConfirming] = useState(false);
+  const endOthers = useEndOtherSessions();
+  if (endOthers.isSuccess && !confirming) {
+    return <Alert kind="done" title={`${formatCount(endOthers.data.ended, 'other session')} ended.`} />;
+  }
+  if (others === 0) return <p className="text-sm text-ink-soft">You are signed in nowhere else.</p>;
+  if (!confirming) {
+    return (
+      <Button variant="danger" onClick={() => setConfirming(true)}>
+        Sign out everywhere else
+      </Button>
+    );
+  }
+  return (
+    <div role="group" aria-label="Confirm signing out everywhere else" className="flex flex-wrap items-center gap-2 text-sm">
+      <span>End {formatCount(others, 'other session')}? This browser stays signed in.</span>
+      <Button variant="danger" size="sm" disabled={endOthers.isPending} onClick={() => endOthers.mutate(undefined, { onSuccess: () => setConfirming(false) })}>
+        {endOthers.isPending ? 'Ending…' : 'Yes, end them'}
+      </Button>
+      <Button variant="secondary" size="sm" disabled={endOthers.isPending} onClick={() => setConfirming(false)}>
+        Keep them
+      </Button>
+      {endOthers.isError ? (
+        <p role="alert" className="w-full">
+          <span className="font-semibold text-alert">Error:</span> {endOthers.error.message}
+        </p>
+      ) : null}
+    </div>
+  );
+}
+
+/** One entry per session: the browser and system, when it began and was last used, the address, this browser marked. */
+export function SessionsList({ sessions }: { sessions: AccountSession[] }) {
+  return (
+    <ul aria-label="Your sessions" className="space-y-4" data-testid="sessions-list">
+      {sessions.map((s) => (
+        <li key={s.id} className="rounded-sm border border-rule bg-paper px-4 py-3" data-current={s.current ? 'yes' : 'no'}>
+          <div className="mb-2 flex flex-wrap items-baseline justify-between gap-2">
+            <h3 className="font-semibold text-ink">
+              {nameOf(s)}
+              {s.current ? <span className="ml-2 rounded-sm border border-brass px-1.5 py-0.5 text-xs font-semibold text-brass-deep">This browser</span> : null}
+            </h3>
+            {s.current ? null : <EndSession session={s} />}
+          </div>
+          <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 border-t border-rule pt-2 text-sm">
+            <dt className="font-semibold text-ink-soft">Signed in</dt>
+            <dd className="tabular-nums">{formatDateTime(s.signedInAt)}</dd>
+            <dt className="font-semibold text-ink-soft">Last used</dt>
+            <dd className="tabular-nums">{formatDateTime(s.lastSeenAt)}</dd>
+            <dt className="font-semibold text-ink-soft">Address</dt>
+            <dd className="tabular-nums">{s.address ?? <span className="text-ink-soft">not known</span>}</dd>
+            <dt className="col-span-2 mt-1 font-semibold text-ink-soft">User agent</dt>
+            <dd className="col-span-2 font-mono text-xs break-all text-ink-soft">{s.userAgent ?? 'none sent'}</dd>
+          </dl>
+        </li>
+      ))}
+    </ul>
+  );
+}
