@@ -37,6 +37,8 @@ describe('a person’s own sessions (ASVS 3.3.4)', () => {
       { id: expect.any(String), signedInAt: '2026-12-01T03:00:00.000Z', lastSeenAt: '2026-12-01T03:07:00.000Z', browser: 'Firefox 133 on Linux', userAgent: FIREFOX_LINUX, address: ADDRESS_A, current: true },
       { id: expect.any(String), signedInAt: '2026-12-01T03:05:00.000Z', lastSeenAt: '2026-12-01T03:05:00.000Z', browser: 'Chrome 131 on Windows', userAgent: CHROME_WINDOWS, address: ADDRESS_B, current: false },
     ]);
+    // How long any session lasts, for the page to say: the defaults, ASVS 3.3.2's level-2 bounds.
+    expect(res.body.limits).toEqual({ maxHours: 12, idleMinutes: 30 });
     const sids: string[] = (await world.db('sessions').select('sid')).map((r) => r.sid);
     const listed = JSON.stringify(res.body);
     // The cookie carries the sid (signed); the list names sessions by a hash of it instead.
