@@ -18,6 +18,8 @@ export const apiTokenSchema = z.object({
   lastUsedAt: z.string().nullable(),
   /** After this the token is refused. */
   expiresAt: z.string(),
+  /** Whether expiresAt has passed, by the server's clock. */
+  expired: z.boolean(),
   revokedAt: z.string().nullable(),
 });
 export type ApiToken = z.infer<typeof apiTokenSchema>;

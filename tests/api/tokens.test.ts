@@ -93,6 +93,14 @@ describe('API token expiry (ASVS 3.5.2)', () => {
       code: 'token_expired',
       message: 'That API token expired on 2026-12-31. Make a new one on your account’s API tokens page and give it to the program that sent this.',
     });
+    // A month on, the session of that morning has long ended (ASVS 3.3.2): the owner signs in again.
+    const later = await signIn(world.app, 'observer');
+    const states = (await later.agent.get('/api/tokens').expect(200)).body.tokens.map((t: { name: string; expired: boolean }) => [t.name, t.expired]);
+    expect(states).toEqual([
+      ['archive sync', false],
+      ['trial', true],
+      ['dome script', false],
+    ]);
     await call(plain).expect(200);
     clock.advance(60 * DAY);
     expect((await call(plain).expect(401)).body.error.code).toBe('token_expired');

@@ -13,7 +13,10 @@ interface TokenRow {
   revoked_at: unknown;
 }
 
-function toToken(row: TokenRow): ApiToken {
+/** A token as stored; whether it has expired is the service's to say, by its clock. */
+export type StoredToken = Omit<ApiToken, 'expired'>;
+
+function toToken(row: TokenRow): StoredToken {
   return {
     id: row.id,
     name: row.name,
@@ -25,14 +28,14 @@ function toToken(row: TokenRow): ApiToken {
   };
 }
 
-export async function insertToken(db: Db, t: { userId: number; name: string; hash: string; prefix: string; expiresAt: Date }, at: Date): Promise<ApiToken> {
+export async function insertToken(db: Db, t: { userId: number; name: string; hash: string; prefix: string; expiresAt: Date }, at: Date): Promise<StoredToken> {
   const [row] = await db('api_tokens')
     .insert({ user_id: t.userId, name: t.name, token_hash: t.hash, prefix: t.prefix, created_at: at.toISOString(), expires_at: t.expiresAt.toISOString() })
     .returning('*');
   return toToken(row);
 }
 
-export async function listTokens(db: Db, userId: number): Promise<ApiToken[]> {
+export async function listTokens(db: Db, userId: number): Promise<StoredToken[]> {
   return (await db<TokenRow>('api_tokens').where({ user_id: userId }).orderBy('id', 'desc')).map(toToken);
 }
 

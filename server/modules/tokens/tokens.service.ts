@@ -6,7 +6,8 @@ import { notFound } from '../../lib/errors';
 import { findUserById } from '../users/users.repository';
 import { appendTrail } from '../trail/trail.repository';
 import { describeForLog } from '../../middleware/error-handler';
-import { findTokenOwner, insertToken, listTokens, revokeToken, touchToken } from './tokens.repository';
+import { findTokenOwner, insertToken, listTokens, revokeToken, touchToken, type StoredToken } from './tokens.repository';
+import type { ApiToken } from '../../../shared/schemas/tokens';
 
 const PREFIX = 'slt_';
 const hashOf = (token: string) => createHash('sha256').update(token).digest('hex');
@@ -19,6 +20,8 @@ const hashOf = (token: string) => createHash('sha256').update(token).digest('hex
 export const TOUCH_INTERVAL_MS = 60_000;
 
 export function createTokensService(db: Db, clock: Clock) {
+  const withExpiry = (t: StoredToken): ApiToken => ({ ...t, expired: Date.parse(t.expiresAt) <= clock.now().getTime() });
+
   /** When each token's stamp was last written by this process. */
   const stamped = new Map<number, number>();
 
@@ -59,10 +62,10 @@ export function createTokensService(db: Db, clock: Clock) {
         );
         return made;
       });
-      return { token, apiToken };
+      return { token, apiToken: withExpiry(apiToken) };
     },
 
-    list: (userId: number) => listTokens(db, userId),
+    list: async (userId: number) => (await listTokens(db, userId)).map(withExpiry),
 
     async revoke(userId: number, tokenId: number): Promise<void> {
       await db.transaction(async (trx) => {

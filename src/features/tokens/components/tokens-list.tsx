@@ -36,7 +36,6 @@ function RevokeToken({ token }: { token: ApiToken }) {
 
 /** The person's tokens: name, the first characters to recognise it by, when made, last used and expiring, and whether revoked or expired. */
 export function TokensList({ tokens }: { tokens: ApiToken[] }) {
-  const now = Date.now();
   return (
     <LedgerTable aria-label="Your API tokens" data-testid="tokens-table">
       <LedgerHead>
@@ -54,7 +53,7 @@ export function TokensList({ tokens }: { tokens: ApiToken[] }) {
       </LedgerHead>
       <LedgerBody>
         {tokens.map((t) => {
-          const expired = Date.parse(t.expiresAt) <= now;
+          const { expired } = t;
           return (
           <LedgerRow key={t.id} data-token={t.name}>
             <LedgerCell className="font-semibold">{t.name}</LedgerCell>
