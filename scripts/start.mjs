@@ -1,6 +1,6 @@
 // `npm start`: build what is missing or stale, then run the server, which
-// migrates the database, seeds the demo into an empty one and starts the
-// local mail fake (see server/index.ts).
+// migrates the database, seeds the demo into an empty one (SEED_DEMO=true,
+// set below unless given) and starts the local mail fake (see server/index.ts).
 import { execFileSync } from 'node:child_process';
 import fs from 'node:fs';
 import path from 'node:path';
@@ -34,4 +34,6 @@ if (stale('build/server.js', ['server', 'shared', 'migrations', 'seeds'])) {
   execFileSync(npm, ['run', 'build:server', '--silent'], { cwd: root, stdio: 'inherit' });
 }
 process.env.NODE_ENV ??= 'production';
+// The demo: the server itself seeds nothing unless asked (server/config.ts); `npm start` asks, unless SEED_DEMO=false.
+process.env.SEED_DEMO ??= 'true';
 await import(path.join(root, 'build/server.js'));

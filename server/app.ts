@@ -39,13 +39,15 @@ export interface AppOptions {
   uploadJobs?: UploadJobs;
   /** Hours from sign-in and idle minutes after which a session ends (SESSION_MAX_HOURS, SESSION_IDLE_MINUTES); 12 and 30 by default. */
   sessionLimits?: Partial<SessionLimits>;
+  /** The secret password hashes are made with besides their salts (PASSWORD_PEPPER, server/config.ts); none when omitted. */
+  passwordPepper?: string;
 }
 
 export function createApp(options: AppOptions): Express {
   const { db } = options;
   const clock = options.clock ?? systemClock;
   const limits = { ...defaultSessionLimits, ...options.sessionLimits };
-  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits });
+  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits, passwordPepper: options.passwordPepper });
   const passport = createPassport(services.users);
 
   const app = express();

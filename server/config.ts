@@ -16,7 +16,8 @@ export const config = {
   secureCookies: process.env.COOKIE_SECURE === 'true',
   /** Proxies whose X-Forwarded-Proto says a request came over HTTPS (Express `trust proxy`: loopback, an address, a subnet, a hop count). */
   trustProxy: trustProxyOf(process.env.TRUST_PROXY ?? 'loopback'),
-  seedDemo: process.env.SEED_DEMO !== 'false',
+  /** The demo scenario and its accounts (whose passwords README publishes) into an empty database: only when asked for, as `npm start` and `npm run dev` do (ASVS 2.5.4, 14.2.2). */
+  seedDemo: process.env.SEED_DEMO === 'true',
   dataDir: path.resolve(process.env.DATA_DIR ?? 'data'),
   clientDir: path.resolve(process.env.CLIENT_DIR ?? 'dist'),
   /** Hours a preview may wait for its commit before it is discarded (its file is kept). */
@@ -45,14 +46,31 @@ function trustProxyOf(value: string): string | number | boolean {
 /**
  * SESSION_SECRET, or one made once and kept under data/ so sessions survive
  * a restart. Several processes sign each other's cookies only with one
- * secret: the same SESSION_SECRET, or one DATA_DIR. The file is written
- * whole under another name and linked into place, which fails if it exists,
- * so of processes starting at once on one folder the first one's secret is
- * the one every process reads.
+ * secret: the same SESSION_SECRET, or one DATA_DIR.
  */
 export function sessionSecret(): string {
-  if (process.env.SESSION_SECRET) return process.env.SESSION_SECRET;
-  const file = path.join(config.dataDir, 'session-secret');
+  return process.env.SESSION_SECRET || secretKeptIn('session-secret');
+}
+
+/**
+ * PASSWORD_PEPPER, or one made once and kept in DATA_DIR/password-pepper:
+ * the secret every password hash is made with besides its salt
+ * (server/lib/passwords.ts; ASVS 2.4.5). It is kept apart from the
+ * database, and without it no password verifies: back it up apart from the
+ * database, and give every process on one database the same one.
+ */
+export function passwordPepper(): string {
+  return process.env.PASSWORD_PEPPER || secretKeptIn('password-pepper');
+}
+
+/**
+ * A random secret made once and kept in a file under DATA_DIR. The file is
+ * written whole under another name and linked into place, which fails if it
+ * exists, so of processes starting at once on one folder the first one's
+ * secret is the one every process reads.
+ */
+function secretKeptIn(name: string): string {
+  const file = path.join(config.dataDir, name);
   if (!fs.existsSync(file)) {
     fs.mkdirSync(config.dataDir, { recursive: true });
     const draft = `${file}.${process.pid}`;

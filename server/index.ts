@@ -1,6 +1,6 @@
 import path from 'node:path';
 import { createApp } from './app';
-import { config, sessionSecret } from './config';
+import { config, passwordPepper, sessionSecret } from './config';
 import { createDb, DatabaseNotWritableError, migrateLatest, resolveDatabaseUrl } from './db/knex';
 import { systemClock } from './lib/clock';
 import { createSmtpMailer } from './mail/mailer';
@@ -17,6 +17,9 @@ async function main() {
   const db = createDb(config.databaseUrl);
   await migrateLatest(db);
   if (config.seedDemo && (await seedDemoIfEmpty(db))) console.log('Seeded the demo scenario (accounts in README.md).');
+  else if (!(await db('users').first('id'))) {
+    console.log('No accounts yet. Make the first site admin with: npm run admin:create -- --email you@example.org --name "Your Name" (README, First site admin).');
+  }
 
   let smtpUrl = config.smtpUrl;
   const fake = smtpUrl ? undefined : await startFakeSmtp({ folder: path.join(config.dataDir, 'mail') });
@@ -37,6 +40,7 @@ async function main() {
     uploadJobs,
     mailer,
     sessionSecret: sessionSecret(),
+    passwordPepper: passwordPepper(),
     secureCookies: config.secureCookies,
     trustProxy: config.trustProxy,
     clientDir: config.clientDir,

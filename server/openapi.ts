@@ -81,8 +81,12 @@ function errorResponses(route: RouteDef) {
   const out: Record<string, ReturnType<typeof errorResponse>> = {};
   if (route.params || route.query || route.body) out['400'] = errorResponse('validation_failed (with `details` per field) or malformed_json.');
   if (route.access.kind !== 'public') out['401'] = errorResponse('unauthenticated: no session and no valid token.');
-  if (route.method !== 'get') out['403'] = errorResponse('csrf_invalid (a session without the X-CSRF-Token header), or forbidden.');
-  else if (route.access.kind === 'siteAdmin' || route.access.kind === 'project') out['403'] = errorResponse('forbidden: the caller’s role does not allow it.');
+  const refusals = [
+    route.method !== 'get' && 'csrf_invalid (a session without the X-CSRF-Token header)',
+    (route.method !== 'get' || route.access.kind === 'siteAdmin' || route.access.kind === 'project') && 'forbidden: the caller’s role does not allow it',
+    route.access.kind !== 'public' && !(route.access.kind === 'user' && route.access.beforePasswordChange) && 'password_change_required: the account must choose a new password first (POST /auth/password)',
+  ].filter((r): r is string => typeof r === 'string');
+  if (refusals.length > 0) out['403'] = errorResponse(`${refusals.join('; or ')}.`);
   const mediaType = bodyMediaType(route);
   if (mediaType) out['415'] = errorResponse(`unsupported_media_type: a body sent as anything but ${mediaType}.`);
   if (route.params) out['404'] = errorResponse('not_found: no such project, target or record for this caller.');

@@ -5,7 +5,7 @@ import { addMemberBody, createProjectBody, updateMemberBody, updateProjectBody }
 import { memberParams, projectParams, targetParams } from '../shared/schemas/params';
 import { createTargetBody, listTargetsQuery, updateTargetBody } from '../shared/schemas/targets';
 import type { Db } from './db/knex';
-import { anyone, inProject, requireAccess, signedIn, siteAdmin, type Access } from './middleware/access';
+import { anyone, inProject, ownAccount, requireAccess, signedIn, siteAdmin, type Access } from './middleware/access';
 import { validate } from './middleware/validate';
 import { requireBodyType } from './middleware/content-type';
 import type { StarledgerPassport } from './middleware/auth';
@@ -89,10 +89,11 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
 
     // Sign-in
     { method: 'post', path: '/auth/login', access: anyone, body: loginBody, handler: auth.login },
-    { method: 'post', path: '/auth/logout', access: signedIn, handler: auth.logout },
-    { method: 'get', path: '/auth/me', access: signedIn, handler: auth.me },
-    // A signed-in person's new password: the current one is asked for, and every other session ends
-    { method: 'post', path: '/auth/password', access: signedIn, body: changePasswordBody, handler: auth.changePassword },
+    { method: 'post', path: '/auth/logout', access: ownAccount, handler: auth.logout },
+    { method: 'get', path: '/auth/me', access: ownAccount, handler: auth.me },
+    // A signed-in person's new password: the current one is asked for, and every other session ends.
+    // These three are open to an account that must choose a new password first; every other route refuses it (access.ts).
+    { method: 'post', path: '/auth/password', access: ownAccount, body: changePasswordBody, handler: auth.changePassword },
     // A signed-in person's own sessions (where and when they are signed in): listed, and ended one by one or all but this one
     { method: 'get', path: '/auth/sessions', access: signedIn, handler: sessions.list },
     { method: 'post', path: '/auth/sessions/end-others', access: signedIn, handler: sessions.endOthers },

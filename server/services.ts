@@ -27,6 +27,8 @@ export interface ServiceOptions {
   uploadJobs?: UploadJobs;
   /** How long a signed-in session lasts (sessions.service.ts); 12 hours from sign-in and 30 idle minutes when omitted. */
   sessionLimits?: SessionLimits;
+  /** The secret password hashes are made with (PASSWORD_PEPPER; server/lib/passwords.ts); plain scrypt when omitted. */
+  passwordPepper?: string;
 }
 
 export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
@@ -35,7 +37,7 @@ export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
 export function createServices(db: Db, clock: Clock, options: ServiceOptions = {}) {
   const publicUrl = options.publicUrl ?? DEFAULT_PUBLIC_URL;
   return {
-    users: createUsersService(db, clock, { publicUrl }),
+    users: createUsersService(db, clock, { publicUrl, pepper: options.passwordPepper }),
     projects: createProjectsService(db, clock),
     members: createMembersService(db, clock),
     targets: createTargetsService(db, clock),
@@ -47,8 +49,8 @@ export function createServices(db: Db, clock: Clock, options: ServiceOptions = {
     summary: createSummaryService(db, clock, { publicUrl }),
     mailPreferences: createMailPreferencesService(db, clock),
     mailFake: createMailFakeService(options.mailInbox),
-    invitations: createInvitationsService(db, clock, { publicUrl }),
-    passwordResets: createPasswordResetsService(db, clock, { publicUrl }),
+    invitations: createInvitationsService(db, clock, { publicUrl, pepper: options.passwordPepper }),
+    passwordResets: createPasswordResetsService(db, clock, { publicUrl, pepper: options.passwordPepper }),
     sessions: createSessionsService(db, clock, options.sessionLimits),
   };
 }

@@ -11,6 +11,7 @@ export const errorCodes = {
   token_expired: 'That API token has expired. Make a new one on your account’s API tokens page.',
   invalid_credentials: 'That e-mail and password do not match an account.',
   forbidden: 'Your role in this project does not allow that.',
+  password_change_required: 'Choose a new password before going on.',
   not_found: 'Not found.',
   conflict: 'That conflicts with existing data.',
   stale_value: 'A value changed since you saw it. Look at it again before deciding.',

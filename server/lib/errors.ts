@@ -1,5 +1,6 @@
 import type { Response } from 'express';
 import { messageFor, type ErrorCode, type FieldIssue } from '../../shared/errors';
+import { passwordChangeReasons, type PasswordChangeReason } from '../../shared/schemas/auth';
 
 /** A failure the client should hear about: a stable code, an HTTP status, a message and optional details. */
 export class AppError extends Error {
@@ -17,6 +18,9 @@ export class AppError extends Error {
 export const notFound = (what = 'Not found.') => new AppError(404, 'not_found', what);
 export const forbidden = (message?: string) => new AppError(403, 'forbidden', message);
 export const unauthenticated = () => new AppError(401, 'unauthenticated');
+/** 403 for an account that must choose a new password before anything else (server/middleware/access.ts), saying why. */
+export const passwordChangeRequired = (reason: PasswordChangeReason) =>
+  new AppError(403, 'password_change_required', passwordChangeReasons[reason], { reason });
 /** 401 for a request whose session ran out (server/middleware/session.ts, sessionLimits), saying why. */
 export const sessionEnded = (message: string) => new AppError(401, 'session_ended', message);
 export const conflict = (message: string, details?: FieldIssue[]) => new AppError(409, 'conflict', message, details);

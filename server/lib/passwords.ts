@@ -1,9 +1,9 @@
-import { createHash, randomBytes, scrypt as scryptCb, timingSafeEqual, type ScryptOptions } from 'node:crypto';
+import { createHash, createHmac, randomBytes, scrypt as scryptCb, timingSafeEqual, type BinaryLike, type ScryptOptions } from 'node:crypto';
 import commonPasswords from 'fxa-common-password-list';
 import { contextualPasswordProblem, passwordRule, type PasswordContext } from '../../shared/schemas/auth';
 import { validationFailed } from './errors';
 
-function scrypt(password: string, salt: Buffer, keylen: number, options: ScryptOptions): Promise<Buffer> {
+function scrypt(password: BinaryLike, salt: Buffer, keylen: number, options: ScryptOptions): Promise<Buffer> {
   return new Promise((resolve, reject) =>
     scryptCb(password, salt, keylen, options, (err, key) => (err ? reject(err) : resolve(key))),
   );
@@ -17,23 +17,52 @@ const r = 8;
 const p = 1;
 const KEYLEN = 32;
 
-export async function hashPassword(password: string): Promise<string> {
-  const salt = randomBytes(16);
-  const key = await scrypt(password, salt, KEYLEN, { N, r, p, maxmem: 64 * 1024 * 1024 });
-  return `scrypt$${N}$${r}$${p}$${salt.toString('base64')}$${key.toString('base64')}`;
+/**
+ * The scheme a hash was made with, stored first in it: `scrypt` of the
+ * password itself, or `scrypt-hmac` of HMAC-SHA-256(pepper, password), where
+ * the pepper is a secret kept apart from the database (PASSWORD_PEPPER, or
+ * a file under DATA_DIR: server/config.ts; ASVS 4.0 2.4.5). A stolen
+ * database alone then cannot be guessed against.
+ */
+type Scheme = 'scrypt' | 'scrypt-hmac';
+
+function schemeFor(pepper: string | undefined): Scheme {
+  return pepper ? 'scrypt-hmac' : 'scrypt';
 }
 
-export async function verifyPassword(password: string, stored: string): Promise<boolean> {
+function peppered(password: string, scheme: Scheme, pepper: string | undefined): BinaryLike | undefined {
+  if (scheme === 'scrypt') return password;
+  return pepper ? createHmac('sha256', pepper).update(password, 'utf8').digest() : undefined;
+}
+
+/** A new hash of the password: with the pepper when there is one. */
+export async function hashPassword(password: string, pepper?: string): Promise<string> {
+  const scheme = schemeFor(pepper);
+  const salt = randomBytes(16);
+  const key = await scrypt(peppered(password, scheme, pepper)!, salt, KEYLEN, { N, r, p, maxmem: 64 * 1024 * 1024 });
+  return `${scheme}$${N}$${r}$${p}$${salt.toString('base64')}$${key.toString('base64')}`;
+}
+
+/** Whether the password matches the stored hash, of either scheme; a peppered hash never matches without its pepper. */
+export async function verifyPassword(password: string, stored: string, pepper?: string): Promise<boolean> {
   const [scheme, n, rr, pp, saltB64, keyB64] = stored.split('$');
-  if (scheme !== 'scrypt' || !saltB64 || !keyB64) return false;
+  if ((scheme !== 'scrypt' && scheme !== 'scrypt-hmac') || !saltB64 || !keyB64) return false;
+  const input = peppered(password, scheme, pepper);
+  if (!input) return false;
   const expected = Buffer.from(keyB64, 'base64');
-  const key = await scrypt(password, Buffer.from(saltB64, 'base64'), expected.length, {
+  const key = await scrypt(input, Buffer.from(saltB64, 'base64'), expected.length, {
     N: Number(n),
     r: Number(rr),
     p: Number(pp),
     maxmem: 64 * 1024 * 1024,
   });
   return timingSafeEqual(key, expected);
+}
+
+/** Whether a hash that just matched should be made again: its scheme or parameters are older than hashPassword's now (it is, at the next sign-in). */
+export function needsRehash(stored: string, pepper?: string): boolean {
+  const [scheme, n, rr, pp] = stored.split('$');
+  return scheme !== schemeFor(pepper) || Number(n) !== N || Number(rr) !== r || Number(pp) !== p;
 }
 
 /** A hash of a random password, compared against when the e-mail is unknown so that timing does not reveal which accounts exist. */

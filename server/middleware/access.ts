@@ -1,27 +1,32 @@
 import type { NextFunction, Request, Response } from 'express';
 import { roleCan, type Permission } from '../../shared/schemas/roles';
 import type { Db } from '../db/knex';
-import { forbidden, notFound, sessionEnded, unauthenticated } from '../lib/errors';
+import { forbidden, notFound, passwordChangeRequired, sessionEnded, unauthenticated } from '../lib/errors';
 import { roleInProject } from '../modules/projects/projects.repository';
 import type { ProjectAccess } from '../types';
 
 /** Who may call a route: anyone, any signed-in person, a site admin, or a project member holding a permission. */
-export type Access = { kind: 'public' } | { kind: 'user' } | { kind: 'siteAdmin' } | { kind: 'project'; permission: Permission };
+export type Access = { kind: 'public' } | { kind: 'user'; beforePasswordChange?: true } | { kind: 'siteAdmin' } | { kind: 'project'; permission: Permission };
 
 export const anyone: Access = { kind: 'public' };
 export const signedIn: Access = { kind: 'user' };
+/** Any signed-in person, also one who must choose a new password first: for their session, sign-out and the change itself. */
+export const ownAccount: Access = { kind: 'user', beforePasswordChange: true };
 export const siteAdmin: Access = { kind: 'siteAdmin' };
 export const inProject = (permission: Permission): Access => ({ kind: 'project', permission });
 
 /**
  * The one gate every route passes. Inside a project a non-member gets 404 —
  * the project's existence is not revealed — and a member without the
- * permission gets 403.
+ * permission gets 403. An account that must choose a new password first
+ * (users.must_change_password) gets 403 password_change_required, with the
+ * reason, on every route but those open to anyone and the ownAccount ones.
  */
 export function requireAccess(db: Db, access: Access) {
   return async (req: Request, res: Response, next: NextFunction) => {
     if (access.kind === 'public') return next();
     if (!req.user) throw typeof res.locals.sessionEnded === 'string' ? sessionEnded(res.locals.sessionEnded) : unauthenticated();
+    if (req.user.mustChangePassword && !(access.kind === 'user' && access.beforePasswordChange)) throw passwordChangeRequired(req.user.mustChangePassword);
     if (access.kind === 'user') return next();
     if (access.kind === 'siteAdmin') {
       if (!req.user.isSiteAdmin) throw forbidden('Only a site admin can do that.');

@@ -12,8 +12,22 @@ export const userSchema = z.object({
   email: z.string(),
   name: z.string(),
   isSiteAdmin: z.boolean(),
+  /** Null, or why the account must choose a new password before anything else (passwordChangeReasons). */
+  mustChangePassword: z.enum(['weak', 'initial']).nullable(),
 });
 export type User = z.infer<typeof userSchema>;
+export type PasswordChangeReason = NonNullable<User['mustChangePassword']>;
+
+/**
+ * Why a new password is asked for, said by the server's refusal of every
+ * other route (403 password_change_required) and by the form that asks:
+ * the password signed in with is now refused for new ones (ASVS 2.1.7), or
+ * a site admin typed it when making the account (2.3.1).
+ */
+export const passwordChangeReasons: Record<PasswordChangeReason, string> = {
+  weak: 'The password you signed in with is now refused for new passwords (it is too short, one of the most common, or made of your own name or e-mail). Choose a new one before going on.',
+  initial: 'A site admin chose the password you signed in with. Choose one of your own before going on.',
+};
 
 export const membershipSchema = z.object({
   projectId: z.number(),

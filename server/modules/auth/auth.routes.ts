@@ -57,8 +57,10 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
         throw validationFailed([{ path: 'currentPassword', message: 'This is not your current password.' }]);
       }
       await throttle.succeeded(req, user.email);
+      // A password someone else chose, or one now refused, cannot be kept by "changing" it to itself (ASVS 2.3.1).
+      if (body.password === body.currentPassword) throw validationFailed([{ path: 'password', message: 'Choose a password other than your current one.' }]);
       await users.changePassword(user.id, body.password);
-      req.logIn(user, (loginErr) => {
+      req.logIn({ ...user, mustChangePassword: null }, (loginErr) => {
         if (loginErr) return next(loginErr);
         sessionBody(req, users).then((session) => res.json({ ...session, message: 'Your password is changed. Your other sessions have ended.' }), next);
       });

@@ -34,7 +34,7 @@ function publicView({ projectId: _p, projectName: _n, projectCode: _c, usedAt: _
   return rest;
 }
 
-export function createInvitationsService(db: Db, clock: Clock, options: { publicUrl: string }) {
+export function createInvitationsService(db: Db, clock: Clock, options: { publicUrl: string; pepper?: string }) {
   const base = options.publicUrl.replace(/\/+$/, '');
 
   /** The invitation a link names, if it can still be accepted; a clear refusal otherwise. */
@@ -121,7 +121,7 @@ export function createInvitationsService(db: Db, clock: Clock, options: { public
         if (!input.password) missing.push({ path: 'password', message: 'Choose a password.' });
         if (missing.length > 0) throw validationFailed(missing);
         assertAcceptablePassword(input.password!, { email: inv.email, name: input.name });
-        passwordHash = await hashPassword(input.password!);
+        passwordHash = await hashPassword(input.password!, options.pepper);
       }
       const now = clock.now();
       const user = await db.transaction(async (trx) => {

@@ -44,7 +44,7 @@ const refusalWords = {
   link_revoked: 'This link no longer works. Ask for a new one.',
 } as const;
 
-export function createPasswordResetsService(db: Db, clock: Clock, options: { publicUrl: string }) {
+export function createPasswordResetsService(db: Db, clock: Clock, options: { publicUrl: string; pepper?: string }) {
   const base = options.publicUrl.replace(/\/+$/, '');
   const counts = createThrottleCounts(db, clock);
 
@@ -104,7 +104,7 @@ export function createPasswordResetsService(db: Db, clock: Clock, options: { pub
       const reset = await usable(input.token);
       const name = (await findUserById(db, reset.userId))?.name ?? 'Observer';
       assertAcceptablePassword(input.password, { email: reset.email, name });
-      const passwordHash = await hashPassword(input.password);
+      const passwordHash = await hashPassword(input.password, options.pepper);
       const now = clock.now();
       await db.transaction(async (trx) => {
         if (!(await claimReset(trx, reset.id, now))) {

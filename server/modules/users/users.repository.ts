@@ -1,5 +1,5 @@
 import type { Db } from '../../db/knex';
-import type { User } from '../../../shared/schemas/auth';
+import type { PasswordChangeReason, User } from '../../../shared/schemas/auth';
 import type { ProjectRole } from '../../../shared/schemas/roles';
 
 interface UserRow {
@@ -8,10 +8,11 @@ interface UserRow {
   name: string;
   password_hash: string;
   is_site_admin: number | boolean;
+  must_change_password: PasswordChangeReason | null;
 }
 
 export function toUser(row: UserRow): User {
-  return { id: row.id, email: row.email, name: row.name, isSiteAdmin: Boolean(row.is_site_admin) };
+  return { id: row.id, email: row.email, name: row.name, isSiteAdmin: Boolean(row.is_site_admin), mustChangePassword: row.must_change_password ?? null };
 }
 
 export async function findUserByEmail(db: Db, email: string): Promise<(User & { passwordHash: string }) | undefined> {
@@ -36,7 +37,7 @@ export async function listUsers(db: Db): Promise<User[]> {
 
 export async function insertUser(
   db: Db,
-  user: { email: string; name: string; passwordHash: string; isSiteAdmin: boolean },
+  user: { email: string; name: string; passwordHash: string; isSiteAdmin: boolean; mustChangePassword?: PasswordChangeReason },
   at: Date,
 ): Promise<User> {
   const [row] = await db<UserRow>('users')
@@ -45,6 +46,7 @@ export async function insertUser(
       name: user.name,
       password_hash: user.passwordHash,
       is_site_admin: user.isSiteAdmin,
+      must_change_password: user.mustChangePassword ?? null,
       created_at: at.toISOString(),
       updated_at: at.toISOString(),
     } as never)
@@ -57,6 +59,16 @@ export async function membershipsOf(db: Db, userId: number): Promise<{ projectId
   return rows.map((r: { project_id: number; role: ProjectRole }) => ({ projectId: r.project_id, role: r.role }));
 }
 
+/** A new password chosen: the account no longer has to choose one. */
 export async function setPasswordHash(db: Db, userId: number, passwordHash: string, at: Date): Promise<void> {
-  await db('users').where({ id: userId }).update({ password_hash: passwordHash, updated_at: at.toISOString() });
+  await db('users').where({ id: userId }).update({ password_hash: passwordHash, must_change_password: null, updated_at: at.toISOString() });
+}
+
+/** The same password's hash made again with the newer scheme, unless the hash changed since it was read (a change, or another sign-in's upgrade). */
+export async function upgradePasswordHash(db: Db, userId: number, from: string, to: string): Promise<void> {
+  await db('users').where({ id: userId, password_hash: from }).update({ password_hash: to });
+}
+
+export async function setMustChangePassword(db: Db, userId: number, reason: PasswordChangeReason): Promise<void> {
+  await db('users').where({ id: userId }).update({ must_change_password: reason });
 }

@@ -9,7 +9,8 @@ export function usersHandlers(users: UsersService) {
       res.json({ users: await users.list() });
     },
     async create(req: Request, res: Response) {
-      res.status(201).json({ user: await users.create(parsed(res, 'body', createUserBody), req.user!.id) });
+      // The site admin typed the password: its owner chooses their own at the first sign-in (ASVS 2.3.1).
+      res.status(201).json({ user: await users.create(parsed(res, 'body', createUserBody), req.user!.id, { mustChangePassword: 'initial' }) });
     },
   };
 }

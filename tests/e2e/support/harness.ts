@@ -66,6 +66,7 @@ export async function startApp(options: AppOptions = {}): Promise<RunningApp> {
       CLIENT_DIR: path.join(root, 'dist'),
       SESSION_SECRET: 'e2e-secret',
       NODE_ENV: 'production',
+      SEED_DEMO: 'true',
       ...options.env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
