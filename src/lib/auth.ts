@@ -14,6 +14,12 @@ export const authKeys = {
 
 /** Whether this tab has had a signed-in person since it last signed out: a 401 then means their session ended. */
 let hadSession = false;
+/** Why the session this browser came with had ended, when the first /auth/me said so. */
+let endedBeforeThisPage: string | undefined;
+
+export function whySessionEndedBeforeThisPage(): string | undefined {
+  return endedBeforeThisPage;
+}
 
 /**
  * The signed-in person, or null when nobody is signed in. When someone was,
@@ -34,6 +40,8 @@ export async function getMe(): Promise<MeResponse | null> {
         reportSessionEnded(error.code === 'session_ended' ? error.message : SESSION_ENDED_FALLBACK);
         throw error;
       }
+      // A page opened afresh on a session that has since ended: nobody is signed in, and the sign-in page can say why.
+      if (error.code === 'session_ended') endedBeforeThisPage = error.message;
       return null;
     }
     throw error;
@@ -81,6 +89,7 @@ function forgetEverythingButTheSession(queryClient: QueryClient) {
 /** A session that began in this browser (sign-in, or an accepted invitation that created the account) replaces whatever was cached. */
 export function adoptSession(queryClient: QueryClient, me: MeResponse) {
   hadSession = true;
+  endedBeforeThisPage = undefined;
   clearSessionEnded();
   setCsrfToken(me.csrfToken);
   forgetEverythingButTheSession(queryClient);

@@ -113,4 +113,14 @@ describe.skipIf(!chromiumAvailable)('my sessions in the browser, and a session e
     await page.getByRole('heading', { name: 'API tokens', level: 1 }).waitFor();
     expect(new URL(page.url()).pathname).toBe('/account/tokens');
   });
+
+  it('a page opened afresh on a session that ran out goes to sign-in and says why', async () => {
+    const page = await pageAs('pi@demo.invalid');
+    await page.goto(`${app.baseUrl}/account/mail`);
+    await db('sessions').update({ last_seen_at: new Date(Date.now() - 31 * 60_000).toISOString() });
+    await page.reload();
+    await page.waitForURL((url) => url.pathname === '/sign-in');
+    await page.getByText('Your session ended after 30 minutes without use. Sign in again.').waitFor();
+    expect(new URL(page.url()).searchParams.get('redirectTo')).toBe('/account/mail');
+  });
 });

@@ -3,7 +3,7 @@ import { Navigate, Outlet, useLocation, useNavigate, useParams } from 'react-rou
 import { useQuery } from '@tanstack/react-query';
 import { roleCan } from '@shared/schemas/roles';
 import { paths } from '@/config/paths';
-import { useLogout, useMe } from '@/lib/auth';
+import { useLogout, useMe, whySessionEndedBeforeThisPage } from '@/lib/auth';
 import { forgetTyping, hasUnsavedTyping, useSessionEnded, watchTyping } from '@/lib/session-ended';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
@@ -71,7 +71,8 @@ export function AppRoot() {
     );
   }
   if (!me.data) {
-    return <Navigate to={paths.auth.signIn.getHref(signingOut ? null : here)} replace />;
+    const reason = signingOut ? undefined : whySessionEndedBeforeThisPage();
+    return <Navigate to={paths.auth.signIn.getHref(signingOut ? null : here)} replace state={reason ? { sessionEnded: reason } : undefined} />;
   }
 
   return (
