@@ -117,6 +117,9 @@ describe.skipIf(!chromiumAvailable)('my sessions in the browser, and a session e
   it('a page opened afresh on a session that ran out goes to sign-in and says why', async () => {
     const page = await pageAs('pi@demo.invalid');
     await page.goto(`${app.baseUrl}/account/mail`);
+    // Loaded, so that no request of this page reaches the server after the session is aged (it would end it, and the reload would find no session at all).
+    await page.getByLabel('The weekly summary of this project').first().waitFor();
+    await page.waitForLoadState('networkidle');
     await db('sessions').update({ last_seen_at: new Date(Date.now() - 31 * 60_000).toISOString() });
     await page.reload();
     await page.waitForURL((url) => url.pathname === '/sign-in');

@@ -2,6 +2,7 @@ import { useState } from 'react';
 import type { AccountSession } from '@shared/schemas/sessions';
 import { Button } from '@/components/ui/button';
 import { Alert } from '@/components/ui/alert';
+import { ConfirmInPlace } from '@/components/ui/confirm-in-place';
 import { formatCount, formatDateTime } from '@/lib/format';
 import { useEndSession } from '../api/end-session';
 import { useEndOtherSessions } from '../api/end-other-sessions';
@@ -22,20 +23,16 @@ function EndSession({ session }: { session: AccountSession }) {
     );
   }
   return (
-    <div role="group" aria-label={`Confirm ending the session of ${nameOf(session)}`} className="flex flex-wrap items-center gap-2 text-sm">
-      <span>End it? That browser is signed out at once.</span>
-      <Button variant="danger" size="sm" disabled={end.isPending} onClick={() => end.mutate(session.id)}>
-        {end.isPending ? 'Ending…' : 'Yes, end it'}
-      </Button>
-      <Button variant="secondary" size="sm" disabled={end.isPending} onClick={() => setConfirming(false)}>
-        Keep it
-      </Button>
-      {end.isError ? (
-        <p role="alert" className="w-full">
-          <span className="font-semibold text-alert">Error:</span> {end.error.message}
-        </p>
-      ) : null}
-    </div>
+    <ConfirmInPlace
+      label={`Confirm ending the session of ${nameOf(session)}`}
+      question="End it? That browser is signed out at once."
+      yes="Yes, end it"
+      busy={end.isPending}
+      busyText="Ending…"
+      error={end.isError ? end.error.message : null}
+      onYes={() => end.mutate(session.id)}
+      onKeep={() => setConfirming(false)}
+    />
   );
 }
 
@@ -55,20 +52,17 @@ export function EndOtherSessions({ others }: { others: number }) {
     );
   }
   return (
-    <div role="group" aria-label="Confirm signing out everywhere else" className="flex flex-wrap items-center gap-2 text-sm">
-      <span>End {formatCount(others, 'other session')}? This browser stays signed in.</span>
-      <Button variant="danger" size="sm" disabled={endOthers.isPending} onClick={() => endOthers.mutate(undefined, { onSuccess: () => setConfirming(false) })}>
-        {endOthers.isPending ? 'Ending…' : 'Yes, end them'}
-      </Button>
-      <Button variant="secondary" size="sm" disabled={endOthers.isPending} onClick={() => setConfirming(false)}>
-        Keep them
-      </Button>
-      {endOthers.isError ? (
-        <p role="alert" className="w-full">
-          <span className="font-semibold text-alert">Error:</span> {endOthers.error.message}
-        </p>
-      ) : null}
-    </div>
+    <ConfirmInPlace
+      label="Confirm signing out everywhere else"
+      question={`End ${formatCount(others, 'other session')}? This browser stays signed in.`}
+      yes="Yes, end them"
+      busy={endOthers.isPending}
+      busyText="Ending…"
+      keep="Keep them"
+      error={endOthers.isError ? endOthers.error.message : null}
+      onYes={() => endOthers.mutate(undefined, { onSuccess: () => setConfirming(false) })}
+      onKeep={() => setConfirming(false)}
+    />
   );
 }
 
