@@ -20,6 +20,7 @@ import * as dropUploadErrors from './20261202190200_drop_upload_errors';
 import * as sessionDetailsTokenExpiry from './20261203004100_session_details_token_expiry';
 import * as tokenExpiryFill from './20261203004200_token_expiry_fill';
 import * as mustChangePassword from './20261203013700_must_change_password';
+import * as secondFactor from './20261203224700_second_factor';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -49,6 +50,7 @@ const migrations: Record<string, Knex.Migration> = {
   '20261203004100_session_details_token_expiry': sessionDetailsTokenExpiry,
   '20261203004200_token_expiry_fill': tokenExpiryFill,
   '20261203013700_must_change_password': mustChangePassword,
+  '20261203224700_second_factor': secondFactor,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {
