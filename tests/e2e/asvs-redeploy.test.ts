@@ -4,10 +4,9 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterEach, describe, expect, it } from 'vitest';
 import { demoAccounts } from '../../seeds/01-demo-scenario';
+import { freePort } from './support/harness';
 
 const root = path.resolve(import.meta.dirname, '../..');
-const PORT = Number(process.env.REDEPLOY_TEST_PORT ?? 5480);
-
 let child: ChildProcess | undefined;
 let checkout: string | undefined;
 afterEach(async () => {
@@ -31,6 +30,7 @@ describe('a deployment from the repository alone', () => {
     for (const made of ['dist', 'build', 'data']) expect(fs.existsSync(path.join(checkout, made)), made).toBe(false);
 
     const dataDir = path.join(checkout, 'data');
+    const PORT = await freePort();
     child = spawn('npm', ['start'], {
       cwd: checkout,
       env: { ...process.env, PORT: String(PORT), HOST: '127.0.0.1', DATA_DIR: dataDir, DATABASE_URL: '', SMTP_URL: '', SESSION_SECRET: '', PASSWORD_PEPPER: '' },

@@ -17,7 +17,7 @@ if (!chromiumAvailable) {
   console.warn(`\n*** SKIPPING BROWSER TESTS: no Chromium at ${CHROMIUM} (apt-get install -y chromium). ***\n`);
 }
 
-async function freePort(): Promise<number> {
+export async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const srv = net.createServer();
     srv.listen(0, '127.0.0.1', () => {
@@ -67,6 +67,8 @@ export async function startApp(options: AppOptions = {}): Promise<RunningApp> {
       SESSION_SECRET: 'e2e-secret',
       NODE_ENV: 'production',
       SEED_DEMO: 'true',
+      // As `npm start` runs the demo (README); a test that wants the rule passes ADMIN_SECOND_FACTOR=required in env.
+      ADMIN_SECOND_FACTOR: 'optional',
       ...options.env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],
