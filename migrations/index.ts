@@ -20,6 +20,8 @@ import * as dropUploadErrors from './20261202190200_drop_upload_errors';
 import * as sessionDetailsTokenExpiry from './20261203004100_session_details_token_expiry';
 import * as tokenExpiryFill from './20261203004200_token_expiry_fill';
 import * as mustChangePassword from './20261203013700_must_change_password';
+import * as projectTargetCountPerStatement from './20261203221000_project_target_count_per_statement';
+import * as uploadCommitProgress from './20261203222000_upload_commit_progress';
 import * as secondFactor from './20261203224700_second_factor';
 
 /**
@@ -50,6 +52,8 @@ const migrations: Record<string, Knex.Migration> = {
   '20261203004100_session_details_token_expiry': sessionDetailsTokenExpiry,
   '20261203004200_token_expiry_fill': tokenExpiryFill,
   '20261203013700_must_change_password': mustChangePassword,
+  '20261203221000_project_target_count_per_statement': projectTargetCountPerStatement,
+  '20261203222000_upload_commit_progress': uploadCommitProgress,
   '20261203224700_second_factor': secondFactor,
 };
 

@@ -52,13 +52,17 @@ export interface BenchServer {
   stop(): void;
 }
 
-/** Builds the server bundle and starts it as `npm start` runs it, on its own data folder. */
+/**
+ * Builds the server bundle and starts it as `npm start` runs it, on its own
+ * data folder: on a new SQLite file there, or on the (empty) PostgreSQL
+ * database DATABASE_URL names when it is a `postgres://` URL.
+ */
 export async function startProductionServer(dir: string, nodeOptions: string[] = []): Promise<BenchServer> {
   const port = await freePort();
   execFileSync('npm', ['run', 'build:server', '--silent'], { cwd: root, stdio: 'ignore' });
   const server = spawn(process.execPath, [...nodeOptions, 'build/server.js'], {
     cwd: root,
-    env: { ...process.env, PORT: String(port), DATA_DIR: dir, DATABASE_URL: `file:${path.join(dir, 'api.sqlite')}`, SESSION_SECRET: 'bench', SEED_DEMO: 'true' },
+    env: { ...process.env, PORT: String(port), DATA_DIR: dir, DATABASE_URL: process.env.DATABASE_URL?.startsWith('postgres') ? process.env.DATABASE_URL : `file:${path.join(dir, 'api.sqlite')}`, SESSION_SECRET: 'bench', SEED_DEMO: 'true' },
     stdio: ['ignore', 'pipe', 'inherit'],
   });
   await new Promise<void>((resolve) => server.stdout!.on('data', (c: Buffer) => c.toString().includes('running') && resolve()));

@@ -78,6 +78,11 @@ describe('uploads on the worker thread', () => {
     expect(seen.some((p) => p.phase === 'writing' || p.phase === 'deriving')).toBe(true);
     const last = (await s.agent.get(`/api/projects/${w.projectId}/uploads/${id}/progress`).expect(200)).body.progress;
     expect(last).toEqual({ uploadId: id, phase: 'done', rowsWritten: 6000, rowsTotal: 6000, targetsDerived: 300, targetsTotal: 300 });
+    // The process running the commit wrote its end to the upload's row, where another app process on the same database reads it.
+    expect(JSON.parse((await w.db('uploads').where({ id }).first('commit_progress_json')).commit_progress_json)).toEqual(last);
+    // The project's target count, kept by triggers (per statement on PostgreSQL), counts the 300 targets the file created.
+    const counted = await w.db('targets').where({ project_id: w.projectId }).count<{ n: number }[]>('* as n');
+    expect((await w.db('projects').where({ id: w.projectId }).first('target_count')).target_count).toBe(Number(counted[0].n));
 
     expect(Number((await w.db('measurements').count<{ n: number }[]>('* as n'))[0].n)).toBe(6000);
     // Each target the file created has its own trail entry, as one made by hand.

@@ -16,6 +16,7 @@ import {
   loadPreviewState,
   rememberMapping,
   rememberedMapping,
+  saveCommitProgress,
   savePreview,
   setUploadStatus,
   type PreviewState,
@@ -170,9 +171,58 @@ const TARGETS_PER_STEP = 250;
  * proposed derived values — or nothing. Progress is reported as it goes.
  */
 export async function runCommit(db: Db, job: CommitJob, report: Report): Promise<CommitOutcome> {
+  const progress = progressWriter(db, job.uploadId, report);
+  try {
+    const outcome = await commitWhole(db, job, progress.say);
+    await progress.finish('done');
+    return outcome;
+  } catch (e) {
+    await progress.finish('failed');
+    throw e;
+  }
+}
+
+/** At most one progress write a second while a commit runs (a phase change is written at once). */
+const PROGRESS_WRITE_MS = 1000;
+
+/**
+ * Passes each step of a commit to `report` (this process's board) and
+ * writes the progress to the upload's row for other processes, outside the
+ * commit's transaction and in order, at a modest rate; the final phase is
+ * always written. A progress write that fails is logged and never fails
+ * the commit.
+ */
+function progressWriter(db: Db, uploadId: number, report: Report) {
+  let current: UploadProgress = { uploadId, phase: 'reading', rowsWritten: 0, rowsTotal: 0, targetsDerived: 0, targetsTotal: 0 };
+  let writes: Promise<void> = Promise.resolve();
+  let lastWrite = 0;
+  const write = (final: boolean) => {
+    const snapshot = current;
+    lastWrite = Date.now();
+    writes = writes.then(() =>
+      saveCommitProgress(db, snapshot, final).catch((e: unknown) => {
+        console.error('[upload progress]', e instanceof Error ? e.message : String(e));
+      }),
+    );
+  };
+  return {
+    say(p: Partial<UploadProgress>) {
+      const phaseChanged = p.phase !== undefined && p.phase !== current.phase;
+      current = { ...current, ...p };
+      report(uploadId, p);
+      if (phaseChanged || lastWrite === 0 || Date.now() - lastWrite >= PROGRESS_WRITE_MS) write(false);
+    },
+    async finish(phase: 'done' | 'failed') {
+      current = { ...current, phase };
+      write(true);
+      await writes;
+    },
+  };
+}
+
+async function commitWhole(db: Db, job: CommitJob, say: (p: Partial<UploadProgress>) => void): Promise<CommitOutcome> {
   const { projectId, uploadId, actorUserId } = job;
   const now = new Date(job.now);
-  const say = (p: Partial<UploadProgress>) => report(uploadId, p);
   say({ phase: 'reading' });
   const state = await loadPreviewState(db, uploadId);
   if (!state) throw conflict('This upload has no preview; upload the file again.');

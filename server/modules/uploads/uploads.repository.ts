@@ -1,8 +1,8 @@
 import { gunzipSync, gzipSync } from 'node:zlib';
-import type { Db } from '../../db/knex';
+import { isSqlite, writeUnlessBusy, type Db } from '../../db/knex';
 import { bulkInsert } from '../../db/bulk-insert';
 import type { ColumnMapping, NormalisedRow, RowError } from '../../../shared/file-reading/measurement-file';
-import { ERRORS_SHOWN, type Caution, type SpectrumPreview, type Upload } from '../../../shared/schemas/uploads';
+import { ERRORS_SHOWN, type Caution, type SpectrumPreview, type Upload, type UploadProgress } from '../../../shared/schemas/uploads';
 import { parseJson, toIso } from '../../lib/rows';
 import { pointsToDraw } from '../../../shared/schemas/spectrum-drawing';
 
@@ -384,4 +384,23 @@ export async function rememberMapping(db: Db, projectId: number, signature: stri
 export async function rememberedMapping(db: Db, projectId: number, signature: string): Promise<ColumnMapping | null> {
   const row = await db('column_mappings').where({ project_id: projectId, header_signature: signature }).first('mapping_json');
   return row ? parseJson<ColumnMapping | null>(row.mapping_json, null) : null;
+}
+
+/**
+ * Writes where an upload's commit has got to, outside the commit's
+ * transaction, for app processes other than the one running it (on
+ * PostgreSQL). On SQLite one process runs the app and answers from its own
+ * board while the commit runs, and the commit holds the one write lock (in
+ * a test, the one connection) until it ends: there only the final state is
+ * written, and skipped if another writer holds the lock.
+ */
+export async function saveCommitProgress(db: Db, progress: UploadProgress, final: boolean): Promise<void> {
+  if (isSqlite(db) && !final) return;
+  await writeUnlessBusy(db, 'update uploads set commit_progress_json = ? where id = ?', [JSON.stringify(progress), progress.uploadId]);
+}
+
+/** The commit progress last written for an upload, or null when none was. */
+export async function loadCommitProgress(db: Db, uploadId: number): Promise<UploadProgress | null> {
+  const row = await db('uploads').where({ id: uploadId }).first('commit_progress_json');
+  return row?.commit_progress_json ? parseJson<UploadProgress | null>(row.commit_progress_json, null) : null;
 }

@@ -14,6 +14,7 @@ import {
   findUpload,
   listErrors,
   listUploads,
+  loadCommitProgress,
   loadContent,
   recordsOfRows,
   rowsWithErrors,
@@ -134,10 +135,14 @@ export function createUploadsService(db: Db, clock: Clock, options: UploadsOptio
       };
     },
 
-    /** Where a commit under way has got to (null when none is known here). */
+    /**
+     * Where a commit under way has got to: from this process's board when
+     * the commit runs here, else as the process running it last wrote it
+     * to the database (null when no commit was asked for).
+     */
     async progress(projectId: number, uploadId: number): Promise<UploadProgress | null> {
       await get(projectId, uploadId);
-      return jobs.progress(uploadId);
+      return jobs.progress(uploadId) ?? (await loadCommitProgress(db, uploadId));
     },
 
     /**
