@@ -14,9 +14,11 @@ import { errorHandler, notFoundHandler } from './middleware/error-handler';
 import { sessionLimits, sessionMiddleware } from './middleware/session';
 import { defaultSessionLimits, type SessionLimits } from './modules/auth/sessions.service';
 import { apiRoutes, mountRoutes } from './routes';
-import { createServices } from './services';
+import { createServices, DEFAULT_PUBLIC_URL } from './services';
 import { createLoginThrottle, defaultThrottleRules, type ThrottleRules } from './modules/auth/login-throttle';
 import type { UploadJobs } from './modules/uploads/upload-jobs';
+import { createSecurityLog, useSecurityLog } from './lib/security-log';
+import type { DestinationStream } from 'pino';
 
 export interface AppOptions {
   db: Db;
@@ -41,6 +43,8 @@ export interface AppOptions {
   sessionLimits?: Partial<SessionLimits>;
   /** The secret password hashes are made with besides their salts (PASSWORD_PEPPER, server/config.ts); none when omitted. */
   passwordPepper?: string;
+  /** Where the security log's JSON lines go (server/lib/security-log.ts); standard output when omitted. */
+  logDestination?: DestinationStream;
 }
 
 export function createApp(options: AppOptions): Express {
@@ -52,6 +56,7 @@ export function createApp(options: AppOptions): Express {
 
   const app = express();
   app.disable('x-powered-by');
+  useSecurityLog(app, createSecurityLog({ destination: options.logDestination, clock }));
   // req.secure (and so HSTS) and req.ip (and so the sign-in throttle) follow X-Forwarded-Proto and -For only from these proxies.
   app.set('trust proxy', options.trustProxy ?? 'loopback');
   // Text assets and JSON compressed, brotli or gzip by what the client accepts (compression ≥ 1.8 speaks both).
@@ -76,7 +81,7 @@ export function createApp(options: AppOptions): Express {
     next();
   });
 
-  const loginThrottle = createLoginThrottle(db, clock, { ...defaultThrottleRules, ...options.loginThrottle });
+  const loginThrottle = createLoginThrottle(db, clock, { ...defaultThrottleRules, ...options.loginThrottle }, options.publicUrl ?? DEFAULT_PUBLIC_URL);
 
   const api = express.Router();
   // API answers are one person's view of live data: no browser or proxy keeps them.

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex';
 
-export const mailPurposes = ['weekly_summary', 'invitation', 'password_reset', 'password_changed', 'review_notice'] as const;
+export const mailPurposes = ['weekly_summary', 'invitation', 'password_reset', 'password_changed', 'review_notice', 'security_alert'] as const;
 export type MailPurpose = (typeof mailPurposes)[number];
 
 export interface OutboxMessage {

@@ -6,6 +6,8 @@ import express from 'express';
 import request from 'supertest';
 import { afterEach, describe, expect, it } from 'vitest';
 import { errorHandler } from '../../server/middleware/error-handler';
+import { createSecurityLog } from '../../server/lib/security-log';
+import { systemClock } from '../../server/lib/clock';
 import { TOUCH_INTERVAL_MS } from '../../server/modules/tokens/tokens.service';
 import type { Clock } from '../../server/lib/clock';
 import { makeWorld, signIn, type World } from '../support/world';
@@ -125,6 +127,7 @@ describe.skipIf(onPostgres)('a full disk', () => {
       throw Object.assign(new Error('ENOSPC: no space left on device, write'), { code: 'ENOSPC', errno: -28 });
     });
     app.use(errorHandler);
+    app.locals.securityLog = createSecurityLog({ destination: { write: () => undefined }, clock: systemClock });
     const res = await request(app).get('/x');
     expect(res.status).toBe(507);
     expect(res.body.error.code).toBe('storage_full');

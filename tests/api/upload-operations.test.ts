@@ -3,6 +3,8 @@ import type { Request, Response } from 'express';
 import { describeForLog, errorHandler } from '../../server/middleware/error-handler';
 import { makeWorld, signIn, type Session, type World } from '../support/world';
 import { onPostgres } from '../support/test-database';
+import { createSecurityLog } from '../../server/lib/security-log';
+import { systemClock } from '../../server/lib/clock';
 
 let world: World;
 afterEach(async () => {
@@ -66,11 +68,12 @@ describe('the log of an unexpected error', () => {
       .insert({ project_id: 999_999, user_id: null, kind: 'measurements', filename: 'x.csv', size_bytes: 1, sha256: 'SHA-MARKER', content: secret, status: 'previewed', created_at: 'now' })
       .then(() => null, (e: unknown) => e);
     expect(failure).toBeInstanceOf(Error);
-    const logged = vi.spyOn(console, 'error').mockImplementation(() => undefined);
-    const res = { headersSent: false, status: vi.fn().mockReturnThis(), json: vi.fn() } as unknown as Response;
-    errorHandler(failure, { method: 'POST', baseUrl: '/api', path: '/projects/1/uploads' } as Request, res, () => undefined);
+    const written: string[] = [];
+    const securityLog = createSecurityLog({ destination: { write: (line: string) => void written.push(line) }, clock: systemClock });
+    const res = { headersSent: false, locals: {}, status: vi.fn().mockReturnThis(), json: vi.fn() } as unknown as Response;
+    errorHandler(failure, { method: 'POST', baseUrl: '/api', path: '/projects/1/uploads', app: { locals: { securityLog } } } as unknown as Request, res, () => undefined);
     expect(res.status).toHaveBeenCalledWith(500);
-    const text = logged.mock.calls.flat().map(String).join('\n');
+    const text = written.join('\n');
     // The cause in each engine's words (SQLite's result codes page; PostgreSQL's error 23503, foreign_key_violation), the SQL in its quoting.
     expect(text).toMatch(onPostgres ? /violates foreign key constraint "uploads_project_id_foreign"/ : /FOREIGN KEY constraint failed/);
     expect(text).toMatch(onPostgres ? /insert into "uploads"/ : /insert into `uploads`/);

@@ -33,6 +33,9 @@ export interface World {
   userIds: Record<Who, number>;
   /** The mail fake's inbox the site admin's mail page reads (tests add to it directly). */
   mailInbox: MailInbox;
+  /** The security log's lines (server/lib/security-log.ts), each parsed from its JSON, in order; `logText` as written. */
+  logLines: Array<Record<string, unknown>>;
+  logText: string[];
 }
 
 /**
@@ -67,6 +70,9 @@ export async function makeWorld(
     .insert({ project_id: p1.id, designation: 'T 1', designation_key: 't1', ra_deg: 10, dec_deg: -5, notes: '', tags: '[]', created_at: at, updated_at: at })
     .returning('id');
   const mailInbox = createMailInbox();
+  const logText: string[] = [];
+  const logLines: Array<Record<string, unknown>> = [];
+  const logDestination = { write: (line: string) => void (logText.push(line), logLines.push(JSON.parse(line))) };
   const app = createApp({
     db,
     clock: options.clock ?? fixedClock('2026-12-01T03:00:00.000Z'),
@@ -77,8 +83,9 @@ export async function makeWorld(
     clientDir: options.clientDir,
     mailInbox,
     uploadJobs: options.uploadJobs,
+    logDestination,
   });
-  return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds, mailInbox };
+  return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds, mailInbox, logLines, logText };
 }
 
 export interface Session {

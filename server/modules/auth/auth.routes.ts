@@ -8,6 +8,7 @@ import { changePasswordBody, loginBody } from '../../../shared/schemas/auth';
 import { parsed } from '../../middleware/validate';
 import type { LoginThrottle } from './login-throttle';
 import { clearSessionCookie } from '../../middleware/session';
+import { securityLogOf } from '../../lib/security-log';
 
 /** What the browser keeps of a session: the person, their roles and the CSRF token for writes. */
 export async function sessionBody(req: Request, users: UsersService) {
@@ -29,11 +30,12 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
       passport.authenticate('local', (err: unknown, user: User | false) => {
         if (err) return next(err);
         // One message whether the e-mail is unknown or the password wrong.
-        if (!user) return throttle.failed(req, email).then(() => next(new AppError(401, 'invalid_credentials')), next);
+        if (!user) return throttle.failed(req, res, email).then(() => next(new AppError(401, 'invalid_credentials')), next);
         throttle.succeeded(req, email).then(
           () =>
             req.logIn(user, (loginErr) => {
               if (loginErr) return next(loginErr);
+              securityLogOf(req).event(req, res, 'sign_in', { email });
               sessionBody(req, users).then((body) => res.json(body), next);
             }),
           next,
@@ -53,7 +55,7 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
       const wait = await throttle.waitSeconds(req, user.email);
       if (wait > 0) throw tooManyAttempts(res, wait, 'Too many wrong passwords.');
       if (!(await users.authenticate(user.email, body.currentPassword))) {
-        await throttle.failed(req, user.email);
+        await throttle.failed(req, res, user.email);
         throw validationFailed([{ path: 'currentPassword', message: 'This is not your current password.' }]);
       }
       await throttle.succeeded(req, user.email);
@@ -67,6 +69,7 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
     },
 
     logout(req: Request, res: Response, next: NextFunction) {
+      securityLogOf(req).event(req, res, 'sign_out');
       req.logout((err) => {
         if (err) return next(err);
         req.session.destroy(() => {

@@ -1,7 +1,10 @@
-import type { Request } from 'express';
+import type { Request, Response } from 'express';
 import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
 import { toIso } from '../../lib/rows';
+import { securityLogOf } from '../../lib/security-log';
+import { queueThrottleAlert } from './throttle-alert';
+import { DEFAULT_PUBLIC_URL } from '../../services';
 
 /**
  * Failed sign-ins slow further attempts, per account and per client
@@ -66,6 +69,13 @@ export interface CountRule {
 }
 
 /** The delay after `failures` failures when `free` of them are free. */
+/**
+ * Rows with no event for this long are deleted when the next event is
+ * counted (ASVS 8.3.8): longer than any rule forgets a count (a day at
+ * most), so pruning changes no delay.
+ */
+export const KEEP_COUNTS_MS = 7 * 24 * 3600 * 1000;
+
 export function delayAfter(failures: number, free: number, rules: Pick<CountRule, 'firstDelayMs' | 'maxDelayMs'>): number {
   if (failures < free) return 0;
   return Math.min(rules.maxDelayMs, rules.firstDelayMs * 2 ** Math.min(failures - free, 40));
@@ -93,9 +103,11 @@ export function createThrottleCounts(db: Db, clock: Clock) {
      * same moment by several requests or processes each count: on PostgreSQL the second waits
      * for the first's row lock and adds to what the first wrote (read-then-write lost one).
      */
-    async count(entries: ReadonlyArray<readonly [key: string, rule: CountRule]>): Promise<void> {
+    async count(entries: ReadonlyArray<readonly [key: string, rule: CountRule]>): Promise<Array<{ key: string; failures: number; delayMs: number }>> {
       const now = clock.now();
-      await db.transaction(async (trx) => {
+      return db.transaction(async (trx) => {
+        await trx('login_throttle').where('last_failure_at', '<', new Date(now.getTime() - KEEP_COUNTS_MS).toISOString()).delete();
+        const counted: Array<{ key: string; failures: number; delayMs: number }> = [];
         for (const [key, rule] of entries) {
           const forgottenBefore = new Date(now.getTime() - rule.forgetAfterMs).toISOString();
           const [row] = await trx('login_throttle')
@@ -110,7 +122,9 @@ export function createThrottleCounts(db: Db, clock: Clock) {
           await trx('login_throttle')
             .where({ key })
             .update({ blocked_until: delay > 0 ? new Date(now.getTime() + delay).toISOString() : null });
+          counted.push({ key, failures: Number(row.failures), delayMs: delay });
         }
+        return counted;
       });
     },
 
@@ -122,7 +136,8 @@ export function createThrottleCounts(db: Db, clock: Clock) {
 
 export type ThrottleCounts = ReturnType<typeof createThrottleCounts>;
 
-export function createLoginThrottle(db: Db, clock: Clock, rules: ThrottleRules = defaultThrottleRules) {
+/** `publicUrl` is for the link in the site admins' alert when a delay begins (throttle-alert.ts). */
+export function createLoginThrottle(db: Db, clock: Clock, rules: ThrottleRules = defaultThrottleRules, publicUrl: string = DEFAULT_PUBLIC_URL) {
   const counts = createThrottleCounts(db, clock);
   const keysOf = (req: Request, email: string) => ({ account: `account:${email}`, address: `address:${req.ip ?? 'unknown'}` });
   const delays = { firstDelayMs: rules.firstDelayMs, maxDelayMs: rules.maxDelayMs };
@@ -134,13 +149,21 @@ export function createLoginThrottle(db: Db, clock: Clock, rules: ThrottleRules =
       return counts.waitSeconds([account, address]);
     },
 
-    /** Counts a failure against the account and the address, and sets the delay each has earned; one transaction. */
-    async failed(req: Request, email: string): Promise<void> {
+    /**
+     * Counts a failure against the account and the address, and sets the delay each has earned; one transaction.
+     * When a delay is in force for either, the site admins are mailed (at most once an hour for each) and the log says so.
+     */
+    async failed(req: Request, res: Response, email: string): Promise<void> {
       const { account, address } = keysOf(req, email);
-      await counts.count([
+      const counted = await counts.count([
         [account, { free: rules.accountFreeFailures, forgetAfterMs: rules.accountForgetAfterMs, ...delays }],
         [address, { free: rules.addressFreeFailures, forgetAfterMs: rules.addressForgetAfterMs, ...delays }],
       ]);
+      for (const { key, failures, delayMs } of counted) {
+        if (delayMs === 0) continue;
+        const admins = await queueThrottleAlert(db, { subject: key, failures, at: clock.now(), publicUrl });
+        if (admins > 0) securityLogOf(req).event(req, res, 'throttle_alert', { subject: key, failures, admins });
+      }
     },
 
     /** A correct password clears the account's count (not the address's: one good account must not excuse guesses at others). */
