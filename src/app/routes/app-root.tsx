@@ -6,6 +6,7 @@ import { paths } from '@/config/paths';
 import { useLogout, useMe, whySessionEndedBeforeThisPage } from '@/lib/auth';
 import { forgetTyping, hasUnsavedTyping, useSessionEnded, watchTyping } from '@/lib/session-ended';
 import { Alert } from '@/components/ui/alert';
+import { PasswordChangeRequired } from '@/features/auth/components/password-change-required';
 import { Button } from '@/components/ui/button';
 import { AppShell } from '@/components/layouts/app-shell';
 import { QueryError } from '@/components/errors/query-error';
@@ -75,6 +76,20 @@ export function AppRoot() {
     return <Navigate to={paths.auth.signIn.getHref(signingOut ? null : here)} replace state={reason ? { sessionEnded: reason } : undefined} />;
   }
 
+  const signOut = () => {
+    setSigningOut(true);
+    logout.mutate(undefined, {
+      onSuccess: () => navigate(paths.auth.signIn.getHref(), { replace: true }),
+      onError: () => {
+        setSigningOut(false);
+      },
+    });
+  };
+  // An account that must choose a new password first sees only that (the server refuses it everything else).
+  if (me.data.user.mustChangePassword) {
+    return <PasswordChangeRequired email={me.data.user.email} reason={me.data.user.mustChangePassword} signingOut={logout.isPending} onSignOut={signOut} />;
+  }
+
   return (
     <AppShell
       userName={me.data.user.name}
@@ -83,15 +98,7 @@ export function AppRoot() {
       projectPending={project === 'pending'}
       signingOut={logout.isPending}
       signOutError={logout.isError ? logout.error.message : null}
-      onSignOut={() => {
-        setSigningOut(true);
-        logout.mutate(undefined, {
-          onSuccess: () => navigate(paths.auth.signIn.getHref(), { replace: true }),
-          onError: () => {
-            setSigningOut(false);
-          },
-        });
-      }}
+      onSignOut={signOut}
     >
       {ended ? (
         <Alert kind="caution" title={ended} className="mb-6">

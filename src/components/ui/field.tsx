@@ -1,5 +1,6 @@
 import { useId, useState, type ComponentProps, type ReactNode } from 'react';
 import { cn } from '@/lib/cn';
+import { PasswordStrength } from './password-strength';
 
 interface FieldShellProps {
   label: ReactNode;
@@ -99,32 +100,54 @@ export function TextField({ label, hint, error, className, id, ...input }: Field
  * name ("Show" and, for screen readers, the field's label) and tells its
  * state with aria-pressed; it is a plain button, so Tab reaches it and Space
  * or Enter presses it.
+ *
+ * `strength` puts a strength meter under a field where a new password is
+ * chosen (PasswordStrength), given the account's own words (e-mail, name),
+ * which make a password easy to guess.
  */
-export function PasswordField({ label, hint, error, className, id, ...input }: FieldShellProps & Omit<ComponentProps<'input'>, 'type'>) {
+export function PasswordField({
+  label,
+  hint,
+  error,
+  className,
+  id,
+  strength,
+  onChange,
+  ...input
+}: FieldShellProps & Omit<ComponentProps<'input'>, 'type'> & { strength?: { userInputs?: string[] } }) {
   const [shown, setShown] = useState(false);
+  const [typed, setTyped] = useState('');
   return (
     <Field label={label} hint={hint} error={error} className={className} id={id}>
       {(control) => (
-        <div className="flex">
-          <input
-            {...control}
-            type={shown ? 'text' : 'password'}
-            autoCapitalize="off"
-            autoCorrect="off"
-            spellCheck={false}
-            className={cn(controlClasses(Boolean(error)), 'min-w-0 flex-1 rounded-r-none')}
-            {...input}
-          />
-          <button
-            type="button"
-            aria-pressed={shown}
-            aria-controls={control.id}
-            onClick={() => setShown((s) => !s)}
-            className="shrink-0 rounded-r-sm border border-l-0 border-rule bg-paper px-3 font-sans text-sm font-medium text-brass hover:bg-paper-deep aria-pressed:border-brass-deep aria-pressed:bg-brass aria-pressed:text-paper aria-pressed:hover:bg-brass-deep"
-          >
-            Show<span className="sr-only"> {typeof label === 'string' ? label.toLowerCase() : 'password'}</span>
-          </button>
-        </div>
+        <>
+          <div className="flex">
+            <input
+              {...control}
+              aria-describedby={[control['aria-describedby'], strength && `${control.id}-strength`].filter(Boolean).join(' ') || undefined}
+              type={shown ? 'text' : 'password'}
+              autoCapitalize="off"
+              autoCorrect="off"
+              spellCheck={false}
+              className={cn(controlClasses(Boolean(error)), 'min-w-0 flex-1 rounded-r-none')}
+              onChange={(e) => {
+                if (strength) setTyped(e.target.value);
+                onChange?.(e);
+              }}
+              {...input}
+            />
+            <button
+              type="button"
+              aria-pressed={shown}
+              aria-controls={control.id}
+              onClick={() => setShown((s) => !s)}
+              className="shrink-0 rounded-r-sm border border-l-0 border-rule bg-paper px-3 font-sans text-sm font-medium text-brass hover:bg-paper-deep aria-pressed:border-brass-deep aria-pressed:bg-brass aria-pressed:text-paper aria-pressed:hover:bg-brass-deep"
+            >
+              Show<span className="sr-only"> {typeof label === 'string' ? label.toLowerCase() : 'password'}</span>
+            </button>
+          </div>
+          {strength ? <PasswordStrength id={`${control.id}-strength`} password={typed} userInputs={strength.userInputs} /> : null}
+        </>
       )}
     </Field>
   );

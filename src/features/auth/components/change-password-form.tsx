@@ -42,7 +42,14 @@ export function ChangePasswordForm({ email }: { email: string }) {
       {done ? <Alert kind="done" title={done} /> : null}
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
       <PasswordField label="Current password" autoComplete="current-password" error={errors.currentPassword?.message} {...register('currentPassword')} />
-      <PasswordField label="New password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
+      <PasswordField
+        label="New password"
+        autoComplete="new-password"
+        hint={PASSWORD_HINT}
+        strength={{ userInputs: [email] }}
+        error={errors.password?.message}
+        {...register('password')}
+      />
       <PasswordField label="The new password again" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
       <Button type="submit" disabled={isSubmitting}>
         {isSubmitting ? 'Saving…' : 'Change the password'}

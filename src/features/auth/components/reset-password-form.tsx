@@ -33,7 +33,14 @@ export function ResetPasswordForm({ token, email, onDone }: { token: string; ema
     <form onSubmit={onSubmit} noValidate aria-label="Set a new password" className="space-y-4">
       {formError ? <Alert title="The password was not changed.">{formError}</Alert> : null}
       <input type="email" name="username" autoComplete="username" value={email} readOnly hidden />
-      <PasswordField label="New password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
+      <PasswordField
+        label="New password"
+        autoComplete="new-password"
+        hint={PASSWORD_HINT}
+        strength={{ userInputs: [email] }}
+        error={errors.password?.message}
+        {...register('password')}
+      />
       <PasswordField label="The same again" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
       <Button type="submit" className="w-full" disabled={isSubmitting}>
         {isSubmitting ? 'Saving…' : 'Set the new password'}

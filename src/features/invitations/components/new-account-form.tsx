@@ -1,4 +1,4 @@
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { PASSWORD_HINT, samePassword, samePasswordIssue } from '@shared/schemas/auth';
@@ -21,12 +21,14 @@ export function NewAccountForm({ token, email, onAccepted }: { token: string; em
     register,
     handleSubmit,
     setError,
+    control,
     formState: { errors, isSubmitting },
   } = useForm<z.input<typeof newAccountForm>, unknown, NewAccountForm>({
     resolver: zodResolver(newAccountForm, formParseOptions),
     defaultValues: { name: '', password: '', repeat: '' },
   });
   const { formError, send } = useServerErrors(setError, FIELDS);
+  const name = useWatch({ control, name: 'name' });
 
   const onSubmit = handleSubmit(async ({ name, password }) => {
     await send(async () => onAccepted((await accept.mutateAsync({ token, name, password })).projectId));
@@ -37,7 +39,14 @@ export function NewAccountForm({ token, email, onAccepted }: { token: string; em
       {formError ? <Alert title="The invitation was not accepted.">{formError}</Alert> : null}
       <TextField label="E-mail" type="email" autoComplete="username" value={email} readOnly hint="The invited address; it becomes your sign-in name." />
       <TextField label="Your name" autoComplete="name" hint="As your colleagues will see it in the trail." error={errors.name?.message} {...register('name')} />
-      <PasswordField label="Password" autoComplete="new-password" hint={PASSWORD_HINT} error={errors.password?.message} {...register('password')} />
+      <PasswordField
+        label="Password"
+        autoComplete="new-password"
+        hint={PASSWORD_HINT}
+        strength={{ userInputs: [email, name] }}
+        error={errors.password?.message}
+        {...register('password')}
+      />
       <PasswordField label="The same again" autoComplete="new-password" error={errors.repeat?.message} {...register('repeat')} />
       <Button type="submit" className="w-full" disabled={isSubmitting}>
         {isSubmitting ? 'Creating your account…' : 'Create my account and join'}

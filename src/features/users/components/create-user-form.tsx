@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
 import { createUserBody, PASSWORD_HINT, type CreateUserBody, type User } from '@shared/schemas/auth';
@@ -24,12 +24,14 @@ export function CreateUserForm() {
     handleSubmit,
     setError,
     reset,
+    control,
     formState: { errors, isSubmitting },
   } = useForm<z.input<typeof createUserBody>, unknown, CreateUserBody>({
     resolver: zodResolver(createUserBody, formParseOptions),
     defaultValues: { email: '', name: '', password: '', isSiteAdmin: false },
   });
   const { formError, send } = useServerErrors(setError, FIELDS);
+  const [email, name] = useWatch({ control, name: ['email', 'name'] });
 
   const onSubmit = handleSubmit(async (body) => {
     setCreated(null);
@@ -49,6 +51,7 @@ export function CreateUserForm() {
         label="First password"
         autoComplete="new-password"
         hint={PASSWORD_HINT}
+        strength={{ userInputs: [email, name] }}
         error={errors.password?.message}
         {...register('password')}
       />
