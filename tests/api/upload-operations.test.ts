@@ -73,7 +73,9 @@ describe('the log of an unexpected error', () => {
     const res = { headersSent: false, locals: {}, status: vi.fn().mockReturnThis(), json: vi.fn() } as unknown as Response;
     errorHandler(failure, { method: 'POST', baseUrl: '/api', path: '/projects/1/uploads', app: { locals: { securityLog } } } as unknown as Request, res, () => undefined);
     expect(res.status).toHaveBeenCalledWith(500);
-    const text = written.join('\n');
+    // The log's lines are JSON (server/lib/security-log.ts): the cause is read from the line's error field, not from its escaped text.
+    const text = written.map((line) => String((JSON.parse(line) as { error?: unknown }).error)).join('\n');
+    for (const leak of ['CONTENT-OF-A-FILE', 'SHA-MARKER']) expect(written.join('\n')).not.toContain(leak);
     // The cause in each engine's words (SQLite's result codes page; PostgreSQL's error 23503, foreign_key_violation), the SQL in its quoting.
     expect(text).toMatch(onPostgres ? /violates foreign key constraint "uploads_project_id_foreign"/ : /FOREIGN KEY constraint failed/);
     expect(text).toMatch(onPostgres ? /insert into "uploads"/ : /insert into `uploads`/);
