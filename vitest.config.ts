@@ -8,12 +8,19 @@ const alias = {
 
 // Three projects so `npm test` can run the fast ones first and the browser
 // tests only after the production build they drive exists.
+//
+// Vitest's default is one worker fewer than the CPUs, so one on a 2-core
+// machine; the API tests spend much of their time waiting (password hashes
+// on libuv's threads, PostgreSQL in its own processes), so three run side by
+// side, and the browser test files two (each starts its own server on a free
+// port with its own data directory: tests/e2e/support/harness.ts). The
+// timeouts are guards against a hang, not measures of speed.
 export default defineConfig({
   resolve: { alias },
   test: {
     projects: [
       { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'tests/unit/**/*.test.tsx'], environment: 'node' } },
-      { resolve: { alias }, test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', globalSetup: ['tests/support/test-database.ts'] } },
+      { resolve: { alias }, test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', globalSetup: ['tests/support/test-database.ts'], maxWorkers: 3, testTimeout: 30_000 } },
       {
         resolve: { alias },
         test: {
@@ -23,7 +30,9 @@ export default defineConfig({
           globalSetup: ['tests/support/test-database.ts'],
           testTimeout: 60_000,
           hookTimeout: 120_000,
-          fileParallelism: false,
+          maxWorkers: 2,
+          // expect.poll waits for what a page shows after its own timers and requests: up to 15 s on a loaded machine, not the default 1 s.
+          expect: { poll: { timeout: 15_000 } },
         },
       },
     ],
