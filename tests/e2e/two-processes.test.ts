@@ -78,9 +78,15 @@ describe.skipIf(!onPostgres)('two app processes on one PostgreSQL database', () 
   let apps: RunningApp[] = [];
   let projectId: number;
 
-  /** Both processes at once, on the one database, sending through the one fake. */
+  /**
+   * Both processes at once, on the one database, sending through the one
+   * fake, each with its own data directory but the secrets the README says
+   * every process must share: a password hashed by one (with its pepper) is
+   * checked by the other, a session signed by one is read by the other.
+   */
+  const sharedSecrets = { PASSWORD_PEPPER: 'two-processes-pepper-'.padEnd(64, 'p'), SESSION_SECRET: 'two-processes-session-secret', SECOND_FACTOR_KEY: 'two-processes-second-factor-key'.padEnd(64, 'k') };
   const startBoth = async () => {
-    const started = await Promise.allSettled([0, 1].map(() => startApp({ databaseUrl: database.url, env: { SMTP_URL: smtp.url } })));
+    const started = await Promise.allSettled([0, 1].map(() => startApp({ databaseUrl: database.url, env: { SMTP_URL: smtp.url, ...sharedSecrets } })));
     apps = started.flatMap((s) => (s.status === 'fulfilled' ? [s.value] : []));
     const failed = started.find((s) => s.status === 'rejected');
     if (failed) throw failed.reason;
