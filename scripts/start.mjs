@@ -36,4 +36,6 @@ if (stale('build/server.js', ['server', 'shared', 'migrations', 'seeds'])) {
 process.env.NODE_ENV ??= 'production';
 // The demo: the server itself seeds nothing unless asked (server/config.ts); `npm start` asks, unless SEED_DEMO=false.
 process.env.SEED_DEMO ??= 'true';
+// The demo's site admin has no second factor, so the demo lets site-admin pages go without one; a real site leaves this unset (required; README).
+if (process.env.SEED_DEMO === 'true') process.env.ADMIN_SECOND_FACTOR ??= 'optional';
 await import(path.join(root, 'build/server.js'));

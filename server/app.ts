@@ -43,6 +43,10 @@ export interface AppOptions {
   sessionLimits?: Partial<SessionLimits>;
   /** The secret password hashes are made with besides their salts (PASSWORD_PEPPER, server/config.ts); none when omitted. */
   passwordPepper?: string;
+  /** Whether site-admin routes need a session that passed the second factor (ADMIN_SECOND_FACTOR); `required` when omitted. */
+  adminSecondFactor?: 'required' | 'optional';
+  /** The key one-time password secrets are encrypted with (SECOND_FACTOR_KEY); a random one for this app when omitted (tests). */
+  secondFactorKey?: string;
   /** Where the security log's JSON lines go (server/lib/security-log.ts); standard output when omitted. */
   logDestination?: DestinationStream;
 }
@@ -51,12 +55,14 @@ export function createApp(options: AppOptions): Express {
   const { db } = options;
   const clock = options.clock ?? systemClock;
   const limits = { ...defaultSessionLimits, ...options.sessionLimits };
-  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits, passwordPepper: options.passwordPepper });
+  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits, passwordPepper: options.passwordPepper, secondFactorKey: options.secondFactorKey });
   const passport = createPassport(services.users);
 
   const app = express();
   app.disable('x-powered-by');
   useSecurityLog(app, createSecurityLog({ destination: options.logDestination, clock }));
+  // Read by the access gate for site-admin routes (server/middleware/access.ts).
+  app.locals.adminSecondFactor = options.adminSecondFactor ?? 'required';
   // req.secure (and so HSTS) and req.ip (and so the sign-in throttle) follow X-Forwarded-Proto and -For only from these proxies.
   app.set('trust proxy', options.trustProxy ?? 'loopback');
   // Text assets and JSON compressed, brotli or gzip by what the client accepts (compression ≥ 1.8 speaks both).

@@ -25,7 +25,15 @@ export const config = {
   /** A signed-in session ends this many hours after sign-in, and after this many minutes without use (ASVS 3.3.2 level 2: at most 12 and 30). */
   sessionMaxHours: positiveNumber('SESSION_MAX_HOURS', 12),
   sessionIdleMinutes: positiveNumber('SESSION_IDLE_MINUTES', 30),
+  /** Whether site-admin routes need a session that passed the second factor (ASVS 4.3.1): `required` unless ADMIN_SECOND_FACTOR=optional (the demo's `npm start`). */
+  adminSecondFactor: adminSecondFactorOf(process.env.ADMIN_SECOND_FACTOR),
 };
+
+function adminSecondFactorOf(raw: string | undefined): 'required' | 'optional' {
+  if (raw === undefined || raw.trim() === '' || raw === 'required') return 'required';
+  if (raw === 'optional') return 'optional';
+  throw new Error(`ADMIN_SECOND_FACTOR must be required or optional (it is "${raw}").`);
+}
 
 /** A setting that must be a number above zero; anything else stops the start with the setting's name. */
 function positiveNumber(name: string, fallback: number): number {
@@ -61,6 +69,16 @@ export function sessionSecret(): string {
  */
 export function passwordPepper(): string {
   return process.env.PASSWORD_PEPPER || secretKeptIn('password-pepper');
+}
+
+/**
+ * SECOND_FACTOR_KEY, or one made once and kept in DATA_DIR/second-factor-key:
+ * the key each account's one-time password secret is encrypted with
+ * (server/modules/second-factor; ASVS 2.9.1), kept apart from the database as
+ * the pepper is. Without it no code verifies; give every process the same one.
+ */
+export function secondFactorKey(): string {
+  return process.env.SECOND_FACTOR_KEY || secretKeptIn('second-factor-key');
 }
 
 /**

@@ -1,6 +1,6 @@
 import path from 'node:path';
 import { createApp } from './app';
-import { config, passwordPepper, sessionSecret } from './config';
+import { config, passwordPepper, secondFactorKey, sessionSecret } from './config';
 import { createDb, DatabaseNotWritableError, migrateLatest, resolveDatabaseUrl } from './db/knex';
 import { systemClock } from './lib/clock';
 import { createSmtpMailer } from './mail/mailer';
@@ -41,6 +41,8 @@ async function main() {
     mailer,
     sessionSecret: sessionSecret(),
     passwordPepper: passwordPepper(),
+    secondFactorKey: secondFactorKey(),
+    adminSecondFactor: config.adminSecondFactor,
     secureCookies: config.secureCookies,
     trustProxy: config.trustProxy,
     clientDir: config.clientDir,

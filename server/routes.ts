@@ -37,6 +37,9 @@ import { caughtMailParams, mailFakeHandlers } from './modules/mail-fake/mail-fak
 import { invitationParams, invitationsHandlers } from './modules/invitations/invitations.routes';
 import { passwordResetsHandlers } from './modules/password-resets/password-resets.routes';
 import { acceptInvitationBody, createInvitationBody } from '../shared/schemas/invitations';
+import { confirmSecondFactorBody, signInCodeBody, turnOffSecondFactorBody } from '../shared/schemas/second-factor';
+import { secondFactorHandlers } from './modules/second-factor/second-factor.routes';
+import { confirmations } from './middleware/confirmation';
 
 type Method = 'get' | 'post' | 'patch' | 'delete';
 
@@ -54,6 +57,8 @@ export interface RouteDef {
   before?: RequestHandler[];
   /** Middleware after the access gate and before validation (reading a multipart file). */
   receive?: RequestHandler[];
+  /** After validation: the re-authentication a sensitive change carries in its body (server/middleware/confirmation.ts). */
+  confirm?: RequestHandler;
   handler: RequestHandler;
 }
 
@@ -63,7 +68,9 @@ export interface RouteDef {
  * may call it.
  */
 export function apiRoutes(services: Services, passport: StarledgerPassport, loginThrottle: LoginThrottle): RouteDef[] {
-  const auth = authHandlers(passport, services.users, loginThrottle);
+  const secondFactor = secondFactorHandlers(services.secondFactor, services.users, loginThrottle);
+  const auth = authHandlers(passport, services.users, loginThrottle, secondFactor.askForCode);
+  const confirm = confirmations(services.users, services.secondFactor, loginThrottle);
   const sessions = sessionsHandlers(services.sessions);
   const users = usersHandlers(services.users);
   const projects = projectsHandlers(services.projects);
@@ -89,6 +96,8 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
 
     // Sign-in
     { method: 'post', path: '/auth/login', access: anyone, body: loginBody, handler: auth.login },
+    // The code step of a sign-in whose account has the second factor on: only then is the session signed in
+    { method: 'post', path: '/auth/login/code', access: anyone, body: signInCodeBody, handler: secondFactor.signIn },
     { method: 'post', path: '/auth/logout', access: ownAccount, handler: auth.logout },
     { method: 'get', path: '/auth/me', access: ownAccount, handler: auth.me },
     // A signed-in person's new password: the current one is asked for, and every other session ends.
@@ -98,6 +107,11 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'get', path: '/auth/sessions', access: signedIn, handler: sessions.list },
     { method: 'post', path: '/auth/sessions/end-others', access: signedIn, handler: sessions.endOthers },
     { method: 'delete', path: '/auth/sessions/:sessionId', access: signedIn, params: sessionParams, handler: sessions.end },
+    // The second factor (one-time codes): its state, a secret to enrol, the code that turns it on, and turning it off (password and code)
+    { method: 'get', path: '/auth/second-factor', access: signedIn, handler: secondFactor.status },
+    { method: 'post', path: '/auth/second-factor/setup', access: signedIn, handler: secondFactor.begin },
+    { method: 'post', path: '/auth/second-factor/confirm', access: signedIn, body: confirmSecondFactorBody, handler: secondFactor.confirm },
+    { method: 'post', path: '/auth/second-factor/off', access: signedIn, body: turnOffSecondFactorBody, confirm: confirm('passwordAndCode'), handler: secondFactor.turnOff },
     // A forgotten password: the link's token travels in the body, never in a URL that logs keep
     { method: 'post', path: '/auth/password-reset', access: anyone, body: passwordResetRequestBody, handler: passwordResets.request },
     { method: 'post', path: '/auth/password-reset/lookup', access: anyone, body: linkBody, handler: passwordResets.lookup },
@@ -109,7 +123,7 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
 
     // Personal API tokens
     { method: 'get', path: '/tokens', access: signedIn, handler: tokens.list },
-    { method: 'post', path: '/tokens', access: signedIn, body: createTokenBody, handler: tokens.create },
+    { method: 'post', path: '/tokens', access: signedIn, body: createTokenBody, confirm: confirm('passwordOrCode'), handler: tokens.create },
     { method: 'delete', path: '/tokens/:tokenId', access: signedIn, params: tokenParams, handler: tokens.revoke },
 
     // Mail preferences (each person's own, per project they belong to)
@@ -121,7 +135,7 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
 
     // Accounts (site admin)
     { method: 'get', path: '/users', access: siteAdmin, handler: users.list },
-    { method: 'post', path: '/users', access: siteAdmin, body: createUserBody, handler: users.create },
+    { method: 'post', path: '/users', access: siteAdmin, body: createUserBody, confirm: confirm('passwordOrCode'), handler: users.create },
 
     // Projects
     { method: 'get', path: '/projects', access: signedIn, handler: projects.list },
@@ -199,6 +213,7 @@ export function mountRoutes(db: Db, routes: RouteDef[]): Router {
     if (r.params) chain.push(validate('params', r.params));
     if (r.query) chain.push(validate('query', r.query));
     if (r.body) chain.push(validate('body', r.body));
+    if (r.confirm) chain.push(r.confirm);
     router[r.method](r.path, ...chain, r.handler);
   }
   return router;

@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import type { Db } from './db/knex';
 import type { Clock } from './lib/clock';
 import { createUsersService } from './modules/users/users.service';
@@ -15,6 +16,7 @@ import { createMailFakeService } from './modules/mail-fake/mail-fake.service';
 import { createInvitationsService } from './modules/invitations/invitations.service';
 import { createPasswordResetsService } from './modules/password-resets/password-resets.service';
 import { createSessionsService, type SessionLimits } from './modules/auth/sessions.service';
+import { createSecondFactorService } from './modules/second-factor/second-factor.service';
 import type { MailInbox } from './mail/fake-smtp';
 import type { UploadJobs } from './modules/uploads/upload-jobs';
 
@@ -29,6 +31,8 @@ export interface ServiceOptions {
   sessionLimits?: SessionLimits;
   /** The secret password hashes are made with (PASSWORD_PEPPER; server/lib/passwords.ts); plain scrypt when omitted. */
   passwordPepper?: string;
+  /** The key one-time password secrets are encrypted with (SECOND_FACTOR_KEY; second-factor.service.ts); a random one for this process when omitted (tests). */
+  secondFactorKey?: string;
 }
 
 export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
@@ -52,6 +56,7 @@ export function createServices(db: Db, clock: Clock, options: ServiceOptions = {
     invitations: createInvitationsService(db, clock, { publicUrl, pepper: options.passwordPepper }),
     passwordResets: createPasswordResetsService(db, clock, { publicUrl, pepper: options.passwordPepper }),
     sessions: createSessionsService(db, clock, options.sessionLimits),
+    secondFactor: createSecondFactorService(db, clock, options.secondFactorKey ?? randomBytes(32).toString('hex')),
   };
 }
 

@@ -11,6 +11,10 @@ declare global {
 declare module 'express-session' {
   interface SessionData {
     csrfToken?: string;
+    /** When this session's sign-in passed the second factor (server/modules/second-factor); site-admin routes ask for it. */
+    secondFactorAt?: string;
+    /** A correct password whose account still owes its one-time code: not signed in yet. */
+    secondFactorPending?: { userId: number; email: string; at: string };
   }
 }
 

@@ -12,6 +12,7 @@ export const errorCodes = {
   invalid_credentials: 'That e-mail and password do not match an account.',
   forbidden: 'Your role in this project does not allow that.',
   password_change_required: 'Choose a new password before going on.',
+  second_factor_required: 'Site admin pages need a second factor: turn it on under Account, or sign in again with your code.',
   not_found: 'Not found.',
   conflict: 'That conflicts with existing data.',
   stale_value: 'A value changed since you saw it. Look at it again before deciding.',

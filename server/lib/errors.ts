@@ -21,6 +21,20 @@ export const unauthenticated = () => new AppError(401, 'unauthenticated');
 /** 403 for an account that must choose a new password before anything else (server/middleware/access.ts), saying why. */
 export const passwordChangeRequired = (reason: PasswordChangeReason) =>
   new AppError(403, 'password_change_required', passwordChangeReasons[reason], { reason });
+/**
+ * 403 for a site admin whose session did not pass a second factor
+ * (server/middleware/access.ts; ASVS 4.3.1): what to do, whether or not the
+ * account has one.
+ */
+export const secondFactorRequired = (hasOne: boolean) =>
+  new AppError(
+    403,
+    'second_factor_required',
+    hasOne
+      ? 'Site admin pages need a sign-in with your second factor. Sign out and sign in again with a code from your authenticator app.'
+      : 'Site admin pages need a second factor. Turn it on under Account (Second factor), then come back.',
+    { secondFactorOn: hasOne },
+  );
 /** 401 for a request whose session ran out (server/middleware/session.ts, sessionLimits), saying why. */
 export const sessionEnded = (message: string) => new AppError(401, 'session_ended', message);
 export const conflict = (message: string, details?: FieldIssue[]) => new AppError(409, 'conflict', message, details);

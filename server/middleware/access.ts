@@ -1,7 +1,7 @@
 import type { NextFunction, Request, Response } from 'express';
 import { roleCan, type Permission } from '../../shared/schemas/roles';
 import type { Db } from '../db/knex';
-import { forbidden, notFound, passwordChangeRequired, sessionEnded, unauthenticated } from '../lib/errors';
+import { forbidden, notFound, passwordChangeRequired, secondFactorRequired, sessionEnded, unauthenticated } from '../lib/errors';
 import { roleInProject } from '../modules/projects/projects.repository';
 import type { ProjectAccess } from '../types';
 
@@ -21,6 +21,9 @@ export const inProject = (permission: Permission): Access => ({ kind: 'project',
  * permission gets 403. An account that must choose a new password first
  * (users.must_change_password) gets 403 password_change_required, with the
  * reason, on every route but those open to anyone and the ownAccount ones.
+ * A site admin's route also wants the session to have passed the second
+ * factor (403 second_factor_required), unless the app's
+ * `adminSecondFactor` is `optional`.
  */
 export function requireAccess(db: Db, access: Access) {
   return async (req: Request, res: Response, next: NextFunction) => {
@@ -30,6 +33,8 @@ export function requireAccess(db: Db, access: Access) {
     if (access.kind === 'user') return next();
     if (access.kind === 'siteAdmin') {
       if (!req.user.isSiteAdmin) throw forbidden('Only a site admin can do that.');
+      // Administration needs a session that passed the second factor, unless ADMIN_SECOND_FACTOR=optional (ASVS 4.3.1); an API token never did.
+      if (req.app.locals.adminSecondFactor !== 'optional' && !(req.user.secondFactor && req.session?.secondFactorAt)) throw secondFactorRequired(req.user.secondFactor);
       return next();
     }
     const projectId = Number(req.params.projectId);

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { projectRole } from './roles';
+import { confirmationFields } from './second-factor';
 
 export const loginBody = z.object({
   email: z.string().trim().toLowerCase().email('Enter an e-mail address.'),
@@ -14,6 +15,8 @@ export const userSchema = z.object({
   isSiteAdmin: z.boolean(),
   /** Null, or why the account must choose a new password before anything else (passwordChangeReasons). */
   mustChangePassword: z.enum(['weak', 'initial']).nullable(),
+  /** Whether sign-in asks for a one-time code after the password (server/modules/second-factor). */
+  secondFactor: z.boolean(),
 });
 export type User = z.infer<typeof userSchema>;
 export type PasswordChangeReason = NonNullable<User['mustChangePassword']>;
@@ -91,6 +94,8 @@ export const createUserBody = z.object({
   name: z.string().trim().min(1, 'Enter a name.').max(120),
   password: passwordRule,
   isSiteAdmin: z.boolean().default(false),
+  // The site admin confirms a new account with their own password or a code (ASVS 4.3.3).
+  ...confirmationFields,
 });
 export type CreateUserBody = z.infer<typeof createUserBody>;
 

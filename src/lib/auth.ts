@@ -1,5 +1,6 @@
 import { queryOptions, useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { LoginBody, MeResponse, User } from '@shared/schemas/auth';
+import type { SecondFactorAsked, SignInCodeBody } from '@shared/schemas/second-factor';
 import { api, isApiError, setCsrfToken } from './api-client';
 import { clearSessionEnded, reportSessionEnded, SESSION_ENDED_FALLBACK } from './session-ended';
 
@@ -97,14 +98,32 @@ export function adoptSession(queryClient: QueryClient, me: MeResponse) {
   void queryClient.invalidateQueries({ queryKey: authKeys.me() });
 }
 
-export function login(body: LoginBody): Promise<MeResponse> {
-  return api.post<MeResponse>('/auth/login', body);
+/** A correct password signs in, or, for an account with the second factor on, asks for its code (loginCode) first. */
+export function login(body: LoginBody): Promise<MeResponse | SecondFactorAsked> {
+  return api.post<MeResponse | SecondFactorAsked>('/auth/login', body);
 }
+
+export const codeAsked = (answer: MeResponse | SecondFactorAsked): answer is SecondFactorAsked => 'secondFactorRequired' in answer;
 
 export function useLogin() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: login,
+    onSuccess: (answer) => {
+      if (!codeAsked(answer)) adoptSession(queryClient, answer);
+    },
+  });
+}
+
+/** The sign-in's code step: a current one-time code or an unused recovery code; only then is the session signed in. */
+export function loginCode(body: SignInCodeBody): Promise<MeResponse> {
+  return api.post<MeResponse>('/auth/login/code', body);
+}
+
+export function useLoginCode() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: loginCode,
     onSuccess: (me) => adoptSession(queryClient, me),
   });
 }

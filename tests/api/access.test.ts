@@ -7,7 +7,10 @@ import { createLoginThrottle } from '../../server/modules/auth/login-throttle';
 import { createDb } from '../../server/db/knex';
 import { systemClock } from '../../server/lib/clock';
 import { hashLinkToken } from '../../server/lib/link-tokens';
-import { emails, makeWorld, openLink, PASSWORD, proposeValue, signIn, type Who, type World } from '../support/world';
+import { emails, makeWorld, openLink, PASSWORD, proposeValue, signIn, type Session, type Who, type World } from '../support/world';
+import { codeAt, enrolSecondFactor } from '../support/second-factor';
+
+type Agent = ReturnType<typeof request.agent>;
 
 /**
  * Walks every API route with every kind of caller and checks the status.
@@ -26,8 +29,8 @@ const summaryKeepers = ['lead', 'pi'] as const;
 
 interface Case {
   rule: Rule;
-  /** A request body a permitted caller would send (it may first put what it names into the world's database). */
-  body?: (w: World) => object | Promise<object>;
+  /** A request body a permitted caller would send (it may first put what it names into the world's database, or bring the caller's session to the step the route wants). */
+  body?: (w: World, caller: Session | undefined, agent: Agent) => object | Promise<object>;
   query?: string;
   /** Send SAMPLE_FILE as the multipart field `file`. */
   file?: boolean;
@@ -35,6 +38,15 @@ interface Case {
 
 const cases: Record<string, Case> = {
   'POST /auth/login': { rule: 'public' },
+  // The code step after the password of an account with the second factor on (the reader's, enrolled here), a recovery code for the code.
+  'POST /auth/login/code': {
+    rule: 'public',
+    body: async (w, _caller, agent) => {
+      const { recoveryCodes } = await enrolSecondFactor(await signIn(w.app, 'reader'), w.clock.now());
+      await agent.post('/api/auth/login').send({ email: emails.reader, password: PASSWORD }).expect(200);
+      return { code: recoveryCodes[0] };
+    },
+  },
   'POST /auth/logout': { rule: 'signed-in' },
   'GET /auth/me': { rule: 'signed-in' },
   'POST /auth/password': { rule: 'signed-in', body: () => ({ currentPassword: PASSWORD, password: 'a-new-long-password' }) },
@@ -42,6 +54,21 @@ const cases: Record<string, Case> = {
   'GET /auth/sessions': { rule: 'signed-in' },
   'POST /auth/sessions/end-others': { rule: 'signed-in' },
   'DELETE /auth/sessions/:sessionId': { rule: 'signed-in' },
+  'GET /auth/second-factor': { rule: 'signed-in' },
+  'POST /auth/second-factor/setup': { rule: 'signed-in' },
+  'POST /auth/second-factor/confirm': {
+    rule: 'signed-in',
+    body: async (w, caller) => {
+      if (!caller) return { code: '123456' };
+      const setup = await caller.agent.post('/api/auth/second-factor/setup').set('X-CSRF-Token', caller.csrf).expect(200);
+      return { code: codeAt(setup.body.secret, w.clock.now()) };
+    },
+  },
+  // Turning it off wants the password and a code: a recovery code, as the enrolment took this 30-second step's code.
+  'POST /auth/second-factor/off': {
+    rule: 'signed-in',
+    body: async (w, caller) => (caller ? { currentPassword: PASSWORD, code: (await enrolSecondFactor(caller, w.clock.now())).recoveryCodes[0] } : {}),
+  },
   'POST /auth/password-reset': { rule: 'public', body: () => ({ email: emails.reader }) },
   'POST /auth/password-reset/lookup': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset') }) },
   'POST /auth/password-reset/complete': { rule: 'public', body: async (w) => ({ token: await openLink(w, 'reset'), password: 'a-new-long-password' }) },
@@ -51,13 +78,13 @@ const cases: Record<string, Case> = {
   'POST /projects/:projectId/invitations': { rule: leads, body: () => ({ email: 'invited@test.invalid', role: 'reader' }) },
   'DELETE /projects/:projectId/invitations/:invitationId': { rule: leads },
   'GET /tokens': { rule: 'signed-in' },
-  'POST /tokens': { rule: 'signed-in', body: () => ({ name: 'night pipeline' }) },
+  'POST /tokens': { rule: 'signed-in', body: () => ({ name: 'night pipeline', currentPassword: PASSWORD }) },
   'DELETE /tokens/:tokenId': { rule: 'signed-in' },
   'GET /mail-preferences': { rule: 'signed-in' },
   'GET /admin/mail': { rule: 'site-admin' },
   'GET /admin/mail/:messageId': { rule: 'site-admin' },
   'GET /users': { rule: 'site-admin' },
-  'POST /users': { rule: 'site-admin', body: () => ({ email: 'new@test.invalid', name: 'New Person', password: 'long-enough-password' }) },
+  'POST /users': { rule: 'site-admin', body: () => ({ email: 'new@test.invalid', name: 'New Person', password: 'long-enough-password', currentPassword: PASSWORD }) },
   'GET /projects': { rule: 'signed-in' },
   'POST /projects': {
     rule: 'site-admin',
@@ -159,7 +186,7 @@ describe('access to every API route', () => {
         }
         let tokenId = '1';
         if (session && pattern.includes(':tokenId')) {
-          const made = await session.agent.post('/api/tokens').set('X-CSRF-Token', session.csrf).send({ name: 'to revoke' }).expect(201);
+          const made = await session.agent.post('/api/tokens').set('X-CSRF-Token', session.csrf).send({ currentPassword: PASSWORD, name: 'to revoke' }).expect(201);
           tokenId = String(made.body.apiToken.id);
         }
         let sessionId = 'none';
@@ -187,10 +214,11 @@ describe('access to every API route', () => {
             .replace(':invitationId', invitationId)
             .replace(':sessionId', sessionId) +
           (c.query ?? '');
-        const agent = session?.agent ?? request(world.app);
+        // An anonymous caller's agent starts with no cookie; it keeps one the route's body may bring (the sign-in's code step).
+        const agent = session?.agent ?? request.agent(world.app);
+        const body = key === 'POST /auth/login' ? { email: emails.reader, password: 'correct-horse-battery' } : await c.body?.(world, session, agent);
         let req = agent[method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete'](path);
         if (session) req = req.set('X-CSRF-Token', session.csrf);
-        const body = key === 'POST /auth/login' ? { email: emails.reader, password: 'correct-horse-battery' } : await c.body?.(world);
         const res = c.file ? await req.attach('file', Buffer.from(SAMPLE_FILE), 'night.csv') : body ? await req.send(body) : await req;
         if (want === 'ok') {
           expect(res.status, JSON.stringify(res.body)).toBeGreaterThanOrEqual(200);

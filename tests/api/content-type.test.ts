@@ -60,7 +60,7 @@ describe('a body of a type the route does not read', () => {
     const s = await signIn(world.app, 'lead');
     const target = `/api/projects/${world.projectId}/targets/${world.targetId}`;
     expect((await s.agent.get(target)).status).toBe(200);
-    const created = await s.agent.post('/api/tokens').set('X-CSRF-Token', s.csrf).send({ name: 'pipeline' });
+    const created = await s.agent.post('/api/tokens').set('X-CSRF-Token', s.csrf).send({ currentPassword: PASSWORD, name: 'pipeline' });
     expect(created.status).toBe(201);
     const revoked = await s.agent.delete(`/api/tokens/${created.body.apiToken.id}`).set('X-CSRF-Token', s.csrf);
     expect(revoked.status).toBe(204);

@@ -10,7 +10,7 @@ import { createSecurityLog } from '../../server/lib/security-log';
 import { systemClock } from '../../server/lib/clock';
 import { TOUCH_INTERVAL_MS } from '../../server/modules/tokens/tokens.service';
 import type { Clock } from '../../server/lib/clock';
-import { makeWorld, signIn, type World } from '../support/world';
+import { makeWorld, signIn, type World, PASSWORD } from '../support/world';
 import { onPostgres } from '../support/test-database';
 
 let world: World | undefined;
@@ -34,7 +34,7 @@ async function fileWorld(clock?: Clock) {
   dir = fs.mkdtempSync(path.join(os.tmpdir(), 'starledger-db-'));
   world = await makeWorld({ databaseFile: path.join(dir, 'db.sqlite'), clock });
   const { agent, csrf } = await signIn(world.app, 'observer');
-  const made = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ name: 'dome pipeline' }).expect(201);
+  const made = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, name: 'dome pipeline' }).expect(201);
   return { auth: `Bearer ${made.body.token as string}`, tokenId: made.body.apiToken.id as number };
 }
 

@@ -1,11 +1,5 @@
 import request from 'supertest';
 import { afterEach, describe, expect, it } from 'vitest';
-import { apiRoutes } from '../../server/routes';
-import { createServices } from '../../server/services';
-import { createPassport } from '../../server/middleware/auth';
-import { createLoginThrottle } from '../../server/modules/auth/login-throttle';
-import { createDb } from '../../server/db/knex';
-import { systemClock } from '../../server/lib/clock';
 import { hashPassword } from '../../server/lib/passwords';
 import { emails, makeWorld, openLink, PASSWORD, signIn, type World } from '../support/world';
 
@@ -18,15 +12,20 @@ const fieldMessage = (res: request.Response, field: string) => (res.body.error?.
 /** The routes open to an account that must choose a new password first: its session, sign-out and the change (server/routes.ts, ownAccount). */
 const OPEN_BEFORE_CHANGE = ['GET /auth/me', 'POST /auth/logout', 'POST /auth/password'];
 
-/** Every declared route that needs a signed-in caller, with its parameters filled in (the refusal comes before they are read). */
-function routesNeedingSignIn(): { method: 'get' | 'post' | 'patch' | 'delete'; path: string; key: string }[] {
-  const db = createDb('file::memory:');
-  const services = createServices(db, systemClock);
-  const routes = apiRoutes(services, createPassport(services.users), createLoginThrottle(db, systemClock));
-  void db.destroy();
-  return routes
-    .filter((r) => r.access.kind !== 'public')
-    .map((r) => ({ method: r.method, path: r.path.replace(/:[A-Za-z]+/g, '1'), key: `${r.method.toUpperCase()} ${r.path}` }));
+/**
+ * Every route that needs a signed-in caller, as the OpenAPI document lists
+ * them (it is made from server/routes.ts: a route without `security` is
+ * open to anyone), with its parameters filled in: the refusal comes before
+ * they are read.
+ */
+async function routesNeedingSignIn(w: World): Promise<{ method: 'get' | 'post' | 'patch' | 'delete'; path: string; key: string }[]> {
+  const { agent } = await signIn(w.app, 'observer');
+  const doc = (await agent.get('/api/openapi.json').expect(200)).body as { paths: Record<string, Record<string, { security?: unknown[] }>> };
+  return Object.entries(doc.paths).flatMap(([path, operations]) =>
+    Object.entries(operations)
+      .filter(([, op]) => (op.security?.length ?? 0) > 0)
+      .map(([method]) => ({ method: method as 'get' | 'post' | 'patch' | 'delete', path: path.replace(/\{\w+\}/g, '1'), key: `${method.toUpperCase()} ${path.replace(/\{(\w+)\}/g, ':$1')}` })),
+  );
 }
 
 describe('an account that must choose a new password before anything else', () => {
@@ -36,7 +35,7 @@ describe('an account that must choose a new password before anything else', () =
   it('signs in with a password now refused for new ones, is refused on every other route with 403 password_change_required, and is let through once it chose a new one', async () => {
     const w = await world();
     const { agent: before, csrf: beforeCsrf } = await signIn(w.app, 'reader');
-    const token = (await before.post('/api/tokens').set('X-CSRF-Token', beforeCsrf).send({ name: 'night pipeline' }).expect(201)).body.token as string;
+    const token = (await before.post('/api/tokens').set('X-CSRF-Token', beforeCsrf).send({ currentPassword: PASSWORD, name: 'night pipeline' }).expect(201)).body.token as string;
     await w.db('users').where({ id: w.userIds.reader }).update({ password_hash: await hashPassword('123456789012') });
 
     const agent = request.agent(w.app);
@@ -46,7 +45,7 @@ describe('an account that must choose a new password before anything else', () =
     expect((await w.db('users').where({ id: w.userIds.reader }).first()).must_change_password).toBe('weak');
 
     const refused: string[] = [];
-    for (const route of routesNeedingSignIn()) {
+    for (const route of await routesNeedingSignIn(w)) {
       if (OPEN_BEFORE_CHANGE.includes(route.key)) continue;
       const res = await agent[route.method](`/api${route.path}`).set('X-CSRF-Token', csrf).send({});
       expect(res.status, route.key).toBe(403);
@@ -82,7 +81,7 @@ describe('an account that must choose a new password before anything else', () =
   it('an account a site admin makes under Accounts must choose its own password at the first sign-in, and may not keep the one typed for it', async () => {
     const w = await world();
     const { agent: admin, csrf: adminCsrf } = await signIn(w.app, 'admin');
-    const made = await admin.post('/api/users').set('X-CSRF-Token', adminCsrf).send({ email: 'tamsin.rook@test.invalid', name: 'Tamsin Rook', password: 'given by the admin once' }).expect(201);
+    const made = await admin.post('/api/users').set('X-CSRF-Token', adminCsrf).send({ currentPassword: PASSWORD, email: 'tamsin.rook@test.invalid', name: 'Tamsin Rook', password: 'given by the admin once' }).expect(201);
     expect(made.body.user.mustChangePassword).toBe('initial');
 
     const agent = request.agent(w.app);

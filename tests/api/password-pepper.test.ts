@@ -11,7 +11,7 @@ const PEPPER = '5f1e0c7d9a2b48e6b3c1d0a9f8e7d6c55f1e0c7d9a2b48e6b3c1d0a9f8e7d6c5
 describe('password hashes with a pepper (ASVS 2.4.5)', () => {
   it('a hash from before the pepper signs in, is made again with the pepper at that sign-in, and then signs in only where the pepper is', async () => {
     const w = (current = await makeWorld());
-    const peppered = createApp({ db: w.db, sessionSecret: 'test-secret', sessionCleanupIntervalMs: 0, passwordPepper: PEPPER });
+    const peppered = createApp({ db: w.db, sessionSecret: 'test-secret', sessionCleanupIntervalMs: 0, passwordPepper: PEPPER, adminSecondFactor: 'optional' });
     const plain = createApp({ db: w.db, sessionSecret: 'test-secret', sessionCleanupIntervalMs: 0 });
     const hashOf = async () => (await w.db('users').where({ id: w.userIds.lead }).first()).password_hash as string;
     const before = await hashOf();
@@ -35,10 +35,10 @@ describe('password hashes with a pepper (ASVS 2.4.5)', () => {
 
   it('a password set where the pepper is, by a new account, is peppered from the start', async () => {
     const w = (current = await makeWorld());
-    const peppered = createApp({ db: w.db, sessionSecret: 'test-secret', sessionCleanupIntervalMs: 0, passwordPepper: PEPPER });
+    const peppered = createApp({ db: w.db, sessionSecret: 'test-secret', sessionCleanupIntervalMs: 0, passwordPepper: PEPPER, adminSecondFactor: 'optional' });
     const admin = request.agent(peppered);
     const csrf = (await admin.post('/api/auth/login').send({ email: emails.admin, password: PASSWORD }).expect(200)).body.csrfToken as string;
-    await admin.post('/api/users').set('X-CSRF-Token', csrf).send({ email: 'ivo.brandt@test.invalid', name: 'Ivo Brandt', password: 'chosen for the first night' }).expect(201);
+    await admin.post('/api/users').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, email: 'ivo.brandt@test.invalid', name: 'Ivo Brandt', password: 'chosen for the first night' }).expect(201);
     const row = await w.db('users').where({ email: 'ivo.brandt@test.invalid' }).first();
     expect(row.password_hash.startsWith('scrypt-hmac$')).toBe(true);
   }, 30_000);

@@ -1,13 +1,13 @@
 import request from 'supertest';
 import { afterEach, describe, expect, it } from 'vitest';
-import { makeWorld, signIn, type World } from '../support/world';
+import { makeWorld, signIn, type World, PASSWORD } from '../support/world';
 
 let world: World;
 afterEach(async () => world?.db.destroy());
 
 async function accountWith(w: World, email: string, password: string) {
   const { agent, csrf } = await signIn(w.app, 'admin');
-  const res = await agent.post('/api/users').set('X-CSRF-Token', csrf).send({ email, name: 'Ilse Marrow', password });
+  const res = await agent.post('/api/users').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, email, name: 'Ilse Marrow', password });
   expect(res.status, JSON.stringify(res.body)).toBe(201);
 }
 

@@ -12,7 +12,7 @@ describe('the password rules on every way of setting one', () => {
   it('a new account made by the site admin: refuses short, common and own-word passwords on the password field', async () => {
     const w = await world();
     const { agent, csrf } = await signIn(w.app, 'admin');
-    const make = (password: string) => agent.post('/api/users').set('X-CSRF-Token', csrf).send({ email: 'nadia.vell@test.invalid', name: 'Nadia Vell', password });
+    const make = (password: string) => agent.post('/api/users').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, email: 'nadia.vell@test.invalid', name: 'Nadia Vell', password });
     for (const [password, words] of [
       ['1234567890', /at least 12/],
       ['night sky '.repeat(13), /at most 128 characters/],

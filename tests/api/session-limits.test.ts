@@ -91,7 +91,7 @@ describe('how long a signed-in session lasts (ASVS 3.3.2)', () => {
     const [before] = await world.db('sessions').select('signed_in_at', 'last_seen_at');
     clock.advance(10 * MINUTE);
     // A write saves the session (and would once have blanked the other columns on SQLite).
-    await lead.agent.post('/api/tokens').set('X-CSRF-Token', lead.csrf).send({ name: 'night pipeline' }).expect(201);
+    await lead.agent.post('/api/tokens').set('X-CSRF-Token', lead.csrf).send({ currentPassword: PASSWORD, name: 'night pipeline' }).expect(201);
     const [after] = await world.db('sessions').select('signed_in_at', 'last_seen_at');
     expect(new Date(after.signed_in_at).toISOString()).toBe(new Date(before.signed_in_at).toISOString());
     expect(new Date(after.last_seen_at).toISOString()).toBe('2026-12-01T03:10:00.000Z');
@@ -101,7 +101,7 @@ describe('how long a signed-in session lasts (ASVS 3.3.2)', () => {
     const clock = movableClock();
     world = await makeWorld({ clock });
     const lead = await signIn(world.app, 'lead');
-    const made = await lead.agent.post('/api/tokens').set('X-CSRF-Token', lead.csrf).send({ name: 'night pipeline' }).expect(201);
+    const made = await lead.agent.post('/api/tokens').set('X-CSRF-Token', lead.csrf).send({ currentPassword: PASSWORD, name: 'night pipeline' }).expect(201);
     clock.advance(13 * 60 * MINUTE);
     await request(world.app).get('/api/projects').set('Authorization', `Bearer ${made.body.token}`).expect(200);
   });

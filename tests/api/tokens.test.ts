@@ -1,6 +1,6 @@
 import request from 'supertest';
 import { afterEach, describe, expect, it } from 'vitest';
-import { makeWorld, signIn, type World } from '../support/world';
+import { makeWorld, signIn, type World, PASSWORD } from '../support/world';
 import { movableClock } from '../support/movable-clock';
 import { createDb } from '../../server/db/knex';
 import { migrationSource } from '../../migrations';
@@ -13,7 +13,7 @@ describe('personal API tokens', () => {
   it('shows the token once, stores only its hash, and acts as its owner with the owner’s roles', async () => {
     world = await makeWorld();
     const { agent, csrf } = await signIn(world.app, 'reader');
-    const made = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ name: 'night pipeline' }).expect(201);
+    const made = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, name: 'night pipeline' }).expect(201);
     const token: string = made.body.token;
     expect(token).toMatch(/^slt_/);
     const row = await world.db('api_tokens').first();
@@ -35,7 +35,7 @@ describe('personal API tokens', () => {
   it('writes without a CSRF token when authorised by bearer, and stops working once revoked', async () => {
     world = await makeWorld();
     const { agent, csrf } = await signIn(world.app, 'observer');
-    const made = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ name: 'dome script' }).expect(201);
+    const made = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, name: 'dome script' }).expect(201);
     const auth = `Bearer ${made.body.token}`;
     await request(world.app)
       .post(`/api/projects/${world.projectId}/targets`)
@@ -50,7 +50,7 @@ describe('personal API tokens', () => {
   it('does not let one person revoke another’s token', async () => {
     world = await makeWorld();
     const a = await signIn(world.app, 'observer');
-    const made = await a.agent.post('/api/tokens').set('X-CSRF-Token', a.csrf).send({ name: 'mine' }).expect(201);
+    const made = await a.agent.post('/api/tokens').set('X-CSRF-Token', a.csrf).send({ currentPassword: PASSWORD, name: 'mine' }).expect(201);
     const b = await signIn(world.app, 'lead');
     await b.agent.delete(`/api/tokens/${made.body.apiToken.id}`).set('X-CSRF-Token', b.csrf).expect(404);
   });
@@ -70,9 +70,9 @@ describe('API token expiry (ASVS 3.5.2)', () => {
     const clock = movableClock('2026-12-01T03:00:00.000Z');
     world = await makeWorld({ clock });
     const { agent, csrf } = await signIn(world.app, 'observer');
-    const plain = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ name: 'dome script' }).expect(201);
-    const month = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ name: 'trial', lifetimeDays: 30 }).expect(201);
-    const year = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ name: 'archive sync', lifetimeDays: 365 }).expect(201);
+    const plain = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, name: 'dome script' }).expect(201);
+    const month = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, name: 'trial', lifetimeDays: 30 }).expect(201);
+    const year = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, name: 'archive sync', lifetimeDays: 365 }).expect(201);
     // 2026-12-01 plus 90, 30 and 365 days (December has 31 days, January 31, February 28 in 2027).
     expect(plain.body.apiToken.expiresAt).toBe('2027-03-01T03:00:00.000Z');
     expect(month.body.apiToken.expiresAt).toBe('2026-12-31T03:00:00.000Z');
@@ -111,7 +111,7 @@ describe('API token expiry (ASVS 3.5.2)', () => {
     world = await makeWorld();
     const { agent, csrf } = await signIn(world.app, 'observer');
     for (const lifetimeDays of [0, 7, 366, 3650, '90']) {
-      const res = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ name: 'forever', lifetimeDays }).expect(400);
+      const res = await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, name: 'forever', lifetimeDays }).expect(400);
       expect(res.body.error.details).toEqual([{ path: 'lifetimeDays', message: 'Choose 30, 90 or 365 days.' }]);
     }
     expect(await world.db('api_tokens').count('* as n').first()).toMatchObject({ n: 0 });

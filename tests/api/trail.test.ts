@@ -3,7 +3,7 @@ import { afterEach, describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import { trailEntrySchema, trailPageSchema } from '../../shared/schemas/trail';
 import { appendTrail, appendTrailMany, type TrailEntry } from '../../server/modules/trail/trail.repository';
-import { makeWorld, signIn, type Session, type World } from '../support/world';
+import { makeWorld, signIn, type Session, type World, PASSWORD } from '../support/world';
 
 let world: World;
 afterEach(async () => world?.db.destroy());
@@ -202,7 +202,7 @@ describe('what writes the trail', () => {
     const discarded = (await observer.agent.get(trailUrl(world, '?action=upload.discarded')).expect(200)).body.items;
     expect(discarded.map((e: { entityId: number }) => e.entityId)).toEqual([other.body.upload.id]);
 
-    const token = await observer.agent.post('/api/tokens').set('X-CSRF-Token', observer.csrf).send({ name: 'pipeline' }).expect(201);
+    const token = await observer.agent.post('/api/tokens').set('X-CSRF-Token', observer.csrf).send({ currentPassword: PASSWORD, name: 'pipeline' }).expect(201);
     await observer.agent.delete(`/api/tokens/${token.body.apiToken.id}`).set('X-CSRF-Token', observer.csrf).expect(204);
     const tokenEntries = await world.db('trail_events').where({ entity_type: 'token' }).orderBy('id');
     expect(tokenEntries.map((e) => [e.action, e.project_id, e.actor_user_id, e.entity_id])).toEqual([

@@ -3,7 +3,7 @@ import vm from 'node:vm';
 import fc from 'fast-check';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { makeWorld, signIn, type World } from '../support/world';
+import { makeWorld, signIn, type World, PASSWORD } from '../support/world';
 
 /**
  * Property-based fuzz of uploads: measurement files in every encoding,
@@ -40,7 +40,7 @@ let auth: string;
 beforeAll(async () => {
   world = await makeWorld();
   const { agent, csrf } = await signIn(world.app, 'observer');
-  auth = `Bearer ${(await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ name: 'fuzz' }).expect(201)).body.token}`;
+  auth = `Bearer ${(await agent.post('/api/tokens').set('X-CSRF-Token', csrf).send({ currentPassword: PASSWORD, name: 'fuzz' }).expect(201)).body.token}`;
 });
 afterAll(async () => world?.db.destroy());
 

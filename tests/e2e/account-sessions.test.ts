@@ -93,6 +93,7 @@ describe.skipIf(!chromiumAvailable)('my sessions in the browser, and a session e
     await page.goto(`${app.baseUrl}/account/tokens`);
     const name = page.getByLabel('Token name');
     await name.fill('dome weather station');
+    await page.getByLabel('Confirm with your password', { exact: true }).fill('lead-demo-2026');
     // 31 minutes without use, as the server counts it (its last-use stamp).
     await db('sessions').update({ last_seen_at: new Date(Date.now() - 31 * 60_000).toISOString() });
     await page.getByRole('button', { name: 'Create token' }).click();

@@ -34,6 +34,8 @@ describe.skipIf(!chromiumAvailable)('choosing a password with a strength meter',
     await expect.poll(() => first.innerText()).toMatch(/^Strength: (strong|very strong)\.$/);
     expect(await axeViolations(admin)).toEqual([]);
     await screenshot(admin, 'password-strength-new-account-1366');
+    // The new account is confirmed with the site admin's own password (ASVS 4.3.3).
+    await form.getByLabel('Confirm with your password', { exact: true }).fill('admin-demo-2026');
     await form.getByRole('button', { name: 'Create account' }).click();
     await form.getByText('Account for Ilsabet Wren (ilsabet.wren@demo.invalid) created.').waitFor();
 

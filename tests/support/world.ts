@@ -36,6 +36,8 @@ export interface World {
   /** The security log's lines (server/lib/security-log.ts), each parsed from its JSON, in order; `logText` as written. */
   logLines: Array<Record<string, unknown>>;
   logText: string[];
+  /** The app's clock (a fixed one unless the test gave its own): what one-time codes are made for. */
+  clock: Clock;
 }
 
 /**
@@ -45,7 +47,7 @@ export interface World {
  * who belongs to neither, and one target.
  */
 export async function makeWorld(
-  options: { loginThrottle?: Partial<ThrottleRules>; trustProxy?: string | number | boolean; clientDir?: string; clock?: Clock; databaseFile?: string; databaseUrl?: string; uploadJobs?: UploadJobs } = {},
+  options: { loginThrottle?: Partial<ThrottleRules>; trustProxy?: string | number | boolean; clientDir?: string; clock?: Clock; databaseFile?: string; databaseUrl?: string; uploadJobs?: UploadJobs; adminSecondFactor?: 'required' | 'optional' } = {},
 ): Promise<World> {
   // On SQLite a file when a test needs a second connection to the same database; in memory otherwise.
   const db = options.databaseUrl ? createDb(options.databaseUrl) : await openTestDb(`file:${options.databaseFile ?? ':memory:'}`);
@@ -73,9 +75,10 @@ export async function makeWorld(
   const logText: string[] = [];
   const logLines: Array<Record<string, unknown>> = [];
   const logDestination = { write: (line: string) => void (logText.push(line), logLines.push(JSON.parse(line))) };
+  const clock = options.clock ?? fixedClock('2026-12-01T03:00:00.000Z');
   const app = createApp({
     db,
-    clock: options.clock ?? fixedClock('2026-12-01T03:00:00.000Z'),
+    clock,
     sessionSecret: 'test-secret',
     sessionCleanupIntervalMs: 0,
     loginThrottle: options.loginThrottle,
@@ -84,8 +87,10 @@ export async function makeWorld(
     mailInbox,
     uploadJobs: options.uploadJobs,
     logDestination,
+    // The world's site admin has no second factor; tests/api/second-factor.test.ts asks for `required`, the app's default.
+    adminSecondFactor: options.adminSecondFactor ?? 'optional',
   });
-  return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds, mailInbox, logLines, logText };
+  return { db, app, projectId: p1.id, otherProjectId: p2.id, targetId: t.id, userIds, mailInbox, logLines, logText, clock };
 }
 
 export interface Session {

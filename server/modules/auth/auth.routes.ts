@@ -16,7 +16,8 @@ export async function sessionBody(req: Request, users: UsersService) {
   return { user, memberships: await users.memberships(user.id), csrfToken: csrfToken(req) };
 }
 
-export function authHandlers(passport: StarledgerPassport, users: UsersService, throttle: LoginThrottle) {
+/** `askForCode`: the sign-in's answer for an account with the second factor on (second-factor.routes.ts), instead of a session. */
+export function authHandlers(passport: StarledgerPassport, users: UsersService, throttle: LoginThrottle, askForCode: (req: Request, res: Response, user: User) => Promise<void>) {
   return {
     /**
      * While the account or the address waits out a delay (see
@@ -31,6 +32,7 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
         if (err) return next(err);
         // One message whether the e-mail is unknown or the password wrong.
         if (!user) return throttle.failed(req, res, email).then(() => next(new AppError(401, 'invalid_credentials')), next);
+        if (user.secondFactor) return askForCode(req, res, user).catch(next);
         throttle.succeeded(req, email).then(
           () =>
             req.logIn(user, (loginErr) => {
@@ -62,8 +64,11 @@ export function authHandlers(passport: StarledgerPassport, users: UsersService, 
       // A password someone else chose, or one now refused, cannot be kept by "changing" it to itself (ASVS 2.3.1).
       if (body.password === body.currentPassword) throw validationFailed([{ path: 'password', message: 'Choose a password other than your current one.' }]);
       await users.changePassword(user.id, body.password);
+      // The new session keeps this one's second factor: the same person signed in with it.
+      const secondFactorAt = req.session.secondFactorAt;
       req.logIn({ ...user, mustChangePassword: null }, (loginErr) => {
         if (loginErr) return next(loginErr);
+        if (secondFactorAt) req.session.secondFactorAt = secondFactorAt;
         sessionBody(req, users).then((session) => res.json({ ...session, message: 'Your password is changed. Your other sessions have ended.' }), next);
       });
     },

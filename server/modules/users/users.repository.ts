@@ -9,10 +9,11 @@ interface UserRow {
   password_hash: string;
   is_site_admin: number | boolean;
   must_change_password: PasswordChangeReason | null;
+  totp_enabled_at: unknown;
 }
 
 export function toUser(row: UserRow): User {
-  return { id: row.id, email: row.email, name: row.name, isSiteAdmin: Boolean(row.is_site_admin), mustChangePassword: row.must_change_password ?? null };
+  return { id: row.id, email: row.email, name: row.name, isSiteAdmin: Boolean(row.is_site_admin), mustChangePassword: row.must_change_password ?? null, secondFactor: row.totp_enabled_at != null };
 }
 
 export async function findUserByEmail(db: Db, email: string): Promise<(User & { passwordHash: string }) | undefined> {

@@ -5,14 +5,22 @@ import { createTokenBody, DEFAULT_TOKEN_LIFETIME_DAYS, TOKEN_LIFETIMES_DAYS, typ
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
+import { ConfirmationField } from '@/components/ui/confirmation-field';
+import { useUser } from '@/lib/auth';
+import { confirmationBody } from '@/lib/confirmation';
 import { formParseOptions } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateToken, type CreatedToken } from '../api/create-token';
 
-const FIELDS = ['name', 'lifetimeDays'] as const;
+const FIELDS = ['name', 'lifetimeDays', 'currentPassword', 'code'] as const;
 
-/** Names a new token after what will use it and chooses how long it lasts; the token itself is handed to `onCreated` to be shown once. */
+/**
+ * Names a new token after what will use it and chooses how long it lasts,
+ * confirmed with the password or a code (a token acts as its owner); the
+ * token itself is handed to `onCreated` to be shown once.
+ */
 export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedToken) => void }) {
+  const user = useUser();
   const createToken = useCreateToken();
   const {
     register,
@@ -22,14 +30,14 @@ export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedTok
     formState: { errors, isSubmitting },
   } = useForm<z.input<typeof createTokenBody>, unknown, CreateTokenBody>({
     resolver: zodResolver(createTokenBody, formParseOptions),
-    defaultValues: { name: '', lifetimeDays: DEFAULT_TOKEN_LIFETIME_DAYS },
+    defaultValues: { name: '', lifetimeDays: DEFAULT_TOKEN_LIFETIME_DAYS, currentPassword: '' },
   });
   const { formError, send } = useServerErrors(setError, FIELDS);
 
-  const onSubmit = handleSubmit((body) =>
+  const onSubmit = handleSubmit(({ currentPassword, code: _code, ...body }) =>
     send(async () => {
-      const created = await createToken.mutateAsync(body);
-      reset({ name: '', lifetimeDays: DEFAULT_TOKEN_LIFETIME_DAYS });
+      const created = await createToken.mutateAsync({ ...body, ...confirmationBody(currentPassword, user.secondFactor) });
+      reset({ name: '', lifetimeDays: DEFAULT_TOKEN_LIFETIME_DAYS, currentPassword: '' });
       onCreated(created);
     }),
   );
@@ -59,6 +67,13 @@ export function CreateTokenForm({ onCreated }: { onCreated: (created: CreatedTok
             </option>
           ))}
         </SelectField>
+        <ConfirmationField
+          account={user.email}
+          secondFactorOn={user.secondFactor}
+          error={errors.currentPassword?.message ?? errors.code?.message}
+          className="w-80"
+          {...register('currentPassword')}
+        />
         <Button type="submit" className="mt-6" disabled={isSubmitting}>
           {isSubmitting ? 'Creating…' : 'Create token'}
         </Button>

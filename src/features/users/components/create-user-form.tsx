@@ -6,17 +6,22 @@ import { createUserBody, PASSWORD_HINT, type CreateUserBody, type User } from '@
 import { Button } from '@/components/ui/button';
 import { CheckboxField, PasswordField, TextField } from '@/components/ui/field';
 import { Alert } from '@/components/ui/alert';
+import { ConfirmationField } from '@/components/ui/confirmation-field';
+import { useUser } from '@/lib/auth';
+import { confirmationBody } from '@/lib/confirmation';
 import { formParseOptions } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
 import { useCreateUser } from '../api/create-user';
 
-const FIELDS = ['email', 'name', 'password', 'isSiteAdmin'] as const;
+const FIELDS = ['email', 'name', 'password', 'isSiteAdmin', 'currentPassword', 'code'] as const;
 
 /**
  * A site administrator opens an account with a first password, to be passed
- * on to its owner by a channel of the team's choosing.
+ * on to its owner by a channel of the team's choosing, confirmed with the
+ * administrator's own password or a code.
  */
 export function CreateUserForm() {
+  const admin = useUser();
   const createUser = useCreateUser();
   const [created, setCreated] = useState<User | null>(null);
   const {
@@ -28,15 +33,15 @@ export function CreateUserForm() {
     formState: { errors, isSubmitting },
   } = useForm<z.input<typeof createUserBody>, unknown, CreateUserBody>({
     resolver: zodResolver(createUserBody, formParseOptions),
-    defaultValues: { email: '', name: '', password: '', isSiteAdmin: false },
+    defaultValues: { email: '', name: '', password: '', isSiteAdmin: false, currentPassword: '' },
   });
   const { formError, send } = useServerErrors(setError, FIELDS);
   const [email, name] = useWatch({ control, name: ['email', 'name'] });
 
-  const onSubmit = handleSubmit(async (body) => {
+  const onSubmit = handleSubmit(async ({ currentPassword, code: _code, ...body }) => {
     setCreated(null);
     await send(async () => {
-      setCreated(await createUser.mutateAsync(body));
+      setCreated(await createUser.mutateAsync({ ...body, ...confirmationBody(currentPassword, admin.secondFactor) }));
       reset();
     });
   });
@@ -60,6 +65,12 @@ export function CreateUserForm() {
         hint="Can create projects and manage every account."
         error={errors.isSiteAdmin?.message}
         {...register('isSiteAdmin')}
+      />
+      <ConfirmationField
+        account={admin.email}
+        secondFactorOn={admin.secondFactor}
+        error={errors.currentPassword?.message ?? errors.code?.message}
+        {...register('currentPassword')}
       />
       <Button type="submit" disabled={isSubmitting}>
         {isSubmitting ? 'Creating…' : 'Create account'}
