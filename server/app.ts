@@ -9,6 +9,7 @@ import type { Mailer } from './mail/mailer';
 import type { MailInbox } from './mail/fake-smtp';
 import { createPassport, passportMiddleware } from './middleware/auth';
 import { csrfProtection } from './middleware/csrf';
+import { apiAnswersAsAttachments } from './middleware/api-disposition';
 import { bearerAuth } from './middleware/bearer';
 import { errorHandler, notFoundHandler } from './middleware/error-handler';
 import { sessionLimits, sessionMiddleware } from './middleware/session';
@@ -95,6 +96,8 @@ export function createApp(options: AppOptions): Express {
     res.set('Cache-Control', 'no-store');
     next();
   });
+  // Each answer is a file to save, should a browser ever open one as a page (ASVS 14.4.2); downloads name their own.
+  api.use(apiAnswersAsAttachments);
   api.use(express.json({ limit: '1mb' }));
   api.use(
     sessionMiddleware(db, {
