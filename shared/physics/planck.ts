@@ -161,15 +161,17 @@ const GRID_MAX_K = 200_000;
 const GRID_POINTS = 1000;
 
 /** Coarse grid in log T, the scale solved linearly at each: the start of the refinement. */
-function startingPoint(points: Weighted): { lnT: number; lnS: number } {
-  const n = points.wavelengthM.length;
-  // The grid only picks where the refinement starts, so every k-th point serves it and its cost stays fixed however long the spectrum.
-  const stride = Math.ceil(n / GRID_POINTS);
+/** Every k-th point, k the smallest that leaves at most `most`; the points themselves when there are no more. */
+function thinned(points: Weighted, most: number): Weighted {
+  const stride = Math.ceil(points.wavelengthM.length / most);
+  if (stride <= 1) return points;
   const keep = (_: unknown, i: number) => i % stride === 0;
-  const coarse: Weighted =
-    stride === 1
-      ? points
-      : { wavelengthM: points.wavelengthM.filter(keep), flux: points.flux.filter(keep), weight: points.weight ? points.weight.filter(keep) : null };
+  return { wavelengthM: points.wavelengthM.filter(keep), flux: points.flux.filter(keep), weight: points.weight ? points.weight.filter(keep) : null };
+}
+
+function startingPoint(points: Weighted): { lnT: number; lnS: number } {
+  // The grid only picks where the refinement starts, so every k-th point serves it and its cost stays fixed however long the spectrum.
+  const coarse = thinned(points, GRID_POINTS);
   let best = { lnT: Number.NaN, lnS: Number.NaN };
   let bestChi2 = Infinity;
   const steps = 160;
@@ -308,6 +310,9 @@ function logLikelihood(e2: Float64Array, m2: Float64Array, a2: number, b2: numbe
 /** How many times the noise model is re-estimated and the fit re-weighted; the weights settle after two or three. */
 const NOISE_PASSES = 3;
 
+/** Most points the noise model is settled on; a longer spectrum's every k-th point (fitPlanck). */
+const NOISE_SAMPLE_POINTS = 20_000;
+
 /** The noise assumption in words: which part of σ² = a² + (bF)² dominates at the typical flux of the spectrum. */
 function noiseWords(a2: number, b2: number, model: Float64Array): string {
   const typical = median(Array.from(model, Math.abs));
@@ -339,7 +344,7 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
   const n = spectrum.wavelengthM.length;
   if (n < 4) throw new PhysicsError('too_few_points', 'temperature_planck', `a Planck fit needs at least 4 points (got ${n})`, '≥ 4 points');
 
-  let points: Weighted = {
+  const points: Weighted = {
     wavelengthM: spectrum.wavelengthM,
     flux: spectrum.flux,
     weight: spectrum.fluxSigma ? Float64Array.from(spectrum.fluxSigma, (sigma) => 1 / (sigma * sigma)) : null,
@@ -348,19 +353,42 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
   if (!Number.isFinite(start.lnT)) {
     throw new PhysicsError('fit_failed', 'temperature_planck', 'no positive Planck curve matches this spectrum');
   }
-  let result = refine(points, start);
-  let iterations = result.iterations;
   let noise: PlanckNoise = { model: 'given', words: 'weighted by the flux uncertainties given' };
-  if (!spectrum.fluxSigma) {
+  let result: ReturnType<typeof refine>;
+  let iterations = 0;
+  /** Weights the points by the noise estimated from their scatter about the last fit, and fits them again; false when the scatter is zero. */
+  const reweight = (fitted: Weighted, from: ReturnType<typeof refine>): { points: Weighted; result: ReturnType<typeof refine> } | null => {
+    const level = noiseFromScatter(fitted, from.lnT, from.lnS);
+    if (!level) return null;
+    const { a2, b2, model } = level;
+    const weighted = { ...fitted, weight: Float64Array.from(model, (m) => 1 / (a2 + b2 * m * m)) };
+    noise = { model: 'flux_level', constant: Math.sqrt(a2), proportional: Math.sqrt(b2), words: noiseWords(a2, b2, model) };
+    const refitted = refine(weighted, from);
+    iterations += refitted.iterations;
+    return { points: weighted, result: refitted };
+  };
+  if (spectrum.fluxSigma) {
+    result = refine(points, start);
+    iterations = result.iterations;
+  } else {
     noise = { model: 'flux_level', constant: 0, proportional: 0, words: 'no flux uncertainties given; the scatter about the fit is zero' };
+    // The noise model settles on every k-th point of a long spectrum (their scatter is the whole's); the whole is then
+    // weighted by the noise its own scatter gives and fitted once more from there, so every point counts in the result.
+    let sample = thinned(points, NOISE_SAMPLE_POINTS);
+    result = refine(sample, start);
+    iterations = result.iterations;
     for (let pass = 0; pass < NOISE_PASSES; pass++) {
-      const level = noiseFromScatter(points, result.lnT, result.lnS);
-      if (!level) break;
-      const { a2, b2, model } = level;
-      points = { ...points, weight: Float64Array.from(model, (m) => 1 / (a2 + b2 * m * m)) };
-      noise = { model: 'flux_level', constant: Math.sqrt(a2), proportional: Math.sqrt(b2), words: noiseWords(a2, b2, model) };
-      result = refine(points, result);
-      iterations += result.iterations;
+      const next = reweight(sample, result);
+      if (!next) break;
+      ({ points: sample, result } = next);
+    }
+    if (sample.wavelengthM.length < n) {
+      const whole = reweight(points, result);
+      if (whole) result = whole.result;
+      else {
+        result = refine(points, result);
+        iterations += result.iterations;
+      }
     }
   }
   const { lnT, lnS, at: current } = result;
@@ -408,8 +436,9 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
   };
 }
 
-function median(values: number[]): number {
-  const sorted = values.slice().sort((p, q) => p - q);
+function median(values: readonly number[]): number {
+  // A Float64Array sorts by number natively, without a compare callback per comparison.
+  const sorted = Float64Array.from(values).sort();
   const m = sorted.length >> 1;
   return sorted.length % 2 ? sorted[m] : (sorted[m - 1] + sorted[m]) / 2;
 }
@@ -470,10 +499,23 @@ export function runningMedian(values: readonly number[], window: number): Float6
   let w = Math.max(1, Math.min(Math.floor(window), n));
   if (w % 2 === 0) w -= 1;
   const half = w >> 1;
-  // Ties are ranked by position, so every point has its own rank and a count of 1.
-  const byValue = Array.from({ length: n }, (_, i) => i).sort((p, q) => values[p] - values[q] || p - q);
+  // Each point's rank is where its value stands in the sorted values (a binary search), ties taking the next free
+  // place in the order they come, so every point has its own rank and a count of 1; pointAt[rank − 1] is that point.
+  const sorted = Float64Array.from(values).sort();
   const rank = new Int32Array(n);
-  byValue.forEach((i, r) => (rank[i] = r + 1));
+  const pointAt = new Int32Array(n);
+  const tiesTaken = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    let lo = 0;
+    let hi = n;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (sorted[mid] < values[i]) lo = mid + 1;
+      else hi = mid;
+    }
+    rank[i] = lo + tiesTaken[lo]++ + 1;
+    pointAt[rank[i] - 1] = i;
+  }
   const tree = new Int32Array(n + 1);
   const add = (r: number, delta: number) => {
     for (; r <= n; r += r & -r) tree[r] += delta;
@@ -500,7 +542,7 @@ export function runningMedian(values: readonly number[], window: number): Float6
       add(rank[lo + w], 1);
       lo++;
     }
-    out[i] = values[byValue[kth(half + 1) - 1]];
+    out[i] = values[pointAt[kth(half + 1) - 1]];
   }
   return out;
 }
