@@ -58,6 +58,10 @@ export const router = createBrowserRouter([
           { path: paths.account.mail.path, lazy: async () => ({ Component: (await import('./routes/account-mail')).AccountMailRoute }) },
           { path: paths.account.password.path, lazy: async () => ({ Component: (await import('./routes/account-password')).AccountPasswordRoute }) },
           { path: paths.account.sessions.path, lazy: async () => ({ Component: (await import('./routes/account-sessions')).AccountSessionsRoute }) },
+          {
+            path: paths.account.secondFactor.path,
+            lazy: async () => ({ Component: (await import('./routes/account-second-factor')).AccountSecondFactorRoute }),
+          },
           { path: paths.admin.mail.path, lazy: async () => ({ Component: (await import('./routes/admin-mail')).AdminMailRoute }) },
           { path: paths.admin.users.path, lazy: async () => ({ Component: (await import('./routes/admin-users')).AdminUsersRoute }) },
           { path: paths.calculator.path, lazy: async () => ({ Component: (await import('./routes/calculator')).CalculatorRoute }) },

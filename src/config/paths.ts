@@ -109,6 +109,10 @@ export const paths = {
       path: '/account/sessions',
       getHref: () => '/account/sessions',
     },
+    secondFactor: {
+      path: '/account/second-factor',
+      getHref: () => '/account/second-factor',
+    },
   },
   admin: {
     users: {

@@ -1,7 +1,7 @@
 import { useUser } from '@/lib/auth';
 import { PageHeader, Section } from '@/components/ui/page-header';
 import { StatusLine } from '@/components/ui/alert';
-import { ForbiddenMessage } from '@/components/errors/error-messages';
+import { ForbiddenMessage, isSecondFactorRequired } from '@/components/errors/error-messages';
 import { QueryError } from '@/components/errors/query-error';
 import { useUsers } from '@/features/users/api/get-users';
 import { UsersList } from '@/features/users/components/users-list';
@@ -20,9 +20,12 @@ function UsersPage({ currentUserId }: { currentUserId: number }) {
       {users.isPending ? <StatusLine>Loading accounts…</StatusLine> : null}
       {users.isError ? <QueryError what="The accounts" error={users.error} onRetry={() => void users.refetch()} /> : null}
       {users.data ? <UsersList users={users.data} currentUserId={currentUserId} /> : null}
-      <Section title="New account" className="mt-10">
-        <CreateUserForm />
-      </Section>
+      {/* Refused for want of a second factor, the page is only the way to turn it on. */}
+      {isSecondFactorRequired(users.error) ? null : (
+        <Section title="New account" className="mt-10">
+          <CreateUserForm />
+        </Section>
+      )}
     </>
   );
 }

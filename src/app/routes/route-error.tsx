@@ -3,7 +3,7 @@ import { Navigate, isRouteErrorResponse, useLocation, useRouteError } from 'reac
 import { useQueryErrorResetBoundary } from '@tanstack/react-query';
 import { paths } from '@/config/paths';
 import { isApiError } from '@/lib/api-client';
-import { ForbiddenMessage, NotFoundMessage } from '@/components/errors/error-messages';
+import { ForbiddenMessage, isSecondFactorRequired, NotFoundMessage, SecondFactorRequiredMessage } from '@/components/errors/error-messages';
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 
@@ -23,6 +23,7 @@ export function RouteError() {
   if ((isApiError(error) && error.status === 404) || (isRouteErrorResponse(error) && error.status === 404)) {
     return <NotFoundMessage />;
   }
+  if (isSecondFactorRequired(error)) return <SecondFactorRequiredMessage message={error.message} />;
   if (isApiError(error) && error.status === 403) {
     return <ForbiddenMessage detail={error.message} />;
   }

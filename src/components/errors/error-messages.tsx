@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { linkClasses } from '@/components/ui/button';
+import { isApiError, type ApiError } from '@/lib/api-client';
 
 /*
  * What the not-found and forbidden pages say. A project the person is not a
@@ -43,3 +44,27 @@ export function ForbiddenMessage({ detail }: { detail?: string }) {
     </StatusMessage>
   );
 }
+
+/**
+ * A site admin page refused for want of the second factor (403
+ * second_factor_required): the server's words (turn it on, or sign in again
+ * with a code) and the way to the Account page that turns it on.
+ */
+export function SecondFactorRequiredMessage({ message }: { message: string }) {
+  return (
+    <div className="py-10">
+      <title>Second factor needed · Starledger</title>
+      <p className="text-xs font-semibold tracking-[0.18em] text-brass-deep uppercase">403</p>
+      <h1 className="mt-1 text-3xl font-semibold">A second factor is needed here</h1>
+      <p className="mt-3 max-w-prose text-ink-soft">{message}</p>
+      <p className="mt-6">
+        <Link to={paths.account.secondFactor.getHref()} className={linkClasses}>
+          Your account’s second factor
+        </Link>
+      </p>
+    </div>
+  );
+}
+
+/** Whether an error is the refusal SecondFactorRequiredMessage explains. */
+export const isSecondFactorRequired = (error: unknown): error is ApiError => isApiError(error) && error.code === 'second_factor_required';

@@ -118,6 +118,9 @@ export function AppShell({
             <NavLink to={paths.account.sessions.getHref()} className={navLinkClasses}>
               Sessions
             </NavLink>
+            <NavLink to={paths.account.secondFactor.getHref()} className={navLinkClasses}>
+              Second factor
+            </NavLink>
             <button
               type="button"
               onClick={onSignOut}
