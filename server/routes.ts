@@ -14,7 +14,7 @@ import { openApiDocument } from './openapi';
 import { authHandlers } from './modules/auth/auth.routes';
 import type { LoginThrottle } from './modules/auth/login-throttle';
 import { sessionsHandlers } from './modules/auth/sessions.routes';
-import { sessionParams } from '../shared/schemas/sessions';
+import { endSessionBody, sessionParams } from '../shared/schemas/sessions';
 import { usersHandlers } from './modules/users/users.routes';
 import { projectsHandlers } from './modules/projects/projects.routes';
 import { membersHandlers } from './modules/members/members.routes';
@@ -105,8 +105,9 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     { method: 'post', path: '/auth/password', access: ownAccount, body: changePasswordBody, handler: auth.changePassword },
     // A signed-in person's own sessions (where and when they are signed in): listed, and ended one by one or all but this one
     { method: 'get', path: '/auth/sessions', access: signedIn, handler: sessions.list },
-    { method: 'post', path: '/auth/sessions/end-others', access: signedIn, handler: sessions.endOthers },
-    { method: 'delete', path: '/auth/sessions/:sessionId', access: signedIn, params: sessionParams, handler: sessions.end },
+    // Ending sessions asks for the password or a code, as a sensitive change does (ASVS 3.3.4)
+    { method: 'post', path: '/auth/sessions/end-others', access: signedIn, body: endSessionBody, confirm: confirm('passwordOrCode'), handler: sessions.endOthers },
+    { method: 'delete', path: '/auth/sessions/:sessionId', access: signedIn, params: sessionParams, body: endSessionBody, confirm: confirm('passwordOrCode'), handler: sessions.end },
     // The second factor (one-time codes): its state, a secret to enrol, the code that turns it on, and turning it off (password and code)
     { method: 'get', path: '/auth/second-factor', access: signedIn, handler: secondFactor.status },
     { method: 'post', path: '/auth/second-factor/setup', access: signedIn, handler: secondFactor.begin },

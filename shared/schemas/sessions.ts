@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { confirmationFields } from './second-factor';
 
 /**
  * One of a person's signed-in sessions as their account page lists it. The
@@ -23,3 +24,7 @@ export const accountSessionsResponse = z.object({ sessions: z.array(accountSessi
 export type AccountSessionsResponse = z.infer<typeof accountSessionsResponse>;
 
 export const sessionParams = z.object({ sessionId: z.string().regex(/^[A-Za-z0-9_-]{1,64}$/, 'Not a session id.') });
+
+/** Ending a session, or all the others, is confirmed with the password or a code (ASVS 3.3.4; server/middleware/confirmation.ts). */
+export const endSessionBody = z.object({ ...confirmationFields });
+export type EndSessionBody = z.infer<typeof endSessionBody>;

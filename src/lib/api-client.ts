@@ -201,7 +201,7 @@ export const api = {
   post: <T>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>) => request<T>('POST', path, { ...options, body }),
   put: <T>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>) => request<T>('PUT', path, { ...options, body }),
   patch: <T>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>) => request<T>('PATCH', path, { ...options, body }),
-  delete: <T = void>(path: string, options?: Omit<RequestOptions, 'body'>) => request<T>('DELETE', path, options),
+  delete: <T = void>(path: string, body?: unknown, options?: Omit<RequestOptions, 'body'>) => request<T>('DELETE', path, { ...options, body }),
   /** A multipart form with a file, reporting the bytes sent as they go. */
   postMultipart,
 };

@@ -52,8 +52,8 @@ const cases: Record<string, Case> = {
   'POST /auth/password': { rule: 'signed-in', body: () => ({ currentPassword: PASSWORD, password: 'a-new-long-password' }) },
   'GET /openapi.json': { rule: 'signed-in' },
   'GET /auth/sessions': { rule: 'signed-in' },
-  'POST /auth/sessions/end-others': { rule: 'signed-in' },
-  'DELETE /auth/sessions/:sessionId': { rule: 'signed-in' },
+  'POST /auth/sessions/end-others': { rule: 'signed-in', body: () => ({ currentPassword: PASSWORD }) },
+  'DELETE /auth/sessions/:sessionId': { rule: 'signed-in', body: () => ({ currentPassword: PASSWORD }) },
   'GET /auth/second-factor': { rule: 'signed-in' },
   'POST /auth/second-factor/setup': { rule: 'signed-in' },
   'POST /auth/second-factor/confirm': {

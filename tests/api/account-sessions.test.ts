@@ -51,7 +51,7 @@ describe('a person’s own sessions (ASVS 3.3.4)', () => {
     const here = await signIn(world.app, 'lead');
     const there = await signInFrom('lead', CHROME_WINDOWS, ADDRESS_B);
     const other = (await here.agent.get('/api/auth/sessions').expect(200)).body.sessions.find((s: { current: boolean }) => !s.current);
-    await here.agent.delete(`/api/auth/sessions/${other.id}`).set('X-CSRF-Token', here.csrf).expect(204);
+    await here.agent.delete(`/api/auth/sessions/${other.id}`).set('X-CSRF-Token', here.csrf).send({ currentPassword: PASSWORD }).expect(204);
     await there.agent.get('/api/auth/me').expect(401);
     await here.agent.get('/api/auth/me').expect(200);
     expect((await here.agent.get('/api/auth/sessions').expect(200)).body.sessions).toHaveLength(1);
@@ -61,7 +61,7 @@ describe('a person’s own sessions (ASVS 3.3.4)', () => {
     world = await makeWorld();
     const here = await signIn(world.app, 'reader');
     const [mine] = (await here.agent.get('/api/auth/sessions').expect(200)).body.sessions;
-    await here.agent.delete(`/api/auth/sessions/${mine.id}`).set('X-CSRF-Token', here.csrf).expect(204);
+    await here.agent.delete(`/api/auth/sessions/${mine.id}`).set('X-CSRF-Token', here.csrf).send({ currentPassword: PASSWORD }).expect(204);
     await here.agent.get('/api/auth/me').expect(401);
   });
 
@@ -70,7 +70,7 @@ describe('a person’s own sessions (ASVS 3.3.4)', () => {
     const here = await signIn(world.app, 'pi');
     const others = [await signIn(world.app, 'pi'), await signInFrom('pi', FIREFOX_LINUX, ADDRESS_A), await signInFrom('pi', CHROME_WINDOWS, ADDRESS_B)];
     const someoneElse = await signIn(world.app, 'observer');
-    expect((await here.agent.post('/api/auth/sessions/end-others').set('X-CSRF-Token', here.csrf).expect(200)).body).toEqual({ ended: 3 });
+    expect((await here.agent.post('/api/auth/sessions/end-others').set('X-CSRF-Token', here.csrf).send({ currentPassword: PASSWORD }).expect(200)).body).toEqual({ ended: 3 });
     for (const o of others) await o.agent.get('/api/auth/me').expect(401);
     await here.agent.get('/api/auth/me').expect(200);
     await someoneElse.agent.get('/api/auth/me').expect(200);
@@ -82,7 +82,7 @@ describe('a person’s own sessions (ASVS 3.3.4)', () => {
     const theirs = await signIn(world.app, 'lead');
     const [their] = (await theirs.agent.get('/api/auth/sessions').expect(200)).body.sessions;
     expect((await mine.agent.get('/api/auth/sessions').expect(200)).body.sessions.map((s: { id: string }) => s.id)).not.toContain(their.id);
-    const res = await mine.agent.delete(`/api/auth/sessions/${their.id}`).set('X-CSRF-Token', mine.csrf).expect(404);
+    const res = await mine.agent.delete(`/api/auth/sessions/${their.id}`).set('X-CSRF-Token', mine.csrf).send({ currentPassword: PASSWORD }).expect(404);
     expect(res.body.error.message).toBe('No such session of yours; it may have ended already.');
     await theirs.agent.get('/api/auth/me').expect(200);
   });
@@ -94,6 +94,20 @@ describe('a person’s own sessions (ASVS 3.3.4)', () => {
     clock.advance(40 * 60_000);
     const now = await signIn(world.app, 'observer');
     expect((await now.agent.get('/api/auth/sessions').expect(200)).body.sessions).toHaveLength(1);
+  });
+
+  it('ending one session or all the others asks for the password again (or a code), naming the field, and ends nothing without it', async () => {
+    world = await makeWorld();
+    const here = await signIn(world.app, 'lead');
+    const there = await signInFrom('lead', CHROME_WINDOWS, ADDRESS_B);
+    const other = (await here.agent.get('/api/auth/sessions').expect(200)).body.sessions.find((s: { current: boolean }) => !s.current);
+    const detail = (res: request.Response) => (res.body.error.details as { path: string; message: string }[]).find((d) => d.path === 'currentPassword')?.message;
+    expect(detail(await here.agent.delete(`/api/auth/sessions/${other.id}`).set('X-CSRF-Token', here.csrf).expect(400))).toMatch(/Confirm with your current password/);
+    expect(detail(await here.agent.delete(`/api/auth/sessions/${other.id}`).set('X-CSRF-Token', here.csrf).send({ currentPassword: 'not-the-password' }).expect(400))).toMatch(/not your current password/);
+    expect(detail(await here.agent.post('/api/auth/sessions/end-others').set('X-CSRF-Token', here.csrf).send({}).expect(400))).toMatch(/Confirm with your current password/);
+    await there.agent.get('/api/auth/me').expect(200);
+    await here.agent.post('/api/auth/sessions/end-others').set('X-CSRF-Token', here.csrf).send({ currentPassword: PASSWORD }).expect(200);
+    await there.agent.get('/api/auth/me').expect(401);
   });
 
   it('ending needs the CSRF token like any other write', async () => {

@@ -72,6 +72,13 @@ describe.skipIf(!chromiumAvailable)('my sessions in the browser, and a session e
     await elsewhere.getByRole('heading', { name: 'API tokens', level: 1 }).waitFor();
     const other = list.locator('[data-current="no"]');
     await other.getByRole('button', { name: /^End this session \(/ }).click();
+    // Ending a session asks for the password again (ASVS 3.3.4); without it the refusal is named at the field.
+    await other.getByRole('button', { name: 'Yes, end it' }).click();
+    await other.getByText('Confirm with your current password.').waitFor();
+    expect(await other.getByLabel('Confirm with your password', { exact: true }).getAttribute('aria-invalid')).toBe('true');
+    expect(await axeViolations(here)).toEqual([]);
+    await screenshot(here, 'account-sessions-confirm-1366');
+    await other.getByLabel('Confirm with your password', { exact: true }).fill('observer-demo-2026');
     await other.getByRole('button', { name: 'Yes, end it' }).click();
     await expect.poll(() => list.getByRole('listitem').count()).toBe(1);
 

@@ -3,6 +3,9 @@ import type { AccountSession } from '@shared/schemas/sessions';
 import { Button } from '@/components/ui/button';
 import { Alert } from '@/components/ui/alert';
 import { ConfirmInPlace } from '@/components/ui/confirm-in-place';
+import { ConfirmationField } from '@/components/ui/confirmation-field';
+import { useUser } from '@/lib/auth';
+import { confirmationBody, confirmationRefusal } from '@/lib/confirmation';
 import { formatCount, formatDateTime } from '@/lib/format';
 import { useEndSession } from '../api/end-session';
 import { useEndOtherSessions } from '../api/end-other-sessions';
@@ -11,10 +14,29 @@ function nameOf(s: AccountSession): string {
   return s.browser ?? 'An unnamed browser or program';
 }
 
-/** Ending asks once more, in place, naming the browser. */
+/** The confirmation box of an ending's question, with the server's refusal of it at the box. */
+function EndingConfirmation({ typed, onType, error }: { typed: string; onType: (typed: string) => void; error?: string }) {
+  const user = useUser();
+  return (
+    <ConfirmationField
+      account={user.email}
+      secondFactorOn={user.secondFactor}
+      error={error}
+      className="w-full max-w-sm"
+      autoFocus
+      value={typed}
+      onChange={(e) => onType(e.target.value)}
+    />
+  );
+}
+
+/** Ending asks once more, in place, naming the browser, with the password or a code (ASVS 3.3.4). */
 function EndSession({ session }: { session: AccountSession }) {
+  const user = useUser();
   const [confirming, setConfirming] = useState(false);
+  const [typed, setTyped] = useState('');
   const end = useEndSession();
+  const refusal = confirmationRefusal(end.error);
   if (!confirming) {
     return (
       <Button variant="danger" size="sm" onClick={() => setConfirming(true)} aria-label={`End this session (${nameOf(session)}, last used ${formatDateTime(session.lastSeenAt)})`}>
@@ -29,17 +51,22 @@ function EndSession({ session }: { session: AccountSession }) {
       yes="Yes, end it"
       busy={end.isPending}
       busyText="Ending…"
-      error={end.isError ? end.error.message : null}
-      onYes={() => end.mutate(session.id)}
+      error={refusal.other}
+      onYes={() => end.mutate({ sessionId: session.id, ...confirmationBody(typed, user.secondFactor) })}
       onKeep={() => setConfirming(false)}
-    />
+    >
+      <EndingConfirmation typed={typed} onType={setTyped} error={refusal.field} />
+    </ConfirmInPlace>
   );
 }
 
-/** Every other session at once, after one more question. */
+/** Every other session at once, after one more question and the password or a code. */
 export function EndOtherSessions({ others }: { others: number }) {
+  const user = useUser();
   const [confirming, setConfirming] = useState(false);
+  const [typed, setTyped] = useState('');
   const endOthers = useEndOtherSessions();
+  const refusal = confirmationRefusal(endOthers.error);
   if (endOthers.isSuccess && !confirming) {
     return <Alert kind="done" title={`${formatCount(endOthers.data.ended, 'other session')} ended.`} />;
   }
@@ -59,10 +86,19 @@ export function EndOtherSessions({ others }: { others: number }) {
       busy={endOthers.isPending}
       busyText="Ending…"
       keep="Keep them"
-      error={endOthers.isError ? endOthers.error.message : null}
-      onYes={() => endOthers.mutate(undefined, { onSuccess: () => setConfirming(false) })}
+      error={refusal.other}
+      onYes={() =>
+        endOthers.mutate(confirmationBody(typed, user.secondFactor), {
+          onSuccess: () => {
+            setConfirming(false);
+            setTyped('');
+          },
+        })
+      }
       onKeep={() => setConfirming(false)}
-    />
+    >
+      <EndingConfirmation typed={typed} onType={setTyped} error={refusal.field} />
+    </ConfirmInPlace>
   );
 }
 
