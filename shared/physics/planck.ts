@@ -194,6 +194,9 @@ function refine(points: Weighted, start: { lnT: number; lnS: number }): { lnT: n
   let current = accumulate(points, lnT, lnS);
   let lambda = 1e-3;
   let iterations = 0;
+  // A step that lowers χ² by less than a millionth of χ²/dof is the end: a change of χ²/dof in χ² moves a parameter
+  // by its 1σ (Numerical Recipes §15.5: stop once χ² decreases by a negligible amount; from memory), so the last step was ~10⁻³σ.
+  const negligible = (1e-6 * current.chi2) / Math.max(points.wavelengthM.length - 2, 1);
   for (; iterations < 200; iterations++) {
     const [a, b, d] = current.jtj;
     const [g0, g1] = current.jtr;
@@ -210,7 +213,7 @@ function refine(points: Weighted, start: { lnT: number; lnS: number }): { lnT: n
       lnS += dS;
       current = trial;
       lambda = Math.max(lambda / 10, 1e-12);
-      if (improvement <= 1e-12 * current.chi2 && Math.abs(dT) < 1e-10 && Math.abs(dS) < 1e-10) break;
+      if (improvement <= negligible) break;
     } else {
       lambda *= 10;
       if (lambda > 1e12) break;
@@ -310,8 +313,8 @@ function logLikelihood(e2: Float64Array, m2: Float64Array, a2: number, b2: numbe
 /** How many times the noise model is re-estimated and the fit re-weighted; the weights settle after two or three. */
 const NOISE_PASSES = 3;
 
-/** Most points the noise model is settled on; a longer spectrum's every k-th point (fitPlanck). */
-const NOISE_SAMPLE_POINTS = 20_000;
+/** Most points the fit settles on before it fits the whole spectrum: a longer one's every k-th point (fitPlanck). */
+const SAMPLE_POINTS = 20_000;
 
 /** The noise assumption in words: which part of σ² = a² + (bF)² dominates at the typical flux of the spectrum. */
 function noiseWords(a2: number, b2: number, model: Float64Array): string {
@@ -354,9 +357,8 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
     throw new PhysicsError('fit_failed', 'temperature_planck', 'no positive Planck curve matches this spectrum');
   }
   let noise: PlanckNoise = { model: 'given', words: 'weighted by the flux uncertainties given' };
-  let result: ReturnType<typeof refine>;
   let iterations = 0;
-  /** Weights the points by the noise estimated from their scatter about the last fit, and fits them again; false when the scatter is zero. */
+  /** Weights the points by the noise estimated from their scatter about the last fit, and fits them again; null when the scatter is zero. */
   const reweight = (fitted: Weighted, from: ReturnType<typeof refine>): { points: Weighted; result: ReturnType<typeof refine> } | null => {
     const level = noiseFromScatter(fitted, from.lnT, from.lnS);
     if (!level) return null;
@@ -367,28 +369,26 @@ export function fitPlanck(spectrum: Spectrum): PlanckFit {
     iterations += refitted.iterations;
     return { points: weighted, result: refitted };
   };
-  if (spectrum.fluxSigma) {
-    result = refine(points, start);
-    iterations = result.iterations;
-  } else {
+  // A long spectrum is fitted first at every k-th point (at most SAMPLE_POINTS), where the refinement and, without flux
+  // uncertainties, the noise model settle; the whole is then fitted once more from there, so every point counts in the result.
+  let sample = thinned(points, SAMPLE_POINTS);
+  let result = refine(sample, start);
+  iterations += result.iterations;
+  if (!spectrum.fluxSigma) {
     noise = { model: 'flux_level', constant: 0, proportional: 0, words: 'no flux uncertainties given; the scatter about the fit is zero' };
-    // The noise model settles on every k-th point of a long spectrum (their scatter is the whole's); the whole is then
-    // weighted by the noise its own scatter gives and fitted once more from there, so every point counts in the result.
-    let sample = thinned(points, NOISE_SAMPLE_POINTS);
-    result = refine(sample, start);
-    iterations = result.iterations;
     for (let pass = 0; pass < NOISE_PASSES; pass++) {
       const next = reweight(sample, result);
       if (!next) break;
       ({ points: sample, result } = next);
     }
-    if (sample.wavelengthM.length < n) {
-      const whole = reweight(points, result);
-      if (whole) result = whole.result;
-      else {
-        result = refine(points, result);
-        iterations += result.iterations;
-      }
+  }
+  if (sample.wavelengthM.length < n) {
+    // Without flux uncertainties the whole is weighted by the noise its own scatter about the sample's fit gives.
+    const whole = spectrum.fluxSigma ? null : reweight(points, result);
+    if (whole) result = whole.result;
+    else {
+      result = refine(points, result);
+      iterations += result.iterations;
     }
   }
   const { lnT, lnS, at: current } = result;
