@@ -18,6 +18,7 @@ export const router = createBrowserRouter([
   outsideTheWorkbook(paths.auth.forgotPassword.path, async () => ({ Component: (await import('./routes/forgot-password')).ForgotPasswordRoute })),
   outsideTheWorkbook(paths.auth.resetPassword.path, async () => ({ Component: (await import('./routes/reset-password')).ResetPasswordRoute })),
   outsideTheWorkbook(paths.auth.invitation.path, async () => ({ Component: (await import('./routes/invitation')).InvitationRoute })),
+  outsideTheWorkbook(paths.privacy.path, async () => ({ Component: (await import('./routes/privacy')).PrivacyRoute })),
   {
     path: paths.home.path,
     HydrateFallback: RouteLoading,

@@ -133,4 +133,9 @@ export const paths = {
     path: '/api-reference',
     getHref: () => '/api-reference',
   },
+  /** The privacy notice: open to everyone, signed in or not. */
+  privacy: {
+    path: '/privacy',
+    getHref: () => '/privacy',
+  },
 } as const;

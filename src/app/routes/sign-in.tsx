@@ -35,6 +35,11 @@ export function SignInRoute() {
           Forgot your password?
         </Link>
       </p>
+      <p className="mt-3 text-center text-sm">
+        <Link to={paths.privacy.getHref()} className={linkClasses}>
+          Privacy notice
+        </Link>
+      </p>
       {redirectTo !== paths.home.getHref() ? (
         <p className="mt-6 text-center text-xs text-ink-soft">After signing in you will return to the page you asked for.</p>
       ) : null}

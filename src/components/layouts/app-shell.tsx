@@ -2,6 +2,7 @@ import type { ReactNode } from 'react';
 import { Link, NavLink, useMatch, useNavigation } from 'react-router-dom';
 import { paths } from '@/config/paths';
 import { cn } from '@/lib/cn';
+import { linkClasses } from '@/components/ui/button';
 import { Wordmark } from './wordmark';
 import { DimToggle, ThemeToggle } from './theme-toggle';
 
@@ -203,6 +204,13 @@ export function AppShell({
       <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-6 py-8">
         {children}
       </main>
+      <footer className="border-t border-rule" data-print="hide">
+        <div className="mx-auto flex max-w-6xl flex-wrap gap-x-6 gap-y-1 px-6 py-4 text-sm text-ink-soft">
+          <Link to={paths.privacy.getHref()} className={linkClasses}>
+            Privacy notice
+          </Link>
+        </div>
+      </footer>
     </div>
   );
 }

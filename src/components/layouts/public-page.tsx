@@ -1,9 +1,14 @@
 import type { ReactNode } from 'react';
+import { cn } from '@/lib/cn';
 import { Wordmark } from './wordmark';
 import { DimToggle, ThemeToggle } from './theme-toggle';
 
-/** The narrow page for what comes before the workbook: signing in, accepting an invitation, setting a new password. */
-export function PublicPage({ title, subtitle, children }: { title: string; subtitle?: ReactNode; children: ReactNode }) {
+/**
+ * The narrow page for what comes before the workbook: signing in, accepting
+ * an invitation, setting a new password; `wide` for a page of reading (the
+ * privacy notice), at a comfortable line length.
+ */
+export function PublicPage({ title, subtitle, wide = false, children }: { title: string; subtitle?: ReactNode; wide?: boolean; children: ReactNode }) {
   return (
     <div className="flex min-h-screen flex-col bg-paper text-ink">
       <title>{`${title} · Starledger`}</title>
@@ -11,7 +16,7 @@ export function PublicPage({ title, subtitle, children }: { title: string; subti
         <ThemeToggle />
         <DimToggle />
       </div>
-      <main className="mx-auto w-full max-w-sm flex-1 px-6 pt-10 pb-16">
+      <main className={cn('mx-auto w-full flex-1 px-6 pt-10 pb-16', wide ? 'max-w-2xl' : 'max-w-sm')}>
         <div className="mb-8 border-b-4 border-double border-rule pb-4 text-center">
           <Wordmark className="justify-center" />
           <h1 className="mt-4 text-2xl font-semibold">{title}</h1>
