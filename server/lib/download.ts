@@ -7,6 +7,11 @@ export interface Download {
   chunks: AsyncGenerator<string>;
 }
 
+/** The Content-Disposition of a file to save under `filename`: RFC 6266 §4.1 with the name in RFC 8187's UTF-8 form, so no name can break out of the header. */
+export function attachmentDisposition(filename: string): string {
+  return `attachment; filename*=UTF-8''${encodeURIComponent(filename)}`;
+}
+
 /** Resolves when the response can take more, or when the person has gone away. */
 function drained(res: Response): Promise<void> {
   return new Promise((resolve) => {
@@ -28,7 +33,7 @@ function drained(res: Response): Promise<void> {
 export async function sendDownload(res: Response, file: Download): Promise<void> {
   const first = await file.chunks.next();
   res.setHeader('Content-Type', file.contentType);
-  res.setHeader('Content-Disposition', `attachment; filename*=UTF-8''${encodeURIComponent(file.filename)}`);
+  res.setHeader('Content-Disposition', attachmentDisposition(file.filename));
   res.setHeader('X-Content-Type-Options', 'nosniff');
   res.setHeader('Cache-Control', 'no-store');
   try {

@@ -202,3 +202,19 @@ export async function listActivity(db: Db, userId: number, roles: readonly strin
     .limit(limit);
   return rows.map((r) => ({ ...toEntry(r), projectCode: r.project_code ?? null }));
 }
+
+/**
+ * Every entry a person made, or that is about their account (made by a site
+ * admin, say), in every project and none, oldest first, with the project's
+ * code: their part of the trail for the export of their own data.
+ */
+export async function listEntriesOfPerson(db: Db, userId: number): Promise<(TrailRecord & { projectCode: string | null })[]> {
+  const rows: TrailRow[] = await selectEntries(db)
+    .leftJoin('projects as p', 'p.id', 'e.project_id')
+    .where('e.actor_user_id', userId)
+    .orWhere((w) => w.where('e.entity_type', 'user').andWhere('e.entity_id', userId))
+    .select('p.code as project_code')
+    .orderBy('e.created_at', 'asc')
+    .orderBy('e.id', 'asc');
+  return rows.map((r) => ({ ...toEntry(r), projectCode: r.project_code ?? null }));
+}

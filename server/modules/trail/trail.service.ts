@@ -4,7 +4,7 @@ import type { ListTrailQuery, TrailEntry } from '../../../shared/schemas/trail';
 import { neutraliseCell, toCsv } from '../../lib/csv';
 import { notFound } from '../../lib/errors';
 import { getProjectForUser } from '../projects/projects.repository';
-import { eachTrailBatch, listActivity, listTrail, type TrailFilters } from './trail.repository';
+import { eachTrailBatch, listActivity, listEntriesOfPerson, listTrail, type TrailFilters } from './trail.repository';
 
 export type TrailExportFormat = 'csv' | 'json';
 
@@ -69,6 +69,9 @@ export function createTrailService(db: Db) {
 
     /** The newest entries of every project whose trail the person's role may read. */
     activity: (userId: number, limit: number) => listActivity(db, userId, permissions.readTrail, limit),
+
+    /** What the person did, and what was done to their account, everywhere (the export of their own data). */
+    ofPerson: (userId: number) => listEntriesOfPerson(db, userId),
   };
 }
 

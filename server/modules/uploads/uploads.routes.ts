@@ -3,11 +3,12 @@ import { commitBody, createUploadFields, remapBody, uploadErrorsQuery, uploadPar
 import { LONG_TEMPLATE, WIDE_TEMPLATE } from '../../../shared/file-reading/measurement-file';
 import { projectAccessOf } from '../../middleware/access';
 import { parsed } from '../../middleware/validate';
+import { attachmentDisposition } from '../../lib/download';
 import type { UploadsService } from './uploads.service';
 
 function attachment(res: Response, filename: string, type: string) {
   res.setHeader('Content-Type', type);
-  res.setHeader('Content-Disposition', `attachment; filename*=UTF-8''${encodeURIComponent(filename)}`);
+  res.setHeader('Content-Disposition', attachmentDisposition(filename));
   res.setHeader('X-Content-Type-Options', 'nosniff');
 }
 
