@@ -48,6 +48,8 @@ export interface AppOptions {
   adminSecondFactor?: 'required' | 'optional';
   /** The key one-time password secrets are encrypted with (SECOND_FACTOR_KEY); a random one for this app when omitted (tests). */
   secondFactorKey?: string;
+  /** Megabytes of uploaded files one person may have stored over every project (UPLOAD_QUOTA_MB); no limit when omitted. */
+  uploadQuotaMb?: number;
   /** Where the security log's JSON lines go (server/lib/security-log.ts); standard output when omitted. */
   logDestination?: DestinationStream;
 }
@@ -56,7 +58,7 @@ export function createApp(options: AppOptions): Express {
   const { db } = options;
   const clock = options.clock ?? systemClock;
   const limits = { ...defaultSessionLimits, ...options.sessionLimits };
-  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits, passwordPepper: options.passwordPepper, secondFactorKey: options.secondFactorKey });
+  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits, passwordPepper: options.passwordPepper, secondFactorKey: options.secondFactorKey, uploadQuotaMb: options.uploadQuotaMb });
   const passport = createPassport(services.users);
 
   const app = express();

@@ -49,6 +49,7 @@ async function main() {
     publicUrl: config.publicUrl,
     mailInbox: fake?.inbox,
     sessionLimits: { maxHours: config.sessionMaxHours, idleMinutes: config.sessionIdleMinutes },
+    uploadQuotaMb: config.uploadQuotaMb,
   });
   const server = app.listen(config.port, config.host, () => {
     console.log(`Starledger is running: sign in at http://localhost:${config.port}/sign-in`);

@@ -19,6 +19,7 @@ import { createSessionsService, type SessionLimits } from './modules/auth/sessio
 import { createSecondFactorService } from './modules/second-factor/second-factor.service';
 import type { MailInbox } from './mail/fake-smtp';
 import type { UploadJobs } from './modules/uploads/upload-jobs';
+import { createAccountExportService } from './modules/account/account-export.service';
 
 export interface ServiceOptions {
   /** The address people open Starledger at, for links in mail. */
@@ -33,6 +34,8 @@ export interface ServiceOptions {
   passwordPepper?: string;
   /** The key one-time password secrets are encrypted with (SECOND_FACTOR_KEY; second-factor.service.ts); a random one for this process when omitted (tests). */
   secondFactorKey?: string;
+  /** Megabytes of uploaded files one person may have stored over every project (UPLOAD_QUOTA_MB); no limit when omitted. */
+  uploadQuotaMb?: number;
 }
 
 export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
@@ -40,13 +43,13 @@ export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
 /** Services are built once per app, with the app's database and clock. */
 export function createServices(db: Db, clock: Clock, options: ServiceOptions = {}) {
   const publicUrl = options.publicUrl ?? DEFAULT_PUBLIC_URL;
-  return {
+  const services = {
     users: createUsersService(db, clock, { publicUrl, pepper: options.passwordPepper }),
     projects: createProjectsService(db, clock),
     members: createMembersService(db, clock),
     targets: createTargetsService(db, clock),
     tokens: createTokensService(db, clock),
-    uploads: createUploadsService(db, clock, { jobs: options.uploadJobs }),
+    uploads: createUploadsService(db, clock, { jobs: options.uploadJobs, quotaMb: options.uploadQuotaMb }),
     derivedValues: createDerivedValuesService(db, clock, { publicUrl }),
     measurements: createMeasurementsService(db),
     trail: createTrailService(db),
@@ -58,6 +61,8 @@ export function createServices(db: Db, clock: Clock, options: ServiceOptions = {
     sessions: createSessionsService(db, clock, options.sessionLimits),
     secondFactor: createSecondFactorService(db, clock, options.secondFactorKey ?? randomBytes(32).toString('hex')),
   };
+  // Gathers a person's data from the services that keep each part.
+  return { ...services, accountExport: createAccountExportService(clock, services) };
 }
 
 export type Services = ReturnType<typeof createServices>;

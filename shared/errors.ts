@@ -25,6 +25,7 @@ export const errorCodes = {
   link_used: 'This link has already been used.',
   link_revoked: 'This invitation was withdrawn.',
   payload_too_large: 'The request is too large.',
+  upload_quota_exceeded: 'Your uploads have used the space each person may keep. Ask the site admin to raise the quota.',
   unsupported_media_type: 'The request’s body is not of the type this address reads.',
   database_busy: 'The database is busy (a backup or another writer holds it). Nothing was changed; try again in a few seconds.',
   storage_full: 'The server’s storage is full, so nothing was saved. Ask the site admin to free disk space, then try again.',

@@ -90,6 +90,12 @@ function toUpload(r: UploadRow, preview: PreviewSummary | null, errors: RowError
   };
 }
 
+/** Bytes of every file the person uploaded that is still stored, over all projects. */
+export async function storedUploadBytesOf(db: Db, userId: number): Promise<number> {
+  const row = await db('uploads').where({ user_id: userId }).sum<{ bytes: number | string | null }>('size_bytes as bytes').first();
+  return Number(row?.bytes ?? 0);
+}
+
 export async function insertUpload(
   db: Db,
   u: { projectId: number; userId: number; kind: Upload['kind']; filename: string; content: Buffer; sha256: string; targetId: number | null },

@@ -19,6 +19,7 @@ import {
   recordsOfRows,
   rowsWithErrors,
   setUploadStatus,
+  storedUploadBytesOf,
 } from './uploads.repository';
 
 export interface IncomingFile {
@@ -29,6 +30,8 @@ export interface IncomingFile {
 export interface UploadsOptions {
   /** Where reading and committing run (a worker thread in the server); in this thread when omitted. */
   jobs?: UploadJobs;
+  /** Megabytes of uploaded files one person may have stored over every project (ASVS 12.1.3); no limit when omitted. */
+  quotaMb?: number;
 }
 
 /**
@@ -39,6 +42,23 @@ export interface UploadsOptions {
  */
 export function createUploadsService(db: Db, clock: Clock, options: UploadsOptions = {}) {
   const jobs = options.jobs ?? inlineUploadJobs(db);
+
+  const quotaBytes = options.quotaMb === undefined ? Infinity : options.quotaMb * 1024 * 1024;
+
+  /**
+   * Refuses, before anything is stored, a file that would take the person's
+   * stored uploads (every project's, committed, previewed or discarded: each
+   * keeps its file) past the quota. Two uploads of one person racing may
+   * both pass; the quota bounds growth, it is not an exact ledger.
+   */
+  async function withinQuota(userId: number, bytes: number): Promise<void> {
+    if (quotaBytes === Infinity) return;
+    const used = await storedUploadBytesOf(db, userId);
+    if (used + bytes <= quotaBytes) return;
+    const mb = (n: number) => `${(n / 1024 / 1024).toFixed(1)} MB`;
+    const message = `This file (${mb(bytes)}) does not fit: your uploads already keep ${mb(used)} of the ${mb(quotaBytes)} each person may store. Nothing was stored. Ask the site admin to raise the quota.`;
+    throw new AppError(413, 'upload_quota_exceeded', message, [{ path: 'file', message }]);
+  }
 
   async function get(projectId: number, uploadId: number): Promise<Upload> {
     const upload = await findUpload(db, projectId, uploadId);
@@ -83,6 +103,7 @@ export function createUploadsService(db: Db, clock: Clock, options: UploadsOptio
       if (!file) throw validationFailed([{ path: 'file', message: 'Choose a file to upload (form field "file").' }]);
       // Checked before anything is stored: the upload row refers to the target.
       if (fields.kind === 'spectrum') await spectrumTarget(db, projectId, fields.targetId);
+      await withinQuota(actorUserId, file.buffer.length);
       const uploadId = await jobs.preview({ projectId, actorUserId, filename: file.originalname, content: file.buffer, fields, now: clock.now().toISOString() });
       return get(projectId, uploadId);
     },
