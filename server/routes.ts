@@ -108,10 +108,10 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
     // Ending sessions asks for the password or a code, as a sensitive change does (ASVS 3.3.4)
     { method: 'post', path: '/auth/sessions/end-others', access: signedIn, body: endSessionBody, confirm: confirm('passwordOrCode'), handler: sessions.endOthers },
     { method: 'delete', path: '/auth/sessions/:sessionId', access: signedIn, params: sessionParams, body: endSessionBody, confirm: confirm('passwordOrCode'), handler: sessions.end },
-    // The second factor (one-time codes): its state, a secret to enrol, the code that turns it on, and turning it off (password and code)
+    // The second factor (one-time codes): its state, a secret to enrol, the code that turns it on (with the password), and turning it off (password and code)
     { method: 'get', path: '/auth/second-factor', access: signedIn, handler: secondFactor.status },
     { method: 'post', path: '/auth/second-factor/setup', access: signedIn, handler: secondFactor.begin },
-    { method: 'post', path: '/auth/second-factor/confirm', access: signedIn, body: confirmSecondFactorBody, handler: secondFactor.confirm },
+    { method: 'post', path: '/auth/second-factor/confirm', access: signedIn, body: confirmSecondFactorBody, confirm: confirm('passwordOrCode'), handler: secondFactor.confirm },
     { method: 'post', path: '/auth/second-factor/off', access: signedIn, body: turnOffSecondFactorBody, confirm: confirm('passwordAndCode'), handler: secondFactor.turnOff },
     // A forgotten password: the link's token travels in the body, never in a URL that logs keep
     { method: 'post', path: '/auth/password-reset', access: anyone, body: passwordResetRequestBody, handler: passwordResets.request },

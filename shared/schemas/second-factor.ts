@@ -10,8 +10,6 @@ export const oneTimeCode = z.string().trim().regex(/^\d{3}\s?\d{3}$/, 'Type the 
 export const secondFactorEnrolment = z.object({ secret: z.string(), uri: z.string(), qrCode: z.string() });
 export type SecondFactorEnrolment = z.infer<typeof secondFactorEnrolment>;
 
-export const confirmSecondFactorBody = z.object({ code: oneTimeCode });
-export type ConfirmSecondFactorBody = z.infer<typeof confirmSecondFactorBody>;
 
 /** The code step of sign-in: six digits, or one of the recovery codes. */
 export const signInCodeBody = z.object({
@@ -38,4 +36,12 @@ export const confirmationFields = {
 };
 
 export const turnOffSecondFactorBody = z.object({ ...confirmationFields });
+
+/**
+ * The first code of the secret being enrolled, with the current password
+ * (checked by the route's confirmation), so that a borrowed session cannot
+ * put its own device on the account and lock its owner out.
+ */
+export const confirmSecondFactorBody = z.object({ currentPassword: confirmationFields.currentPassword, code: oneTimeCode });
+export type ConfirmSecondFactorBody = z.infer<typeof confirmSecondFactorBody>;
 export type TurnOffSecondFactorBody = z.infer<typeof turnOffSecondFactorBody>;

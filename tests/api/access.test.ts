@@ -61,7 +61,7 @@ const cases: Record<string, Case> = {
     body: async (w, caller) => {
       if (!caller) return { code: '123456' };
       const setup = await caller.agent.post('/api/auth/second-factor/setup').set('X-CSRF-Token', caller.csrf).expect(200);
-      return { code: codeAt(setup.body.secret, w.clock.now()) };
+      return { currentPassword: PASSWORD, code: codeAt(setup.body.secret, w.clock.now()) };
     },
   },
   // Turning it off wants the password and a code: a recovery code, as the enrolment took this 30-second step's code.

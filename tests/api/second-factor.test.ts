@@ -40,7 +40,7 @@ describe('one-time codes (RFC 6238)', () => {
 });
 
 describe('the second factor', () => {
-  it('is enrolled with a QR code and its secret as text, turned on by a current code, and gives ten single-use recovery codes kept only hashed', async () => {
+  it('is enrolled with a QR code and its secret as text, turned on by a current code with the password, and gives ten single-use recovery codes kept only hashed', async () => {
     const clock = movableClock();
     world = await makeWorld({ clock });
     const s = await signIn(world.app, 'reader');
@@ -52,11 +52,15 @@ describe('the second factor', () => {
     // Key URI format (github.com/google/google-authenticator/wiki/Key-Uri-Format): otpauth://totp/ISSUER:LABEL?secret=…&issuer=…
     expect(setup.body.uri).toMatch(new RegExp(`^otpauth://totp/Starledger:reader%40test\\.invalid\\?.*secret=${setup.body.secret}`));
 
-    const wrong = await s.agent.post('/api/auth/second-factor/confirm').set('X-CSRF-Token', s.csrf).send({ code: '000000' === codeAt(setup.body.secret, clock.now()) ? '111111' : '000000' }).expect(400);
+    const confirm = (body: object) => s.agent.post('/api/auth/second-factor/confirm').set('X-CSRF-Token', s.csrf).send(body);
+    const wrong = await confirm({ currentPassword: PASSWORD, code: '000000' === codeAt(setup.body.secret, clock.now()) ? '111111' : '000000' }).expect(400);
     expect(detail(wrong, 'code')).toMatch(/not the current code/);
+    // The session alone does not put a device on the account: the password comes with the first code.
+    expect(detail(await confirm({ code: codeAt(setup.body.secret, clock.now()) }).expect(400), 'currentPassword')).toMatch(/Confirm with your current password/);
+    expect(detail(await confirm({ currentPassword: 'not-the-password', code: codeAt(setup.body.secret, clock.now()) }).expect(400), 'currentPassword')).toMatch(/not your current password/);
     expect((await s.agent.get('/api/auth/me').expect(200)).body.user.secondFactor).toBe(false);
 
-    const ok = await s.agent.post('/api/auth/second-factor/confirm').set('X-CSRF-Token', s.csrf).send({ code: codeAt(setup.body.secret, clock.now()) }).expect(200);
+    const ok = await confirm({ currentPassword: PASSWORD, code: codeAt(setup.body.secret, clock.now()) }).expect(200);
     const codes = ok.body.recoveryCodes as string[];
     expect(codes).toHaveLength(10);
     expect(new Set(codes).size).toBe(10);

@@ -62,6 +62,7 @@ describe.skipIf(!chromiumAvailable)('the second factor in the browser', () => {
     expect(secret).toMatch(/^[A-Z2-7]{32}$/);
 
     const confirm = page.getByRole('form', { name: 'Confirm the second factor' });
+    await confirm.getByLabel('Confirm with your password', { exact: true }).fill('observer-demo-2026');
     await confirm.getByLabel('Code from your authenticator app').fill('12345');
     await confirm.getByRole('button', { name: 'Turn it on' }).click();
     await confirm.getByText('Type the six digits your authenticator app shows now.').waitFor();

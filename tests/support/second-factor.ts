@@ -1,5 +1,5 @@
 import { Secret, TOTP } from 'otpauth';
-import type { Session } from './world';
+import { PASSWORD, type Session } from './world';
 
 /**
  * A code of a base32 secret at a moment, made by otpauth apart from the
@@ -12,6 +12,6 @@ export const codeAt = (secret: string, at: Date) => new TOTP({ secret: Secret.fr
 export async function enrolSecondFactor(s: Session, at: Date): Promise<{ secret: string; recoveryCodes: string[] }> {
   const setup = await s.agent.post('/api/auth/second-factor/setup').set('X-CSRF-Token', s.csrf).expect(200);
   const secret = setup.body.secret as string;
-  const confirmed = await s.agent.post('/api/auth/second-factor/confirm').set('X-CSRF-Token', s.csrf).send({ code: codeAt(secret, at) }).expect(200);
+  const confirmed = await s.agent.post('/api/auth/second-factor/confirm').set('X-CSRF-Token', s.csrf).send({ currentPassword: PASSWORD, code: codeAt(secret, at) }).expect(200);
   return { secret, recoveryCodes: confirmed.body.recoveryCodes as string[] };
 }

@@ -5,12 +5,14 @@ import { confirmSecondFactorBody, type ConfirmSecondFactorBody } from '@shared/s
 import { Alert } from '@/components/ui/alert';
 import { Button } from '@/components/ui/button';
 import { OneTimeCodeField } from '@/components/ui/one-time-code-field';
+import { ConfirmationField } from '@/components/ui/confirmation-field';
+import { useUser } from '@/lib/auth';
 import { formParseOptions } from '@/lib/form-errors';
 import { useServerErrors } from '@/hooks/use-server-errors';
 import { useBeginSecondFactor } from '../api/begin-second-factor';
 import { useConfirmSecondFactor, type TurnedOn } from '../api/confirm-second-factor';
 
-const FIELDS = ['code'] as const;
+const FIELDS = ['code', 'currentPassword'] as const;
 
 /** The secret in groups of four, as it is read aloud or typed from the screen; the app takes it with or without the spaces. */
 const grouped = (secret: string) => secret.match(/.{1,4}/g)?.join(' ') ?? secret;
@@ -18,10 +20,12 @@ const grouped = (secret: string) => secret.match(/.{1,4}/g)?.join(' ') ?? secret
 /**
  * Turning the second factor on: a new secret as a QR code for the
  * authenticator app and as text to type into it, then the code the app shows
- * to prove it holds the secret. The recovery codes the server answers with go
+ * to prove it holds the secret, with the password (so that a borrowed
+ * session cannot enrol its own device). The recovery codes the server answers with go
  * to `onTurnedOn`, to be shown once.
  */
 export function EnrolSecondFactor({ onTurnedOn }: { onTurnedOn: (turnedOn: TurnedOn) => void }) {
+  const user = useUser();
   const begin = useBeginSecondFactor();
   const confirm = useConfirmSecondFactor();
   const {
@@ -31,7 +35,7 @@ export function EnrolSecondFactor({ onTurnedOn }: { onTurnedOn: (turnedOn: Turne
     formState: { errors, isSubmitting },
   } = useForm<z.input<typeof confirmSecondFactorBody>, unknown, ConfirmSecondFactorBody>({
     resolver: zodResolver(confirmSecondFactorBody, formParseOptions),
-    defaultValues: { code: '' },
+    defaultValues: { code: '', currentPassword: '' },
   });
   const { formError, send } = useServerErrors(setError, FIELDS);
 
@@ -71,12 +75,13 @@ export function EnrolSecondFactor({ onTurnedOn }: { onTurnedOn: (turnedOn: Turne
           </p>
         </li>
         <li>
-          <p>Type the code the app now shows for Starledger.</p>
+          <p>Type the code the app now shows for Starledger, and your password.</p>
         </li>
       </ol>
       <form onSubmit={onSubmit} noValidate aria-label="Confirm the second factor" className="max-w-md space-y-3">
         {formError ? <Alert title="The second factor is not on yet.">{formError}</Alert> : null}
         <OneTimeCodeField hint="Six digits; a new one every 30 seconds." error={errors.code?.message} {...register('code')} />
+        <ConfirmationField account={user.email} secondFactorOn={false} error={errors.currentPassword?.message} {...register('currentPassword')} />
         <Button type="submit" disabled={isSubmitting}>
           {isSubmitting ? 'Checking…' : 'Turn it on'}
         </Button>
