@@ -23,6 +23,7 @@ import * as mustChangePassword from './20261203013700_must_change_password';
 import * as projectTargetCountPerStatement from './20261203221000_project_target_count_per_statement';
 import * as uploadCommitProgress from './20261203222000_upload_commit_progress';
 import * as secondFactor from './20261203224700_second_factor';
+import * as recoveryCodeSalt from './20261204063000_recovery_code_salt';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -55,6 +56,7 @@ const migrations: Record<string, Knex.Migration> = {
   '20261203221000_project_target_count_per_statement': projectTargetCountPerStatement,
   '20261203222000_upload_commit_progress': uploadCommitProgress,
   '20261203224700_second_factor': secondFactor,
+  '20261204063000_recovery_code_salt': recoveryCodeSalt,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

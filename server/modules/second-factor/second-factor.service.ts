@@ -1,4 +1,4 @@
-import { createCipheriv, createDecipheriv, createHash, createHmac, randomBytes, randomInt } from 'node:crypto';
+import { createCipheriv, createDecipheriv, createHash, createHmac, randomBytes, randomInt, timingSafeEqual } from 'node:crypto';
 import { Secret, TOTP } from 'otpauth';
 import QRCode from 'qrcode';
 import type { Db } from '../../db/knex';
@@ -39,9 +39,14 @@ function sealer(keyText: string) {
       decipher.setAuthTag(Buffer.from(tag, 'base64url'));
       return Buffer.concat([decipher.update(Buffer.from(body, 'base64url')), decipher.final()]).toString('utf8');
     },
-    /** A recovery code's keyed hash: the code alone (from a copy of the database) does not give it. */
-    hash(code: string): string {
-      return createHmac('sha256', key).update(code).digest('hex');
+    /**
+     * A recovery code's keyed hash with its own random salt (ASVS 2.6.2: under
+     * 112 bits a lookup secret is salted, 32 bits, and hashed): a copy of the
+     * database alone does not give it, nor one hash test every account's codes.
+     * A code made before salts had none (salt '').
+     */
+    hash(code: string, salt: string): string {
+      return createHmac('sha256', key).update(salt === '' ? code : `${salt}\0${code}`).digest('hex');
     },
   };
 }
@@ -132,7 +137,12 @@ export function createSecondFactorService(db: Db, clock: Clock, key: string) {
       await db.transaction(async (trx) => {
         await trx('users').where({ id: userId }).update({ totp_secret: sealed.seal(pending), totp_pending_secret: null, totp_enabled_at: now, totp_last_step: step });
         await trx('recovery_codes').where({ user_id: userId }).delete();
-        await trx('recovery_codes').insert(codes.map((c) => ({ user_id: userId, code_hash: sealed.hash(normalRecovery(c)), created_at: now })));
+        await trx('recovery_codes').insert(
+          codes.map((c) => {
+            const salt = randomBytes(4).toString('hex');
+            return { user_id: userId, salt, code_hash: sealed.hash(normalRecovery(c), salt), created_at: now };
+          }),
+        );
         await appendTrail(trx, { projectId: null, actorUserId: userId, action: 'user.second_factor_on', entityType: 'user', entityId: userId, after: { recoveryCodes: codes.length } }, clock.now());
       });
       return codes;
@@ -152,10 +162,12 @@ export function createSecondFactorService(db: Db, clock: Clock, key: string) {
         return (await takeStep(userId, step)) ? 'ok' : 'used';
       }
       if (!options.recovery) return 'wrong';
-      const used = await db('recovery_codes')
-        .where({ user_id: userId, code_hash: sealed.hash(normalRecovery(code)) })
-        .whereNull('used_at')
-        .update({ used_at: clock.now().toISOString() });
+      // Each unused code is hashed with its own salt (ten at most); the one that matches is used up by one conditional update.
+      const typed = normalRecovery(code);
+      const unused: { id: number; salt: string | null; code_hash: string }[] = await db('recovery_codes').where({ user_id: userId }).whereNull('used_at').select('id', 'salt', 'code_hash');
+      const match = unused.find((row) => timingSafeEqual(Buffer.from(sealed.hash(typed, row.salt ?? ''), 'hex'), Buffer.from(row.code_hash, 'hex')));
+      if (!match) return 'wrong';
+      const used = await db('recovery_codes').where({ id: match.id }).whereNull('used_at').update({ used_at: clock.now().toISOString() });
       return used === 1 ? 'ok' : 'wrong';
     },
 
