@@ -51,6 +51,7 @@ const TAG_WORDS: Readonly<Record<string, string>> = {
   invitations: 'Invitations',
   tokens: 'API tokens',
   'mail-preferences': 'Mail preferences',
+  account: 'Your data',
   admin: 'Site administration',
   users: 'Accounts',
   projects: 'Projects',

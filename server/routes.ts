@@ -40,6 +40,7 @@ import { acceptInvitationBody, createInvitationBody } from '../shared/schemas/in
 import { confirmSecondFactorBody, signInCodeBody, turnOffSecondFactorBody } from '../shared/schemas/second-factor';
 import { secondFactorHandlers } from './modules/second-factor/second-factor.routes';
 import { confirmations } from './middleware/confirmation';
+import { accountExportHandlers } from './modules/account/account-export.routes';
 
 type Method = 'get' | 'post' | 'patch' | 'delete';
 
@@ -86,6 +87,7 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
   const mailFake = mailFakeHandlers(services.mailFake);
   const invitations = invitationsHandlers(services.invitations, services.users);
   const passwordResets = passwordResetsHandlers(services.passwordResets);
+  const account = accountExportHandlers(services.accountExport);
   const P = '/projects/:projectId';
 
   // The document is made once, on the first request, from the finished table below.
@@ -129,6 +131,8 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
 
     // Mail preferences (each person's own, per project they belong to)
     { method: 'get', path: '/mail-preferences', access: signedIn, handler: mailPreferences.list },
+    // Everything Starledger holds about the caller, as a file to save (ASVS 8.3.2)
+    { method: 'get', path: '/account/export', access: signedIn, handler: account.export },
 
     // The local mail fake's inbox (site admin; 404 when real SMTP is configured)
     { method: 'get', path: '/admin/mail', access: siteAdmin, handler: mailFake.list },

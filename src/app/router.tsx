@@ -63,6 +63,7 @@ export const router = createBrowserRouter([
             path: paths.account.secondFactor.path,
             lazy: async () => ({ Component: (await import('./routes/account-second-factor')).AccountSecondFactorRoute }),
           },
+          { path: paths.account.data.path, lazy: async () => ({ Component: (await import('./routes/account-data')).AccountDataRoute }) },
           { path: paths.admin.mail.path, lazy: async () => ({ Component: (await import('./routes/admin-mail')).AdminMailRoute }) },
           { path: paths.admin.users.path, lazy: async () => ({ Component: (await import('./routes/admin-users')).AdminUsersRoute }) },
           { path: paths.calculator.path, lazy: async () => ({ Component: (await import('./routes/calculator')).CalculatorRoute }) },

@@ -113,6 +113,10 @@ export const paths = {
       path: '/account/second-factor',
       getHref: () => '/account/second-factor',
     },
+    data: {
+      path: '/account/data',
+      getHref: () => '/account/data',
+    },
   },
   admin: {
     users: {

@@ -81,6 +81,7 @@ const cases: Record<string, Case> = {
   'POST /tokens': { rule: 'signed-in', body: () => ({ name: 'night pipeline', currentPassword: PASSWORD }) },
   'DELETE /tokens/:tokenId': { rule: 'signed-in' },
   'GET /mail-preferences': { rule: 'signed-in' },
+  'GET /account/export': { rule: 'signed-in' },
   'GET /admin/mail': { rule: 'site-admin' },
   'GET /admin/mail/:messageId': { rule: 'site-admin' },
   'GET /users': { rule: 'site-admin' },

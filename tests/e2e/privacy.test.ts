@@ -1,3 +1,4 @@
+import fs from 'node:fs';
 import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { axeViolations } from './support/axe';
@@ -19,8 +20,8 @@ async function inEveryLook(page: Page, shot: string, ready: () => Promise<void>)
   }
 }
 
-/** The privacy notice (ASVS 4.0.3 8.3.3), in Chromium against the production build. */
-describe.skipIf(!chromiumAvailable)('privacy notice', () => {
+/** The privacy notice (ASVS 4.0.3 8.3.3) and the download of one's own data (8.3.2), in Chromium against the production build. */
+describe.skipIf(!chromiumAvailable)('privacy notice and your data', () => {
   const { pageAs, newPage, baseUrl } = browserSuite();
 
   it('the notice is reached from the sign-in page without signing in, says what is recorded, why, how long, who sees it and who is responsible, by day and night at 390 and 1366 px', async () => {
@@ -40,10 +41,25 @@ describe.skipIf(!chromiumAvailable)('privacy notice', () => {
     await inEveryLook(page, 'privacy', () => heading.waitFor());
   });
 
-  it('signed in, every page’s footer reaches the notice', async () => {
+  it('signed in, the footer reaches the notice; Your data downloads starledger-account-<date>.json with the account and no credential, by day and night at 390 and 1366 px', async () => {
     const page = await pageAs('observer@demo.invalid');
     await page.getByRole('contentinfo').getByRole('link', { name: 'Privacy notice' }).click();
     await page.getByRole('heading', { name: 'Privacy notice', level: 1 }).waitFor();
-    expect(new URL(page.url()).pathname).toBe('/privacy');
+    await page.goBack();
+
+    await page.getByRole('link', { name: 'Your data', exact: true }).click();
+    const heading = page.getByRole('heading', { name: 'Your data', level: 1 });
+    await heading.waitFor();
+    await inEveryLook(page, 'account-data', () => heading.waitFor());
+
+    const download = page.waitForEvent('download');
+    await page.getByRole('link', { name: 'Download your data' }).click();
+    const file = await download;
+    expect(file.suggestedFilename()).toMatch(/^starledger-account-\d{4}-\d{2}-\d{2}\.json$/);
+    const saved = JSON.parse(fs.readFileSync((await file.path())!, 'utf8'));
+    expect(saved.account.email).toBe('observer@demo.invalid');
+    expect(saved.memberships.length).toBeGreaterThan(0);
+    expect(saved.sessions.some((s: { current: boolean }) => s.current)).toBe(true);
+    expect(JSON.stringify(saved)).not.toMatch(/scrypt|"(passwordHash|tokenHash|secret|sid)"/);
   });
 });

@@ -122,6 +122,9 @@ export function AppShell({
             <NavLink to={paths.account.secondFactor.getHref()} className={navLinkClasses}>
               Second factor
             </NavLink>
+            <NavLink to={paths.account.data.getHref()} className={navLinkClasses}>
+              Your data
+            </NavLink>
             <button
               type="button"
               onClick={onSignOut}
