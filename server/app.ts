@@ -50,6 +50,8 @@ export interface AppOptions {
   secondFactorKey?: string;
   /** Megabytes of uploaded files one person may have stored over every project (UPLOAD_QUOTA_MB); no limit when omitted. */
   uploadQuotaMb?: number;
+  /** How many uploaded files one person may have stored over every project (UPLOAD_QUOTA_FILES); no limit when omitted. */
+  uploadQuotaFiles?: number;
   /** Where the security log's JSON lines go (server/lib/security-log.ts); standard output when omitted. */
   logDestination?: DestinationStream;
 }
@@ -58,7 +60,7 @@ export function createApp(options: AppOptions): Express {
   const { db } = options;
   const clock = options.clock ?? systemClock;
   const limits = { ...defaultSessionLimits, ...options.sessionLimits };
-  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits, passwordPepper: options.passwordPepper, secondFactorKey: options.secondFactorKey, uploadQuotaMb: options.uploadQuotaMb });
+  const services = createServices(db, clock, { publicUrl: options.publicUrl, mailInbox: options.mailInbox, uploadJobs: options.uploadJobs, sessionLimits: limits, passwordPepper: options.passwordPepper, secondFactorKey: options.secondFactorKey, uploadQuotaMb: options.uploadQuotaMb, uploadQuotaFiles: options.uploadQuotaFiles });
   const passport = createPassport(services.users);
 
   const app = express();

@@ -24,6 +24,8 @@ export const config = {
   previewMaxAgeHours: Number(process.env.PREVIEW_MAX_AGE_HOURS ?? 48),
   /** Megabytes of uploaded files one person may have stored, over every project (ASVS 12.1.3). */
   uploadQuotaMb: positiveNumber('UPLOAD_QUOTA_MB', 1024),
+  /** Uploaded files one person may have stored, over every project (ASVS 12.1.3). */
+  uploadQuotaFiles: positiveNumber('UPLOAD_QUOTA_FILES', 10_000),
   /** A signed-in session ends this many hours after sign-in, and after this many minutes without use (ASVS 3.3.2 level 2: at most 12 and 30). */
   sessionMaxHours: positiveNumber('SESSION_MAX_HOURS', 12),
   sessionIdleMinutes: positiveNumber('SESSION_IDLE_MINUTES', 30),

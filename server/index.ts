@@ -50,6 +50,7 @@ async function main() {
     mailInbox: fake?.inbox,
     sessionLimits: { maxHours: config.sessionMaxHours, idleMinutes: config.sessionIdleMinutes },
     uploadQuotaMb: config.uploadQuotaMb,
+    uploadQuotaFiles: config.uploadQuotaFiles,
   });
   const server = app.listen(config.port, config.host, () => {
     console.log(`Starledger is running: sign in at http://localhost:${config.port}/sign-in`);

@@ -36,6 +36,8 @@ export interface ServiceOptions {
   secondFactorKey?: string;
   /** Megabytes of uploaded files one person may have stored over every project (UPLOAD_QUOTA_MB); no limit when omitted. */
   uploadQuotaMb?: number;
+  /** How many uploaded files one person may have stored over every project (UPLOAD_QUOTA_FILES); no limit when omitted. */
+  uploadQuotaFiles?: number;
 }
 
 export const DEFAULT_PUBLIC_URL = 'http://localhost:3000';
@@ -49,7 +51,7 @@ export function createServices(db: Db, clock: Clock, options: ServiceOptions = {
     members: createMembersService(db, clock),
     targets: createTargetsService(db, clock),
     tokens: createTokensService(db, clock),
-    uploads: createUploadsService(db, clock, { jobs: options.uploadJobs, quotaMb: options.uploadQuotaMb }),
+    uploads: createUploadsService(db, clock, { jobs: options.uploadJobs, quotaMb: options.uploadQuotaMb, quotaFiles: options.uploadQuotaFiles }),
     derivedValues: createDerivedValuesService(db, clock, { publicUrl }),
     measurements: createMeasurementsService(db),
     trail: createTrailService(db),

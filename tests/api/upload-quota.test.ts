@@ -49,6 +49,21 @@ describe('upload quota per person (ASVS 4.0.3 12.1.3; UPLOAD_QUOTA_MB)', () => {
     expect(await count('uploads')).toBe(uploadsBefore + 2);
   });
 
+  it('counts one person’s stored files, discarded ones too (each keeps its file), and refuses the one past UPLOAD_QUOTA_FILES with 413 naming the file field', async () => {
+    world = await makeWorld();
+    const app = createApp({ db: world.db, clock: world.clock, sessionSecret: 'test-secret', sessionCleanupIntervalMs: 0, adminSecondFactor: 'optional', uploadQuotaFiles: 2 });
+    const observer = await signIn(app, 'observer');
+    const first = await upload(observer, world.projectId, fileOf(300, 'one')).expect(201);
+    await observer.agent.post(`/api/projects/${world.projectId}/uploads/${first.body.upload.id}/discard`).set('X-CSRF-Token', observer.csrf).expect(200);
+    await upload(observer, world.projectId, fileOf(300, 'two')).expect(201);
+    const uploadsBefore = await count('uploads');
+    const refused = await upload(observer, world.projectId, fileOf(300, 'three')).expect(413);
+    expect(refused.body.error).toMatchObject({ code: 'upload_quota_exceeded', details: [{ path: 'file', message: refused.body.error.message }] });
+    expect(refused.body.error.message).toBe('Your uploads already keep 2 files, the most each person may store. Nothing was stored. Ask the site admin to raise the quota.');
+    expect(await count('uploads')).toBe(uploadsBefore);
+    await upload(await signIn(app, 'lead'), world.projectId, fileOf(300, 'lead')).expect(201);
+  });
+
   it('has no limit when the app is given none', async () => {
     world = await makeWorld();
     const observer = await signIn(world.app, 'observer');

@@ -90,10 +90,10 @@ function toUpload(r: UploadRow, preview: PreviewSummary | null, errors: RowError
   };
 }
 
-/** Bytes of every file the person uploaded that is still stored, over all projects. */
-export async function storedUploadBytesOf(db: Db, userId: number): Promise<number> {
-  const row = await db('uploads').where({ user_id: userId }).sum<{ bytes: number | string | null }>('size_bytes as bytes').first();
-  return Number(row?.bytes ?? 0);
+/** How many files the person uploaded are stored, and their bytes, over all projects. */
+export async function storedUploadsOf(db: Db, userId: number): Promise<{ files: number; bytes: number }> {
+  const row = await db('uploads').where({ user_id: userId }).first(db.raw('count(*) as files'), db.raw('coalesce(sum(size_bytes), 0) as bytes'));
+  return { files: Number(row?.files ?? 0), bytes: Number(row?.bytes ?? 0) };
 }
 
 export async function insertUpload(

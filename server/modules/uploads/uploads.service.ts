@@ -19,7 +19,7 @@ import {
   recordsOfRows,
   rowsWithErrors,
   setUploadStatus,
-  storedUploadBytesOf,
+  storedUploadsOf,
 } from './uploads.repository';
 
 export interface IncomingFile {
@@ -32,6 +32,8 @@ export interface UploadsOptions {
   jobs?: UploadJobs;
   /** Megabytes of uploaded files one person may have stored over every project (ASVS 12.1.3); no limit when omitted. */
   quotaMb?: number;
+  /** How many uploaded files one person may have stored over every project (ASVS 12.1.3); no limit when omitted. */
+  quotaFiles?: number;
 }
 
 /**
@@ -44,20 +46,25 @@ export function createUploadsService(db: Db, clock: Clock, options: UploadsOptio
   const jobs = options.jobs ?? inlineUploadJobs(db);
 
   const quotaBytes = options.quotaMb === undefined ? Infinity : options.quotaMb * 1024 * 1024;
+  const quotaFiles = options.quotaFiles ?? Infinity;
 
   /**
    * Refuses, before anything is stored, a file that would take the person's
    * stored uploads (every project's, committed, previewed or discarded: each
-   * keeps its file) past the quota. Two uploads of one person racing may
-   * both pass; the quota bounds growth, it is not an exact ledger.
+   * keeps its file) past the quota of bytes or of files. Two uploads of one
+   * person racing may both pass; the quota bounds growth, it is not an exact
+   * ledger.
    */
   async function withinQuota(userId: number, bytes: number): Promise<void> {
-    if (quotaBytes === Infinity) return;
-    const used = await storedUploadBytesOf(db, userId);
-    if (used + bytes <= quotaBytes) return;
-    const mb = (n: number) => `${(n / 1024 / 1024).toFixed(1)} MB`;
-    const message = `This file (${mb(bytes)}) does not fit: your uploads already keep ${mb(used)} of the ${mb(quotaBytes)} each person may store. Nothing was stored. Ask the site admin to raise the quota.`;
-    throw new AppError(413, 'upload_quota_exceeded', message, [{ path: 'file', message }]);
+    if (quotaBytes === Infinity && quotaFiles === Infinity) return;
+    const used = await storedUploadsOf(db, userId);
+    const refuse = (message: string) => new AppError(413, 'upload_quota_exceeded', message, [{ path: 'file', message }]);
+    const after = 'Nothing was stored. Ask the site admin to raise the quota.';
+    if (used.files + 1 > quotaFiles) throw refuse(`Your uploads already keep ${used.files} files, the most each person may store. ${after}`);
+    if (used.bytes + bytes > quotaBytes) {
+      const mb = (n: number) => `${(n / 1024 / 1024).toFixed(1)} MB`;
+      throw refuse(`This file (${mb(bytes)}) does not fit: your uploads already keep ${mb(used.bytes)} of the ${mb(quotaBytes)} each person may store. ${after}`);
+    }
   }
 
   async function get(projectId: number, uploadId: number): Promise<Upload> {
