@@ -41,6 +41,7 @@ import { confirmSecondFactorBody, signInCodeBody, turnOffSecondFactorBody } from
 import { secondFactorHandlers } from './modules/second-factor/second-factor.routes';
 import { confirmations } from './middleware/confirmation';
 import { accountExportHandlers } from './modules/account/account-export.routes';
+import { attachmentDisposition } from './lib/download';
 
 type Method = 'get' | 'post' | 'patch' | 'delete';
 
@@ -94,7 +95,13 @@ export function apiRoutes(services: Services, passport: StarledgerPassport, logi
   let document: ReturnType<typeof openApiDocument> | undefined;
   const routes: RouteDef[] = [
     // This API described (OpenAPI 3.1), generated from this table and its schemas
-    { method: 'get', path: '/openapi.json', access: signedIn, handler: (_req, res) => res.json((document ??= openApiDocument(routes, API_VERSION))) },
+    {
+      method: 'get',
+      path: '/openapi.json',
+      access: signedIn,
+      // Saved under the name the API reference page offers, not the api.json every answer carries.
+      handler: (_req, res) => res.set('Content-Disposition', attachmentDisposition('starledger-openapi.json')).json((document ??= openApiDocument(routes, API_VERSION))),
+    },
 
     // Sign-in
     { method: 'post', path: '/auth/login', access: anyone, body: loginBody, handler: auth.login },

@@ -30,7 +30,7 @@ describe('Content-Disposition of API answers (ASVS 4.0.3 14.4.2, RFC 6266)', () 
     }
   });
 
-  it('leaves a download its own name: the trail and values exports and an upload template', async () => {
+  it('leaves a download its own name: the trail and values exports, an upload template and the OpenAPI document', async () => {
     world = await makeWorld();
     const { agent } = await signIn(world.app, 'lead');
     const P = `/api/projects/${world.projectId}`;
@@ -38,9 +38,12 @@ describe('Content-Disposition of API answers (ASVS 4.0.3 14.4.2, RFC 6266)', () 
       trail: await agent.get(`${P}/trail/export?format=csv`).buffer(true).expect(200),
       values: await agent.get(`${P}/values/export?format=csv`).buffer(true).expect(200),
       template: await agent.get(`${P}/uploads/templates/long.csv`).buffer(true).expect(200),
+      openapi: await agent.get('/api/openapi.json').expect(200),
     };
     expect(attachmentName(files.trail.headers['content-disposition'])).toBe('TEST-trail.csv');
     expect(attachmentName(files.values.headers['content-disposition'])).toBe('TEST-values.csv');
     expect(attachmentName(files.template.headers['content-disposition'])).toBe('starledger-long-template.csv');
+    // The API reference page's link offers this name; the header outranks the link's download attribute (HTML, "downloading hyperlinks").
+    expect(attachmentName(files.openapi.headers['content-disposition'])).toBe('starledger-openapi.json');
   });
 });
