@@ -59,14 +59,17 @@ describe('uploads on the worker thread', () => {
         return r;
       });
     const seen: UploadProgress[] = [];
+    const fromRow: string[] = [];
     let readsAnswered = 0;
     while (!settled) {
-      const [p, t] = await Promise.all([
+      const [p, t, row] = await Promise.all([
         reader.agent.get(`/api/projects/${w.projectId}/uploads/${id}/progress`),
         reader.agent.get(`/api/projects/${w.projectId}/targets/${w.targetId}`),
+        w.db('uploads').where({ id }).first('commit_progress_json'),
       ]);
       if (!settled) readsAnswered += t.status === 200 ? 1 : 0;
       if (p.body.progress) seen.push(p.body.progress);
+      if (!settled && row?.commit_progress_json) fromRow.push((JSON.parse(row.commit_progress_json) as UploadProgress).phase);
       await new Promise((r) => setTimeout(r, 20));
     }
     const done = await commit;
@@ -80,6 +83,10 @@ describe('uploads on the worker thread', () => {
     expect(last).toEqual({ uploadId: id, phase: 'done', rowsWritten: 6000, rowsTotal: 6000, targetsDerived: 300, targetsTotal: 300 });
     // The process running the commit wrote its end to the upload's row, where another app process on the same database reads it.
     expect(JSON.parse((await w.db('uploads').where({ id }).first('commit_progress_json')).commit_progress_json)).toEqual(last);
+    // On PostgreSQL another process follows the commit from that row while it runs: the progress is written outside the
+    // commit's transaction, which must not hold the row's lock meanwhile (on SQLite only the end is written).
+    // ('deriving' is reported inside the transaction, after the rows are written.)
+    if (onPostgres) expect(fromRow, fromRow.join(' ')).toContain('deriving');
     // The project's target count, kept by triggers (per statement on PostgreSQL), counts the 300 targets the file created.
     const counted = await w.db('targets').where({ project_id: w.projectId }).count<{ n: number }[]>('* as n');
     expect((await w.db('projects').where({ id: w.projectId }).first('target_count')).target_count).toBe(Number(counted[0].n));

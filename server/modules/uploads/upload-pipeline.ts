@@ -226,13 +226,13 @@ async function commitWhole(db: Db, job: CommitJob, say: (p: Partial<UploadProgre
   say({ phase: 'reading' });
   const state = await loadPreviewState(db, uploadId);
   if (!state) throw conflict('This upload has no preview; upload the file again.');
-  const upload = await db('uploads').where({ id: uploadId }).first('kind', 'filename', 'mapping_json');
+  const upload = await db('uploads').where({ id: uploadId }).first('kind', 'filename', 'mapping_json', 'status');
+  if (upload?.status !== 'previewed') throw conflict('This upload was committed or discarded meanwhile.');
   const stored = JSON.parse(upload.mapping_json ?? '{}') as Partial<ColumnMapping>;
   const mapping = stored.layout ? (stored as ColumnMapping) : null;
   say({ phase: 'writing', rowsTotal: upload.kind === 'spectrum' ? 2 : state.rows.length });
   const ctx: CommitContext = { projectId, uploadId, actorUserId, now, report: say };
   return db.transaction(async (trx) => {
-    if ((await setUploadStatus(trx, uploadId, 'committed', now)) === 0) throw conflict('This upload was committed or discarded meanwhile.');
     const imported = upload.kind === 'spectrum' ? await commitSpectrum(trx, ctx, state) : await commitMeasurements(trx, ctx, state);
     if (mapping) await rememberMapping(trx, projectId, headerSignature(state.headers), mapping, now);
     say({ phase: 'deriving', targetsTotal: imported.targetIds.length, targetsDerived: 0 });
@@ -255,6 +255,10 @@ async function commitWhole(db: Db, job: CommitJob, say: (p: Partial<UploadProgre
       },
       now,
     );
+    // The upload is marked committed last, guarded by its status: a commit or discard that got there first rolls this
+    // one back whole. Marked first, its row would stay locked through the commit on PostgreSQL, and the progress written
+    // to that row outside the transaction (for other processes to read) would wait behind the lock until the end.
+    if ((await setUploadStatus(trx, uploadId, 'committed', now)) === 0) throw conflict('This upload was committed or discarded meanwhile.');
     await dropPreviewRows(trx, uploadId);
     return { measurementsAdded: imported.measurementsAdded, targetsCreated: imported.createdTargets, derivedProposed: proposed };
   });
