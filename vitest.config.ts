@@ -12,14 +12,15 @@ const alias = {
 // Vitest's default is one worker fewer than the CPUs, so one on a 2-core
 // machine; the API tests spend much of their time waiting (password hashes
 // on libuv's threads, PostgreSQL in its own processes), so three run side by
-// side, and the browser test files two (each starts its own server on a free
+// side (the unit tests too: `npm test` runs both projects at once, and Vitest
+// wants them alike), and the browser test files two (each starts its own server on a free
 // port with its own data directory: tests/e2e/support/harness.ts). The
 // timeouts are guards against a hang, not measures of speed.
 export default defineConfig({
   resolve: { alias },
   test: {
     projects: [
-      { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'tests/unit/**/*.test.tsx'], environment: 'node' } },
+      { resolve: { alias }, test: { name: 'unit', include: ['tests/unit/**/*.test.ts', 'tests/unit/**/*.test.tsx'], environment: 'node', maxWorkers: 3 } },
       { resolve: { alias }, test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', globalSetup: ['tests/support/test-database.ts'], maxWorkers: 3, testTimeout: 30_000 } },
       {
         resolve: { alias },
