@@ -1,6 +1,8 @@
 import type { Page } from 'playwright-core';
 
 export interface CaughtLink {
+  /** The message's id in the mail fake (the caught-mail page opens it by id). */
+  id: number;
   /** The link's path and fragment, to open on the test server (the mail names PUBLIC_URL, which may be another host name for it). */
   path: string;
   html: string;
@@ -23,7 +25,7 @@ export async function linkFromMail(admin: Page, to: string, linkPage: 'invitatio
         for (const m of list.messages.filter((x) => x.to.includes(to))) {
           const { message: body } = (await (await fetch(`/api/admin/mail/${m.id}`)).json()) as { message: { text: string; html: string | null; subject: string } };
           const link = new RegExp(source).exec(body.text)?.[0];
-          if (link) return { link, html: body.html ?? '', text: body.text, subject: body.subject };
+          if (link) return { id: m.id, link, html: body.html ?? '', text: body.text, subject: body.subject };
         }
         return null;
       },
@@ -31,7 +33,7 @@ export async function linkFromMail(admin: Page, to: string, linkPage: 'invitatio
     );
     if (found) {
       const url = new URL(found.link);
-      return { path: `${url.pathname}${url.hash}`, html: found.html, text: found.text, subject: found.subject };
+      return { id: found.id, path: `${url.pathname}${url.hash}`, html: found.html, text: found.text, subject: found.subject };
     }
     await admin.waitForTimeout(500);
   }
