@@ -9,12 +9,32 @@ function scrypt(password: BinaryLike, salt: Buffer, keylen: number, options: Scr
   );
 }
 
+/** scrypt's cost parameters as RFC 7914 names them: N (a power of two), r and p. */
+export interface ScryptCost {
+  N: number;
+  r: number;
+  p: number;
+}
+
 // N = 2^15, r = 8, p = 1: OWASP's scrypt minimum is N = 2^17 with r = 8 for
 // interactive logins (common practice); 2^15 keeps a login near 50 ms on a
 // 2-core server. The parameters are stored with each hash so they can rise later.
-const N = 2 ** 15;
-const r = 8;
-const p = 1;
+export const PRODUCTION_COST: ScryptCost = { N: 2 ** 15, r: 8, p: 1 };
+
+/**
+ * The cost new hashes are made with in a process of this environment:
+ * PRODUCTION_COST, except in the test runner (NODE_ENV=test, which Vitest
+ * sets), where STARLEDGER_TEST_SCRYPT_N may lower N so that its hundreds of
+ * sign-ins do not each spend 160 ms of CPU (vitest.config.ts). A server,
+ * whatever else it is told, never hashes below PRODUCTION_COST.
+ */
+export function hashCostFor(env: NodeJS.ProcessEnv): ScryptCost {
+  const testN = Number(env.STARLEDGER_TEST_SCRYPT_N);
+  if (env.NODE_ENV !== 'test' || !Number.isInteger(Math.log2(testN)) || testN < 2 || testN > PRODUCTION_COST.N) return PRODUCTION_COST;
+  return { ...PRODUCTION_COST, N: testN };
+}
+
+const { N, r, p } = hashCostFor(process.env);
 const KEYLEN = 32;
 
 /**
