@@ -24,6 +24,7 @@ import * as projectTargetCountPerStatement from './20261203221000_project_target
 import * as uploadCommitProgress from './20261203222000_upload_commit_progress';
 import * as secondFactor from './20261203224700_second_factor';
 import * as recoveryCodeSalt from './20261204063000_recovery_code_salt';
+import * as spectrumPreviewPoints from './20261205080000_spectrum_preview_points';
 
 /**
  * Migrations are imported statically so that the app bundle, the tests and
@@ -57,6 +58,7 @@ const migrations: Record<string, Knex.Migration> = {
   '20261203222000_upload_commit_progress': uploadCommitProgress,
   '20261203224700_second_factor': secondFactor,
   '20261204063000_recovery_code_salt': recoveryCodeSalt,
+  '20261205080000_spectrum_preview_points': spectrumPreviewPoints,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -2,7 +2,7 @@ import { gunzipSync, gzipSync } from 'node:zlib';
 import { isSqlite, writeUnlessBusy, type Db } from '../../db/knex';
 import { bulkInsert } from '../../db/bulk-insert';
 import type { ColumnMapping, NormalisedRow, RowError } from '../../../shared/file-reading/measurement-file';
-import { ERRORS_SHOWN, type Caution, type SpectrumPreview, type Upload, type UploadProgress } from '../../../shared/schemas/uploads';
+import { ERRORS_SHOWN, type Caution, type DrawnSpectrum, type SpectrumPreview, type Upload, type UploadProgress } from '../../../shared/schemas/uploads';
 import { parseJson, toIso } from '../../lib/rows';
 import { pointsToDraw } from '../../../shared/schemas/spectrum-drawing';
 
@@ -15,12 +15,14 @@ export interface PreviewSummary {
   everyRowKnownTarget: boolean;
   cautions: Caution[];
   duplicateOf: number | null;
-  spectrum: SpectrumPreview | null;
+  /** The spectrum as drawn: its fit and every n-th point (its points are kept whole in preview_blob, read only by the commit). */
+  spectrum: DrawnSpectrum | null;
 }
 
-/** The summary plus the normalised rows the commit imports (large; read only by the commit). */
-export interface PreviewState extends PreviewSummary {
+/** The summary plus what the commit imports (large; read only by the commit): the normalised rows, or the spectrum's every point. */
+export interface PreviewState extends Omit<PreviewSummary, 'spectrum'> {
   rows: NormalisedRow[];
+  spectrum: SpectrumPreview | null;
 }
 
 interface UploadRow {
@@ -82,7 +84,7 @@ function toUpload(r: UploadRow, preview: PreviewSummary | null, errors: RowError
     everyRowKnownTarget: preview?.everyRowKnownTarget ?? (preview?.newTargets.length === 0 && r.error_count === 0),
     cautions: preview?.cautions ?? [],
     duplicateOf: preview?.duplicateOf ?? null,
-    spectrum: preview?.spectrum ? { ...preview.spectrum, points: pointsToDraw(preview.spectrum.points), pointCount: preview.spectrum.points.length } : null,
+    spectrum: preview?.spectrum ?? null,
     targets: [],
     uploadedBy: r.uploaded_by ?? null,
     createdAt: toIso(r.created_at),
@@ -148,7 +150,8 @@ export async function savePreview(
   uploadId: number,
   p: { records: string[][]; errors: RowError[]; mapping: ColumnMapping | null; preview: PreviewState },
 ): Promise<void> {
-  const { rows, ...summary } = p.preview;
+  const { rows, spectrum, ...rest } = p.preview;
+  const summary: PreviewSummary = { ...rest, spectrum: spectrum && { ...spectrum, points: pointsToDraw(spectrum.points), pointCount: spectrum.points.length } };
   await trx('uploads')
     .where({ id: uploadId })
     .update({
@@ -158,7 +161,7 @@ export async function savePreview(
       mapping_json: JSON.stringify(p.mapping ?? {}),
       summary_json: JSON.stringify(summary),
       preview_json: null,
-      preview_blob: packRows(rows),
+      preview_blob: spectrum ? pack(spectrum.points) : packRows(rows),
     });
   await trx('upload_error_chunks').where({ upload_id: uploadId }).delete();
   await bulkInsert(trx, 'upload_error_chunks', errorChunks(uploadId, p.errors));
@@ -338,9 +341,13 @@ export async function loadPreviewState(db: Db, uploadId: number): Promise<Previe
   const row = await db('uploads').where({ id: uploadId }).first('summary_json', 'preview_blob', 'preview_json');
   const summary = parseJson<PreviewSummary | null>(row?.summary_json, null);
   if (!summary) return null;
+  if (summary.spectrum) {
+    const { pointCount: _, ...drawn } = summary.spectrum;
+    return { ...summary, rows: [], spectrum: { ...drawn, points: unpack<[number, number][]>(row.preview_blob) } };
+  }
   // Previews saved before the compact form kept their rows as JSON.
   const rows = row.preview_blob ? unpackRows(row.preview_blob) : parseJson<NormalisedRow[]>(row.preview_json, []);
-  return { ...summary, rows };
+  return { ...summary, rows, spectrum: null };
 }
 
 export async function loadContent(db: Db, projectId: number, uploadId: number): Promise<{ filename: string; content: Buffer; sha256: string } | undefined> {
