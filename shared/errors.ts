@@ -29,6 +29,8 @@ export const errorCodes = {
   unsupported_media_type: 'The request’s body is not of the type this address reads.',
   database_busy: 'The database is busy (a backup or another writer holds it). Nothing was changed; try again in a few seconds.',
   storage_full: 'The server’s storage is full, so nothing was saved. Ask the site admin to free disk space, then try again.',
+  second_factor_key_mismatch:
+    'One-time codes cannot be checked: this server’s SECOND_FACTOR_KEY is not the key your second factor was sealed with. Nothing was changed; ask the site’s operator to restore the key kept with the backups (README, Configuration).',
   internal: 'Something went wrong on the server. The error was logged.',
 } as const;
 

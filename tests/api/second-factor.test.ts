@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { afterEach, describe, expect, it } from 'vitest';
 import { Secret } from 'otpauth';
+import { createApp } from '../../server/app';
 import { totpFor } from '../../server/modules/second-factor/second-factor.service';
 import { movableClock } from '../support/movable-clock';
 import { codeAt, enrolSecondFactor } from '../support/second-factor';
@@ -122,6 +123,25 @@ describe('the second factor', () => {
     const limited = await guesser.post('/api/auth/login/code').send({ code: codeAt(secret, clock.now()) });
     expect(limited.status).toBe(429);
     expect(limited.headers['retry-after']).toBeDefined();
+  });
+
+  it('under another SECOND_FACTOR_KEY answers 503 naming the key, not 500, and signs nobody in; under its own key the same code still works', async () => {
+    const clock = movableClock();
+    world = await makeWorld({ clock });
+    const { secret } = await enrol(world, 'reader', clock);
+    clock.advance(30_000);
+    // A second process on the same database, started with a key other than the one the secret was sealed under.
+    const otherKey = createApp({ db: world.db, clock, sessionSecret: 'test-secret', sessionCleanupIntervalMs: 0, secondFactorKey: 'a-different-key', adminSecondFactor: 'optional' });
+    const agent = request.agent(otherKey);
+    await agent.post('/api/auth/login').send({ email: emails.reader, password: PASSWORD }).expect(200);
+    const refused = await agent.post('/api/auth/login/code').send({ code: codeAt(secret, clock.now()) });
+    expect(refused.status).toBe(503);
+    expect(refused.body.error.code).toBe('second_factor_key_mismatch');
+    expect(refused.body.error.message).toMatch(/SECOND_FACTOR_KEY/);
+    await agent.get('/api/auth/me').expect(401);
+    const own = request.agent(world.app);
+    await own.post('/api/auth/login').send({ email: emails.reader, password: PASSWORD }).expect(200);
+    await own.post('/api/auth/login/code').send({ code: codeAt(secret, clock.now()) }).expect(200);
   });
 
   it('takes a code of the 30-second step before or after the server’s (a device clock a little off) and refuses one two steps away', async () => {

@@ -5,7 +5,7 @@ import type { Db } from '../../db/knex';
 import type { Clock } from '../../lib/clock';
 import type { User } from '../../../shared/schemas/auth';
 import { RECOVERY_CODE_COUNT, type SecondFactorEnrolment } from '../../../shared/schemas/second-factor';
-import { conflict, validationFailed } from '../../lib/errors';
+import { AppError, conflict, validationFailed } from '../../lib/errors';
 import { appendTrail } from '../trail/trail.repository';
 
 /** RFC 6238's defaults, which every authenticator app reads: HMAC-SHA-1, 6 digits, 30-second steps. */
@@ -32,12 +32,18 @@ function sealer(keyText: string) {
       const body = Buffer.concat([cipher.update(plain, 'utf8'), cipher.final()]);
       return ['v1', iv, cipher.getAuthTag(), body].map((p) => (typeof p === 'string' ? p : p.toString('base64url'))).join('.');
     },
+    /** The secret again; a secret sealed under another key (SECOND_FACTOR_KEY changed or lost) is a 503 that says so, not a 500. */
     open(sealed: string): string {
       const [version, iv, tag, body] = sealed.split('.');
       if (version !== 'v1' || !iv || !tag || !body) throw new Error('unknown sealed secret format');
       const decipher = createDecipheriv('aes-256-gcm', key, Buffer.from(iv, 'base64url'));
       decipher.setAuthTag(Buffer.from(tag, 'base64url'));
-      return Buffer.concat([decipher.update(Buffer.from(body, 'base64url')), decipher.final()]).toString('utf8');
+      try {
+        return Buffer.concat([decipher.update(Buffer.from(body, 'base64url')), decipher.final()]).toString('utf8');
+      } catch {
+        // GCM's tag check is what fails when the key is another one (NIST SP 800-38D, 7.2).
+        throw new AppError(503, 'second_factor_key_mismatch');
+      }
     },
     /**
      * A recovery code's keyed hash with its own random salt (ASVS 2.6.2: under
