@@ -1,6 +1,7 @@
 import { afterEach, describe, expect, it } from 'vitest';
 import { syntheticSpectrum } from '../support/synthetic-spectrum';
 import { makeWorld, signIn, type Session, type World } from '../support/world';
+import { loadPreviewState } from '../../server/modules/uploads/uploads.repository';
 
 let world: World;
 afterEach(async () => world?.db.destroy());
@@ -73,7 +74,13 @@ describe('a long spectrum: every point fitted, only what a chart can show sent',
     // 1 500 pairs of numbers in JSON are about 60 kB; the 60 000 points sent whole would be about 2.4 MB.
     expect(res.text.length).toBeLessThan(200_000);
 
-    await s.agent.post(`/api/projects/${world.projectId}/uploads/${res.body.upload.id}/commit`).set('X-CSRF-Token', s.csrf).send({}).expect(200);
+    const commit = () => s.agent.post(`/api/projects/${world!.projectId}/uploads/${res.body.upload.id}/commit`).set('X-CSRF-Token', s.csrf).send({});
+    await commit().expect(200);
+    // Committed once: a second commit is refused, naming why, and adds nothing.
+    expect((await commit().expect(409)).body.error.message).toMatch(/already committed/);
+    expect(await world.db('spectra').count({ n: '*' }).first()).toEqual({ n: 1 });
+    // Its points went with the preview: a commit that raced this one finds nothing to import (a 409, not a crash).
+    expect(await loadPreviewState(world.db, res.body.upload.id)).toBeNull();
     const stored = await s.agent.get(`/api/projects/${world.projectId}/targets/${world.targetId}/spectra`).expect(200);
     expect(stored.body.spectra[0].pointCount).toBe(60_000);
     expect(stored.body.spectra[0].points).toHaveLength(1_500);

@@ -342,6 +342,8 @@ export async function loadPreviewState(db: Db, uploadId: number): Promise<Previe
   const summary = parseJson<PreviewSummary | null>(row?.summary_json, null);
   if (!summary) return null;
   if (summary.spectrum) {
+    // Its points are dropped with the preview (committed, discarded or expired): nothing is left to commit.
+    if (!row.preview_blob) return null;
     const { pointCount: _, ...drawn } = summary.spectrum;
     return { ...summary, rows: [], spectrum: { ...drawn, points: unpack<[number, number][]>(row.preview_blob) } };
   }
