@@ -20,8 +20,8 @@ const alias = {
 // database and app, and re-importing the server for every file was two
 // fifths of the run. The unit and API processes hash passwords at scrypt
 // N = 2^10 rather than a server's 2^15 (server/lib/passwords.ts, honoured only
-// when NODE_ENV is test): some 1 400 sign-ins and accounts at 160 ms of CPU
-// each were half the API run. The browser tests' servers keep the full cost.
+// when NODE_ENV is test): some 1 400 sign-ins and accounts, at 70 ms of CPU
+// each (160 ms on a busy machine), were half the API run; at 2^10 one takes 2 ms. The browser tests' servers keep the full cost.
 const testRunnerEnv = { STARLEDGER_TEST_SCRYPT_N: String(2 ** 10) };
 
 export default defineConfig({
