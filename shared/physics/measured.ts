@@ -80,33 +80,54 @@ export interface Combination {
   readonly degreesOfFreedom: number;
   /** False when some estimate had σ = 0 and an unweighted mean was used. */
   readonly weighted: boolean;
-  /** Pairs (i, j) that differ by more than `threshold` combined sigma. */
+  /**
+   * The pairs (i, j) that differ by more than `threshold` combined σ, most
+   * apart first, at most MOST_DISCORDANT_PAIRS of them: a star observed a
+   * thousand times can have hundreds of thousands of such pairs.
+   */
   readonly discordantPairs: ReadonlyArray<readonly [number, number]>;
+  /** How many pairs differ by more than `threshold` combined σ, all of them counted. */
+  readonly discordantPairCount: number;
 }
+
+/** How many of the pairs that disagree a combination names (the most apart); the rest are counted. */
+export const MOST_DISCORDANT_PAIRS = 10;
 
 /**
  * Inverse-variance weighted mean of independent estimates, σ = (Σ 1/σᵢ²)^-½.
- * Pairs differing by more than `thresholdSigma` × √(σᵢ² + σⱼ²) are listed.
+ * Pairs differing by more than `thresholdSigma` × √(σᵢ² + σⱼ²) are counted,
+ * and the MOST_DISCORDANT_PAIRS most apart listed.
  * When any σᵢ is 0 the weights are undefined and the plain mean is returned,
  * with the standard error of the mean as σ (0 for a single estimate).
  * @see Bevington & Robinson, Data Reduction and Error Analysis (3rd ed.), §4.1 (from memory)
  */
 export function inverseVarianceMean(estimates: readonly Measured[], quantity: string, thresholdSigma = 3): Combination {
   if (estimates.length === 0) throw new PhysicsError('missing_input', quantity, `no estimates of ${quantity} to combine`);
-  const discordantPairs: Array<readonly [number, number]> = [];
+  // Every pair is compared; the most apart are kept in order, by how many combined σ they differ.
+  const worst: { pair: readonly [number, number]; apart: number }[] = [];
+  let discordantPairCount = 0;
   for (let i = 0; i < estimates.length; i++) {
     for (let j = i + 1; j < estimates.length; j++) {
       const a = estimates[i];
       const b = estimates[j];
       const combined = Math.hypot(a.sigma, b.sigma);
-      if (Math.abs(a.value - b.value) > thresholdSigma * combined) discordantPairs.push([i, j] as const);
+      const difference = Math.abs(a.value - b.value);
+      if (!(difference > thresholdSigma * combined)) continue;
+      discordantPairCount++;
+      const apart = difference / combined;
+      if (worst.length === MOST_DISCORDANT_PAIRS && !(apart > worst[worst.length - 1].apart)) continue;
+      let k = worst.length;
+      while (k > 0 && apart > worst[k - 1].apart) k--;
+      worst.splice(k, 0, { pair: [i, j], apart });
+      if (worst.length > MOST_DISCORDANT_PAIRS) worst.pop();
     }
   }
+  const discordantPairs = worst.map((w) => w.pair);
   const n = estimates.length;
   if (estimates.some((e) => e.sigma === 0)) {
     const mean = estimates.reduce((s, e) => s + e.value, 0) / n;
     const spread = n > 1 ? Math.sqrt(estimates.reduce((s, e) => s + (e.value - mean) ** 2, 0) / (n - 1) / n) : 0;
-    return { mean: { value: mean, sigma: spread }, chiSquare: 0, degreesOfFreedom: n - 1, weighted: false, discordantPairs };
+    return { mean: { value: mean, sigma: spread }, chiSquare: 0, degreesOfFreedom: n - 1, weighted: false, discordantPairs, discordantPairCount };
   }
   // Weights relative to the smallest σ keep Σw finite even for σ near the
   // smallest double, where 1/σ² overflows.
@@ -127,5 +148,6 @@ export function inverseVarianceMean(estimates: readonly Measured[], quantity: st
     degreesOfFreedom: n - 1,
     weighted: true,
     discordantPairs,
+    discordantPairCount,
   };
 }

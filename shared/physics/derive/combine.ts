@@ -21,7 +21,7 @@ export interface Combined {
   readonly weighted: boolean;
   /** For a plain mean: the standard error of the mean from the estimates' scatter (0 for one). */
   readonly standardError: number;
-  /** One per pair of estimates further apart than DISAGREEMENT_SIGMA combined σ. */
+  /** One per pair of estimates further apart than DISAGREEMENT_SIGMA combined σ, the most apart first (MOST_DISCORDANT_PAIRS of them), and one that counts the rest. */
   readonly warnings: PhysicsWarning[];
   /** Words for the method line: what was done to σ, or "". */
   readonly note: string;
@@ -31,7 +31,8 @@ export interface Combined {
  * The one rule by which Starledger combines repeated estimates of a
  * quantity (parallaxes, fluxes, magnitudes, colours, E(B−V), temperatures,
  * line velocities): the inverse-variance mean; every pair further apart
- * than 3 combined σ, |xᵢ − xⱼ| > 3 √(σᵢ² + σⱼ²), is named in a warning; and
+ * than 3 combined σ, |xᵢ − xⱼ| > 3 √(σᵢ² + σⱼ²), is counted, the ten most
+ * apart named in a warning each and the rest in one more; and
  * when the estimates scatter more than their σ allow, the Birge ratio
  * R_B = √(χ² / (n − 1)), χ² = Σ ((xᵢ − x̄) / σᵢ)², widens σ by R_B when it
  * exceeds 1 (the Particle Data Group's scale factor S). With an estimate
@@ -80,6 +81,15 @@ export function combineEstimates(
       limit: `${DISAGREEMENT_SIGMA} σ`,
     };
   });
+  const unnamed = combination.discordantPairCount - combination.discordantPairs.length;
+  if (unnamed > 0) {
+    warnings.push({
+      code,
+      quantity,
+      message: `${what}: ${unnamed.toLocaleString('en-GB')} more ${unnamed === 1 ? 'pair differs' : 'pairs differ'} by more than ${DISAGREEMENT_SIGMA} σ (the ${combination.discordantPairs.length} most apart are named)`,
+      limit: `${DISAGREEMENT_SIGMA} σ`,
+    });
+  }
   return { value: combination.mean.value, weights, scale, birgeRatio, weighted, standardError: weighted ? 0 : combination.mean.sigma, warnings, note };
 }
 

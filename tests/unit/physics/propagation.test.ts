@@ -166,6 +166,19 @@ describe('the one combination rule (Birge 1932; PDG scale factor)', () => {
     expect(c.warnings[0].message).toContain('a and b differ by 14.1 σ');
   });
 
+  it('a thousand estimates in two groups: all 250 499 disagreeing pairs counted, the ten most apart named most apart first, one warning for the rest', () => {
+    // 500 estimates at 10 ± 0.1 and 500 at 12 ± 0.1, one of each pair of groups nudged further out so the most apart are known.
+    const estimates = Array.from({ length: 1000 }, (_, i) => ({ value: i < 500 ? 10 : 12 + (i === 999 ? 1 : 0), sigma: 0.1 }));
+    const names = estimates.map((_, i) => `m${i}`);
+    const c = combineEstimates(estimates, names, 'magnitudes', 'magnitude', 'measurements_disagree');
+    expect(c.warnings).toHaveLength(11);
+    // m999 (13) is 3 apart from each of the 500 at 10: 21.2 σ; every other cross pair is 2 apart, 14.1 σ; and m999 is
+    // 1 apart (7.1 σ) from each of the other 499 at 12. 500 × 500 + 499 pairs in all.
+    expect(c.warnings.slice(0, 10).every((w) => /^magnitudes: m\d+ and m999 differ by 21\.2 σ/.test(w.message))).toBe(true);
+    expect(c.warnings[10].message).toBe('magnitudes: 250,489 more pairs differ by more than 3 σ (the 10 most apart are named)');
+    expect(new Set(c.warnings.map((w) => w.code))).toEqual(new Set(['measurements_disagree']));
+  });
+
   it('estimates that agree (R_B < 1) keep their σ: the scale is never below 1', () => {
     const c = combineEstimates([{ value: 10, sigma: 1 }, { value: 10.5, sigma: 1 }], ['a', 'b'], 'temperatures', 'temperature', 'temperatures_disagree');
     expect(c.birgeRatio).toBeCloseTo(Math.sqrt(0.125), 9);
