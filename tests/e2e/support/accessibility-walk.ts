@@ -2,7 +2,7 @@ import type { Page } from 'playwright-core';
 import { describe, expect, it } from 'vitest';
 import { axeViolations } from './axe';
 import { browserSuite, chromiumAvailable, screenshot } from './harness';
-import { apiWrite, linkFromMail } from './mail';
+import { apiWrite, linkFromMail, type CaughtLink } from './mail';
 
 /**
  * The accessibility walk: each page checked by axe-core (the Deque engine,
@@ -18,7 +18,7 @@ export interface WalkFixtures {
   /** A preview whose rows fail. */
   upload(): Promise<number>;
   /** A mailed invitation as the mail fake caught it: its link's path and fragment, and the message's id. */
-  invitation(): Promise<{ path: string; id: number }>;
+  invitation(): Promise<CaughtLink>;
   /** Path and fragment of a mailed reset link. */
   reset(): Promise<string>;
 }
@@ -166,8 +166,7 @@ export function describeAccessibilityWalk(group: string, pages: PageSpec[]): voi
             // A waiting invitation, read from what the mail fake received.
             const invitee = `a11y-${theme}@demo.invalid`;
             expect((await apiWrite(await pageFor(LEAD), 'POST', '/projects/1/invitations', { email: invitee, role: 'reader' })).status).toBe(201);
-            const { path, id } = await linkFromMail(await pageFor(ADMIN), invitee, 'invitation');
-            return { path, id };
+            return linkFromMail(await pageFor(ADMIN), invitee, 'invitation');
           }),
           reset: once(async () => {
             await (await pageFor(null)).evaluate(() =>
